@@ -1,0 +1,180 @@
+/**
+ * Turns a loaded table into a learning problem: which column is the target, which task,
+ * which rows are usable (target present), which columns are features, and the optional
+ * group and order columns used only for splitting.
+ */
+import { closeNames, InputError, UsageError } from '../errors.js';
+import type { Target, Task } from '../learners/types.js';
+import type { Column, Table } from './types.js';
+
+/** An integer target with at most this many distinct values is taken as classification. */
+export const MAX_INFERRED_CLASSES = 10;
+
+export interface ProblemOptions {
+  readonly target: string;
+  readonly drop?: readonly string[];
+  readonly task?: Task;
+  readonly group?: string;
+  readonly order?: string;
+}
+
+export interface Problem {
+  readonly table: Table;
+  readonly task: Task;
+  readonly targetName: string;
+  /** table row index of each used row; the rest of the problem is indexed by used row */
+  readonly rows: Int32Array;
+  /** rows left out because their target is missing */
+  readonly excludedRows: number;
+  readonly target: Target;
+  readonly features: readonly Column[];
+  readonly dropped: readonly string[];
+  readonly groupName?: string;
+  /** group code per used row, 0..groups-1 */
+  readonly groups?: Int32Array;
+  readonly groupLevels?: readonly string[];
+  readonly orderName?: string;
+  /** order value per used row (numbers, or dates as milliseconds since 1970) */
+  readonly order?: Float64Array;
+}
+
+function columnOf(table: Table, name: string, option: string): Column {
+  const col = table.byName.get(name);
+  if (!col) {
+    const hint = closeNames(name, table.columns.map((c) => c.name));
+    throw new UsageError(`${option} "${name}": no such column in ${table.source}${hint ? `; ${hint}` : ''}`);
+  }
+  return col;
+}
+
+function present(col: Column, i: number): boolean {
+  return col.kind === 'numeric' ? !Number.isNaN(col.values[i]) : col.codes[i] >= 0;
+}
+
+function inferTask(col: Column): Task {
+  if (col.kind === 'categorical') return 'classification';
+  const distinct = new Set<number>();
+  for (const v of col.values) {
+    if (Number.isNaN(v)) continue;
+    if (!Number.isInteger(v)) return 'regression';
+    distinct.add(v);
+    if (distinct.size > MAX_INFERRED_CLASSES) return 'regression';
+  }
+  return 'classification';
+}
+
+function classificationTarget(table: Table, col: Column, rows: Int32Array): Target {
+  // class names in a stable order: numerically for a numeric column, by code point otherwise
+  let names: string[];
+  let codeOf: (i: number) => string;
+  if (col.kind === 'numeric') {
+    const values = [...new Set(Array.from(rows, (r) => col.values[r]))].sort((a, b) => a - b);
+    names = values.map((v) => String(v));
+    codeOf = (r) => String(col.values[r]);
+  } else {
+    const used = new Set<number>();
+    for (const r of rows) used.add(col.codes[r]);
+    names = [...used].map((k) => col.levels[k]).sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    codeOf = (r) => col.levels[col.codes[r]];
+  }
+  if (names.length < 2) {
+    throw new InputError(
+      `${table.source}: target "${col.name}" has only one class ("${names[0]}") in the usable rows; classification needs at least two`,
+    );
+  }
+  const index = new Map(names.map((n, k) => [n, k]));
+  const codes = new Int32Array(rows.length);
+  rows.forEach((r, i) => (codes[i] = index.get(codeOf(r))!));
+  return { task: 'classification', codes, classes: names };
+}
+
+function regressionTarget(table: Table, col: Column, rows: Int32Array): Target {
+  if (col.kind !== 'numeric') {
+    const r = rows.find((row) => col.codes[row] >= 0 && !Number.isFinite(Number(col.levels[col.codes[row]])));
+    const at = r === undefined ? '' : ` (line ${table.lines[r]}: "${col.levels[col.codes[r]]}")`;
+    throw new InputError(
+      `${table.source}: target "${col.name}" is not numeric${at}; regression needs numbers (use --task classification for labels)`,
+    );
+  }
+  return { task: 'regression', values: Float64Array.from(rows, (r) => col.values[r]) };
+}
+
+function orderValues(table: Table, col: Column, rows: Int32Array): Float64Array {
+  if (col.kind === 'numeric') {
+    const out = Float64Array.from(rows, (r) => col.values[r]);
+    const bad = out.findIndex((v) => Number.isNaN(v));
+    if (bad >= 0) throw new InputError(`${table.source}: line ${table.lines[rows[bad]]}: --order column "${col.name}" is missing; every row needs an order value`);
+    return out;
+  }
+  const times = col.levels.map((t) => (/^\d{4}-\d{2}-\d{2}/.test(t.trim()) ? Date.parse(t.trim()) : NaN));
+  return Float64Array.from(rows, (r) => {
+    const code = col.codes[r];
+    const v = code < 0 ? NaN : times[code];
+    if (Number.isNaN(v)) {
+      const text = code < 0 ? 'missing' : `"${col.levels[code]}"`;
+      throw new InputError(
+        `${table.source}: line ${table.lines[r]}: --order column "${col.name}" is ${text}; order values must be numbers or ISO dates (YYYY-MM-DD)`,
+      );
+    }
+    return v;
+  });
+}
+
+/** Builds the problem; throws UsageError for unknown columns and InputError for unusable data. */
+export function defineProblem(table: Table, options: ProblemOptions): Problem {
+  const targetCol = columnOf(table, options.target, '--target');
+  const drop = options.drop ?? [];
+  for (const d of drop) {
+    columnOf(table, d, '--drop');
+    if (d === options.target) throw new UsageError(`--drop "${d}": that is the target column; drop other columns`);
+  }
+  const groupCol = options.group === undefined ? undefined : columnOf(table, options.group, '--group');
+  const orderCol = options.order === undefined ? undefined : columnOf(table, options.order, '--order');
+  for (const [opt, col] of [['--group', groupCol], ['--order', orderCol]] as const) {
+    if (col === targetCol) throw new UsageError(`${opt} "${col.name}": that is the target column; choose another column`);
+  }
+
+  const used: number[] = [];
+  for (let r = 0; r < table.rows; r++) if (present(targetCol, r)) used.push(r);
+  const rows = Int32Array.from(used);
+  if (rows.length === 0) throw new InputError(`${table.source}: target "${targetCol.name}" is missing in every row`);
+  const task = options.task ?? inferTask(targetCol);
+  const target = task === 'classification' ? classificationTarget(table, targetCol, rows) : regressionTarget(table, targetCol, rows);
+
+  let groups: Int32Array | undefined;
+  let groupLevels: string[] | undefined;
+  if (groupCol) {
+    const key = (r: number): string =>
+      groupCol.kind === 'numeric' ? (Number.isNaN(groupCol.values[r]) ? '' : String(groupCol.values[r])) : groupCol.codes[r] < 0 ? '' : groupCol.levels[groupCol.codes[r]];
+    const index = new Map<string, number>();
+    groups = new Int32Array(rows.length);
+    rows.forEach((r, i) => {
+      const k = key(r);
+      let g = index.get(k);
+      if (g === undefined) index.set(k, (g = index.size));
+      groups![i] = g;
+    });
+    // a missing group value is its own group (""), so such rows stay together
+    groupLevels = [...index.keys()];
+  }
+  const order = orderCol ? orderValues(table, orderCol, rows) : undefined;
+
+  const skip = new Set<string>([targetCol.name, ...drop]);
+  if (groupCol) skip.add(groupCol.name);
+  if (orderCol) skip.add(orderCol.name);
+  const features = table.columns.filter((c) => !skip.has(c.name));
+  if (features.length === 0) throw new UsageError(`${table.source}: no feature columns are left after the target, --drop, --group and --order`);
+
+  return {
+    table,
+    task,
+    targetName: targetCol.name,
+    rows,
+    excludedRows: table.rows - rows.length,
+    target,
+    features,
+    dropped: [...drop],
+    ...(groupCol ? { groupName: groupCol.name, groups, groupLevels } : {}),
+    ...(orderCol ? { orderName: orderCol.name, order } : {}),
+  };
+}

@@ -1,0 +1,49 @@
+/**
+ * A loaded table, column by column. Numeric columns are Float64Array with NaN for missing;
+ * categorical columns are integer codes into a level table, -1 for missing. Columns are found
+ * by name through a Map, never through a plain object (a CSV header may be `__proto__`).
+ */
+export type ColumnKind = 'numeric' | 'categorical';
+
+export interface NumericColumn {
+  readonly kind: 'numeric';
+  readonly name: string;
+  /** 0-based position in the file's header */
+  readonly position: number;
+  readonly values: Float64Array;
+  readonly missing: number;
+}
+
+export interface CategoricalColumn {
+  readonly kind: 'categorical';
+  readonly name: string;
+  readonly position: number;
+  /** code per row, -1 where missing */
+  readonly codes: Int32Array;
+  /** level names in order of first appearance */
+  readonly levels: readonly string[];
+  readonly missing: number;
+}
+
+export type Column = NumericColumn | CategoricalColumn;
+
+export interface Fingerprint {
+  /** SHA-256 of the input bytes, hex */
+  readonly sha256: string;
+  readonly rows: number;
+  readonly columns: number;
+  /** resolved schema: [name, kind] in header order */
+  readonly schema: readonly (readonly [string, ColumnKind])[];
+}
+
+export interface Table {
+  /** where the data came from: a path, or "-" for standard input */
+  readonly source: string;
+  readonly rows: number;
+  readonly columns: readonly Column[];
+  readonly byName: ReadonlyMap<string, Column>;
+  readonly fingerprint: Fingerprint;
+  /** 1-based line number in the file of each data row (for error messages) */
+  readonly lines: Int32Array;
+  readonly warnings: readonly string[];
+}

@@ -1,0 +1,81 @@
+/**
+ * The one learner interface. A learner is a description plus `fit`, which returns a model.
+ * Features arrive as a row-major matrix of doubles after fold-local preprocessing; targets as
+ * class codes 0..C-1 (classification) or doubles (regression).
+ */
+import type { Rng } from '../run/rng.js';
+
+export type Task = 'classification' | 'regression';
+export const TASKS = ['classification', 'regression'] as const;
+
+/** A dense row-major matrix: element (i, j) is data[i * cols + j]. */
+export interface Matrix {
+  readonly rows: number;
+  readonly cols: number;
+  readonly data: Float64Array;
+}
+
+export type Target =
+  | { readonly task: 'classification'; readonly codes: Int32Array; readonly classes: readonly string[] }
+  | { readonly task: 'regression'; readonly values: Float64Array };
+
+export type ParamValue = number | string | boolean;
+export type Params = Record<string, ParamValue>;
+
+/** Declares one option of a learner: its kind, limits, default, and which way is simpler. */
+export type ParamSpec =
+  | {
+      readonly name: string;
+      readonly kind: 'int' | 'number';
+      readonly min?: number;
+      readonly max?: number;
+      /** exclusive lower bound, for options such as a fraction that must be > 0 */
+      readonly minExclusive?: boolean;
+      readonly default: number;
+      /** 'lower' when a smaller value gives a simpler model, 'higher' when a larger one does */
+      readonly simpler?: 'lower' | 'higher';
+      readonly doc: string;
+    }
+  | {
+      readonly name: string;
+      readonly kind: 'choice';
+      readonly choices: readonly string[];
+      readonly default: string;
+      readonly doc: string;
+    }
+  | {
+      /** a free-form string checked by `parse`, which returns the canonical form or throws */
+      readonly name: string;
+      readonly kind: 'text';
+      readonly default: string;
+      readonly parse: (raw: string) => string;
+      readonly doc: string;
+    };
+
+export interface FitContext {
+  /** Generator for this fit only, derived by the runner from the run's seed. */
+  readonly rng: Rng;
+  /** The derived seed the generator was made from (for learners that make their own). */
+  readonly seed: number;
+}
+
+export interface Model {
+  /** Class codes (Int32Array) for classification, values (Float64Array) for regression. */
+  predict(X: Matrix): Int32Array | Float64Array;
+  /** Row-major rows x classes probabilities, each row summing to 1 (classification only). */
+  predictProba?(X: Matrix): Float64Array;
+  /** A plain-JSON form that `Learner.load` turns back into an equal model. */
+  toJSON(): unknown;
+}
+
+export interface Learner {
+  readonly name: string;
+  readonly tasks: readonly Task[];
+  readonly params: readonly ParamSpec[];
+  /** true when features must be standardised (distance-based learners) */
+  readonly needsScaling: boolean;
+  /** one line for `foldwise learners` */
+  readonly doc: string;
+  fit(X: Matrix, y: Target, params: Params, ctx: FitContext): Model;
+  load(json: unknown): Model;
+}
