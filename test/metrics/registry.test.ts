@@ -1,0 +1,68 @@
+import { describe, expect, it } from 'vitest';
+import { UsageError } from '../../src/errors.js';
+import { confusionMatrix, defaultMetrics, getMetric, METRIC_NAMES, METRICS } from '../../src/metrics/index.js';
+
+describe('metric registry', () => {
+  it('lists exactly the fourteen names, each registered under its own name', () => {
+    expect([...METRIC_NAMES]).toEqual([
+      'accuracy',
+      'balanced_accuracy',
+      'macro_precision',
+      'macro_recall',
+      'macro_f1',
+      'mcc',
+      'kappa',
+      'log_loss',
+      'brier',
+      'roc_auc',
+      'mae',
+      'rmse',
+      'r2',
+      'median_absolute_error',
+    ]);
+    expect(METRICS.size).toBe(METRIC_NAMES.length);
+    for (const name of METRIC_NAMES) {
+      const m = METRICS.get(name);
+      expect(m?.name).toBe(name);
+      expect(m?.doc.length).toBeGreaterThan(0);
+      expect(m?.doc.includes('\n')).toBe(false);
+    }
+  });
+
+  it('records direction and probability needs', () => {
+    const lower = METRIC_NAMES.filter((n) => !getMetric(n).higherIsBetter);
+    expect(lower).toEqual(['log_loss', 'brier', 'mae', 'rmse', 'median_absolute_error']);
+    const proba = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
+    expect(proba).toEqual(['log_loss', 'brier', 'roc_auc']);
+    const regression = METRIC_NAMES.filter((n) => getMetric(n).task === 'regression');
+    expect(regression).toEqual(['mae', 'rmse', 'r2', 'median_absolute_error']);
+  });
+
+  it('defaults per task', () => {
+    expect(defaultMetrics('classification')).toEqual(['accuracy', 'balanced_accuracy', 'macro_f1', 'log_loss']);
+    expect(defaultMetrics('regression')).toEqual(['rmse', 'mae', 'r2']);
+  });
+
+  it('rejects an unknown name with the known list and close names', () => {
+    const known = METRIC_NAMES.join(', ');
+    let err: unknown;
+    try {
+      getMetric('acuracy');
+    } catch (e) {
+      err = e;
+    }
+    expect(err).toBeInstanceOf(UsageError);
+    expect((err as Error).message).toBe(`unknown metric "acuracy"; known: ${known}; did you mean "accuracy"?`);
+    // no close name: the message ends with the known list
+    expect(() => getMetric('zzzzzzzzzzzzzzzz')).toThrow(new RegExp(`known: ${known}$`));
+    expect(() => getMetric('__proto__')).toThrow(UsageError);
+    expect(() => getMetric('toString')).toThrow(UsageError);
+  });
+
+  it('re-exports confusionMatrix', () => {
+    expect(confusionMatrix(Int32Array.from([1]), Int32Array.from([0]), 2)).toEqual([
+      [0, 0],
+      [1, 0],
+    ]);
+  });
+});
