@@ -1,0 +1,22 @@
+/**
+ * Minimal types for the parts of jstat (https://jstat.github.io/, MIT) that src/stats uses.
+ * jstat ships no types of its own; its CommonJS entry sets `module.exports` to the jStat object.
+ */
+declare module 'jstat' {
+  interface JStatStudentT {
+    /** P(T <= x) for Student's t with `dof` degrees of freedom. */
+    cdf(x: number, dof: number): number;
+    /** The p-quantile of Student's t with `dof` degrees of freedom. */
+    inv(p: number, dof: number): number;
+  }
+  interface JStatNormal {
+    /** P(X <= x) for the normal distribution with the given mean and standard deviation. */
+    cdf(x: number, mean: number, sd: number): number;
+  }
+  interface JStat {
+    readonly studentt: JStatStudentT;
+    readonly normal: JStatNormal;
+  }
+  const jStat: JStat;
+  export = jStat;
+}

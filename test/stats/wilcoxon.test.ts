@@ -1,0 +1,157 @@
+import jStat from 'jstat';
+import { describe, expect, it } from 'vitest';
+import { InputError, UsageError } from '../../src/errors.js';
+import { wilcoxon } from '../../src/stats/wilcoxon.js';
+
+/** Differences +r for r in a subset summing to t, -r otherwise: ranks 1..n, no ties, T+ = t. */
+function withTPlus(n: number, t: number): number[] {
+  const d = Array.from({ length: n }, (_, i) => -(i + 1));
+  let rest = t;
+  for (let r = n; r >= 1; r--) {
+    if (r <= rest) {
+      d[r - 1] = r;
+      rest -= r;
+    }
+  }
+  return d;
+}
+const zeros = (n: number): number[] => new Array<number>(n).fill(0);
+
+describe('wilcoxon: published examples', () => {
+  // Hollander & Wolfe, Nonparametric Statistical Methods, Example 3.1 (Hamilton depression scale
+  // factor IV, 9 patients; x first visit, y second visit; Table 3.1 there). Data and the exact
+  // two-sided p = 0.0391 as quoted, with the page "Hollander & Wolfe, p. 39", in the tests of
+  // the R package exactRankTests; the same data are the example of R's wilcox.test help page
+  // (from memory). With d = x - y: T+ = 40, T- = 5; exact two-sided p = 2 * 10/512 = 0.0390625.
+  const x = [1.83, 0.5, 1.62, 2.48, 1.68, 1.88, 1.55, 3.06, 1.3];
+  const y = [0.878, 0.647, 0.598, 2.05, 1.06, 1.29, 1.06, 3.14, 1.29];
+
+  it('Hollander & Wolfe Example 3.1, exact', () => {
+    const r = wilcoxon(x, y);
+    expect(r).toEqual({ n: 9, tPlus: 40, tMinus: 5, p: 0.0390625, method: 'exact' });
+    expect(Math.abs(r.p - 0.0391)).toBeLessThan(0.00005);
+  });
+
+  it('Hollander & Wolfe Example 3.1, large-sample approximation', () => {
+    // H&W give .0192 as the one-sided level of the normal approximation without continuity
+    // correction (read from a reproduction of the example's text); z = (5 - 22.5)/sqrt(71.25).
+    const r = wilcoxon(x, y, { method: 'normal', continuity: false });
+    expect(r.method).toBe('normal');
+    expect(Math.abs(r.p / 2 - 0.0192)).toBeLessThan(0.0005); // measured 0.01908
+  });
+
+  it('reproduces the two-sided 0.05 critical values of the signed-rank table, n = 5..25', () => {
+    // Critical values of T (reject when min(T+, T-) <= value, two-sided P = 0.05), University of
+    // York, Department of Mathematics, "Critical Values for T in the Wilcoxon Signed-Rank Test"
+    // (https://www.york.ac.uk/depts/maths/tables/wilcoxon.htm); n = 5 has none (-1 here).
+    const table = [-1, 0, 2, 3, 5, 8, 10, 13, 17, 21, 25, 29, 34, 40, 46, 52, 58, 65, 73, 81, 89];
+    const found: number[] = [];
+    for (let n = 5; n <= 25; n++) {
+      let critical = -1;
+      for (let t = 0; t <= (n * (n + 1)) / 4; t++) {
+        const r = wilcoxon(withTPlus(n, t), zeros(n));
+        expect(r.method).toBe('exact');
+        expect(r.tPlus).toBe(t);
+        if (r.p <= 0.05) critical = t;
+      }
+      found.push(critical);
+    }
+    expect(found).toEqual(table);
+  });
+});
+
+describe('wilcoxon: zeros and ties (hand-derived)', () => {
+  // d = 0, 1, -1, 2, 2, 3, 0, -4. Zeros dropped (Wilcoxon's convention): n = 6.
+  // |d| sorted 1 1 2 2 3 4 -> midranks 1.5 1.5 3.5 3.5 5 6.
+  // T+ = 1.5 + 3.5 + 3.5 + 5 = 13.5, T- = 1.5 + 6 = 7.5 (sum 21 = 6*7/2).
+  // Exact null: signs flipped independently on the doubled ranks {3,3,7,7,10,12} (total 42);
+  // P(T+ >= 13.5) = P(doubled T- <= 15): subsets of {3,3,7,7,10,12} with sum <= 15 are
+  //   {} ; {3}x2 ; {3,3} ; {7}x2 ; {3,7}x4, {10} ; {12} ; {3,3,7}x2, {3,10}x2 ; {7,7} ; {3,12}x2
+  //   = 1 + 2 + 1 + 2 + 5 + 1 + 4 + 1 + 2 = 19 of 64, so two-sided p = 38/64 = 0.59375.
+  const d = [0, 1, -1, 2, 2, 3, 0, -4];
+
+  it('exact, with midranks', () => {
+    expect(wilcoxon(d, zeros(8))).toEqual({ n: 6, tPlus: 13.5, tMinus: 7.5, p: 38 / 64, method: 'exact' });
+  });
+
+  it('normal approximation with tie and continuity corrections', () => {
+    // E = 6*7/4 = 10.5; Var = 6*7*13/24 - [(2^3-2) + (2^3-2)]/48 = 22.75 - 0.25 = 22.5;
+    // z = (|13.5 - 10.5| - 0.5) / sqrt(22.5) = 2.5 / sqrt(22.5); p = 2 P(Z >= z)
+    const z = 2.5 / Math.sqrt(22.5);
+    const r = wilcoxon(d, zeros(8), { method: 'normal' });
+    expect(Math.abs(r.p - 2 * (1 - jStat.normal.cdf(z, 0, 1)))).toBeLessThan(1e-12);
+  });
+
+  it('exact distribution with ties equals brute-force enumeration of all 2^n sign flips', () => {
+    // n = 10 with tie groups of 3 and 2 at several observed sign patterns
+    const mags = [0.5, 0.5, 0.5, 1, 2, 2, 3, 4, 5, 6];
+    const mid = [2, 2, 2, 4, 5.5, 5.5, 7, 8, 9, 10];
+    let checked = 0;
+    for (const mask of [0b0000000000, 0b1010101010, 0b0000011111, 0b1111100001, 0b0110000000]) {
+      const dd = mags.map((m, i) => ((mask >> i) & 1 ? m : -m));
+      const t = mid.reduce((s, r, i) => s + ((mask >> i) & 1 ? r : 0), 0);
+      let le = 0;
+      let ge = 0;
+      for (let f = 0; f < 1 << 10; f++) {
+        const s = mid.reduce((acc, r, i) => acc + ((f >> i) & 1 ? r : 0), 0);
+        if (s <= t) le++;
+        if (s >= t) ge++;
+      }
+      const r = wilcoxon(dd, zeros(10));
+      expect(r.tPlus).toBe(t);
+      expect(r.p).toBe(Math.min(1, (2 * Math.min(le, ge)) / 1024));
+      checked++;
+    }
+    expect(checked).toBe(5);
+  });
+
+  it('all differences zero: n = 0, p = 1', () => {
+    expect(wilcoxon([0.7, 0.8], [0.7, 0.8])).toEqual({ n: 0, tPlus: 0, tMinus: 0, p: 1, method: 'exact' });
+  });
+});
+
+describe('wilcoxon: normal approximation beyond n = 25', () => {
+  it('switches at n = 26 and agrees with the exact distribution to 0.01 for n = 26..30', () => {
+    expect(wilcoxon(withTPlus(25, 100), zeros(25)).method).toBe('exact');
+    expect(wilcoxon(withTPlus(26, 100), zeros(26)).method).toBe('normal');
+    let compared = 0;
+    let worst = 0;
+    for (let n = 26; n <= 30; n++) {
+      for (let t = 0; t <= (n * (n + 1)) / 2; t++) {
+        const dd = withTPlus(n, t);
+        const approx = wilcoxon(dd, zeros(n));
+        const exact = wilcoxon(dd, zeros(n), { method: 'exact' });
+        expect(approx.method).toBe('normal');
+        expect(exact.tPlus).toBe(t);
+        worst = Math.max(worst, Math.abs(approx.p - exact.p));
+        compared++;
+      }
+    }
+    expect(compared).toBe(352 + 379 + 407 + 436 + 466);
+    expect(worst).toBeLessThan(0.01); // measured 0.0064 (n = 26, T+ = 145)
+  });
+});
+
+describe('wilcoxon: symmetry and input checks', () => {
+  it('swapping a and b swaps T+ and T- and keeps p', () => {
+    const a = [0.81, 0.79, 0.84, 0.8, 0.83, 0.77];
+    const b = [0.8, 0.8, 0.8, 0.8, 0.8, 0.8];
+    const r1 = wilcoxon(a, b);
+    const r2 = wilcoxon(b, a);
+    expect([r2.tPlus, r2.tMinus]).toEqual([r1.tMinus, r1.tPlus]);
+    expect(r2.p).toBe(r1.p);
+  });
+
+  it('refuses unpaired, empty or NaN input and bad options', () => {
+    expect(() => wilcoxon([1, 2], [1])).toThrow('wilcoxon: a and b must pair up, got 2 and 1 scores');
+    expect(() => wilcoxon([], [])).toThrow('wilcoxon: need at least 1 paired score, got 0');
+    expect(() => wilcoxon([Number.NaN], [1])).toThrow(InputError);
+    expect(() => wilcoxon([1], [2], { method: 'fast' as never })).toThrow(
+      'wilcoxon: method must be one of "auto", "exact", "normal", got "fast"',
+    );
+    expect(() => wilcoxon([1], [2], { continuity: 1 as never })).toThrow(UsageError);
+    expect(() => wilcoxon(withTPlus(501, 0), zeros(501), { method: 'exact' })).toThrow(
+      'wilcoxon: method "exact" takes at most 500 non-zero differences, got 501',
+    );
+  });
+});
