@@ -5,8 +5,8 @@
  * handed to papaparse, whose `step` callback sees one row at a time as an array of strings.
  * Every column is dictionary-encoded while streaming (a Map from cell text to a code, plus an
  * Int32Array of codes); at the end each column's distinct texts are parsed once to decide
- * whether it is numeric (every non-missing text is a decimal number) or categorical. No array
- * of row objects is ever made.
+ * whether it is numeric (every non-missing text is a decimal number, or every one an ISO date,
+ * read as days since 1970-01-01 UTC) or categorical. No array of row objects is ever made.
  */
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
@@ -36,6 +36,20 @@ export type CsvSource =
 /** A decimal number as text: optional sign, digits with an optional point, optional exponent. */
 const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
 const INFINITE_WORD = /^[+-]?(?:inf|infinity)$/i;
+/** An ISO 8601 calendar date, optionally with a time: read as days since 1970-01-01 (UTC). */
+const ISO_DATE = /^\d{4}-\d{2}-\d{2}(?:[T ]\d{2}:\d{2}(?::\d{2}(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?)?$/;
+const DAY_MS = 86_400_000;
+
+/** Days since 1970-01-01 of an ISO date text, or NaN when it is not a valid date. */
+export function isoDays(text: string): number {
+  if (!ISO_DATE.test(text)) return NaN;
+  const withZone = text.length === 10 ? `${text}T00:00:00Z` : /Z|[+-]\d{2}:?\d{2}$/.test(text) ? text.replace(' ', 'T') : `${text.replace(' ', 'T')}Z`;
+  const ms = Date.parse(withZone);
+  if (Number.isNaN(ms)) return NaN;
+  // Date.parse rolls 2023-02-30 over to March; refuse dates that do not exist
+  if (new Date(ms).toISOString().slice(0, 10) !== text.slice(0, 10) && text.length === 10) return NaN;
+  return ms / DAY_MS;
+}
 const INITIAL_CAPACITY = 1024;
 
 class GrowableCodes {
@@ -313,6 +327,14 @@ function finishColumn(
           `column "${c.name}" is numeric but for ${textRows} cell${textRows === 1 ? '' : 's'} such as "${c.levels[k]}" (line ${firstLineWith(codes, k, lineOf)}): read as categorical; if that text means missing, add it with --missing`,
         );
       }
+    }
+  }
+  if (!forceCategorical && c.levels.length > 0) {
+    const days = c.levels.map((t) => isoDays(t.trim()));
+    if (days.every((d) => !Number.isNaN(d))) {
+      const out = new Float64Array(codes.length);
+      for (let i = 0; i < codes.length; i++) out[i] = codes[i] < 0 ? NaN : days[codes[i]];
+      return { kind: 'numeric', name: c.name, position, values: out, missing: c.missing, dates: true } satisfies NumericColumn;
     }
   }
   return { kind: 'categorical', name: c.name, position, codes, levels: c.levels, missing: c.missing } satisfies CategoricalColumn;

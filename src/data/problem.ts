@@ -34,7 +34,7 @@ export interface Problem {
   readonly groups?: Int32Array;
   readonly groupLevels?: readonly string[];
   readonly orderName?: string;
-  /** order value per used row (numbers, or dates as milliseconds since 1970) */
+  /** order value per used row (numbers; ISO dates are read as days since 1970) */
   readonly order?: Float64Array;
 }
 
@@ -100,24 +100,17 @@ function regressionTarget(table: Table, col: Column, rows: Int32Array): Target {
 }
 
 function orderValues(table: Table, col: Column, rows: Int32Array): Float64Array {
-  if (col.kind === 'numeric') {
-    const out = Float64Array.from(rows, (r) => col.values[r]);
-    const bad = out.findIndex((v) => Number.isNaN(v));
-    if (bad >= 0) throw new InputError(`${table.source}: line ${table.lines[rows[bad]]}: --order column "${col.name}" is missing; every row needs an order value`);
-    return out;
+  if (col.kind !== 'numeric') {
+    const r = rows.find((row) => col.codes[row] >= 0) ?? rows[0];
+    const text = col.codes[r] < 0 ? 'missing' : `"${col.levels[col.codes[r]]}"`;
+    throw new InputError(
+      `${table.source}: line ${table.lines[r]}: --order column "${col.name}" is ${text}; order values must be numbers or ISO dates (YYYY-MM-DD)`,
+    );
   }
-  const times = col.levels.map((t) => (/^\d{4}-\d{2}-\d{2}/.test(t.trim()) ? Date.parse(t.trim()) : NaN));
-  return Float64Array.from(rows, (r) => {
-    const code = col.codes[r];
-    const v = code < 0 ? NaN : times[code];
-    if (Number.isNaN(v)) {
-      const text = code < 0 ? 'missing' : `"${col.levels[code]}"`;
-      throw new InputError(
-        `${table.source}: line ${table.lines[r]}: --order column "${col.name}" is ${text}; order values must be numbers or ISO dates (YYYY-MM-DD)`,
-      );
-    }
-    return v;
-  });
+  const out = Float64Array.from(rows, (r) => col.values[r]);
+  const bad = out.findIndex((v) => Number.isNaN(v));
+  if (bad >= 0) throw new InputError(`${table.source}: line ${table.lines[rows[bad]]}: --order column "${col.name}" is missing; every row needs an order value`);
+  return out;
 }
 
 /** Builds the problem; throws UsageError for unknown columns and InputError for unusable data. */

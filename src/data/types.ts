@@ -12,6 +12,8 @@ export interface NumericColumn {
   readonly position: number;
   readonly values: Float64Array;
   readonly missing: number;
+  /** true when the texts were ISO dates, read as days since 1970-01-01 UTC */
+  readonly dates?: boolean;
 }
 
 export interface CategoricalColumn {

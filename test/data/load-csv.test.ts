@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { createHash } from 'node:crypto';
 import { Readable } from 'node:stream';
-import { loadCsv } from '../../src/data/load-csv.js';
+import { isoDays, loadCsv } from '../../src/data/load-csv.js';
 import { InputError } from '../../src/errors.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { penguinsCsv } from '../helpers/penguins.js';
@@ -63,6 +63,19 @@ describe('loadCsv', () => {
     const t = await loadCsv({ stream: Readable.from([bytes.subarray(0, 5), bytes.subarray(5)]), name: 'stdin' });
     const a = t.byName.get('a')!;
     expect(a.kind === 'categorical' && a.levels).toEqual(['é']);
+  });
+
+  it('reads ISO date columns as days since 1970-01-01 UTC', async () => {
+    const t = await loadCsv(text('d,y\n1970-01-02,a\n2000-03-01,b\n,a\n'));
+    const d = t.byName.get('d')!;
+    expect(d.kind === 'numeric' && d.dates).toBe(true);
+    // 2000-03-01 is day 11017: 30 years of 365 days plus 7 leap days (1972..1996) = 10957 to
+    // 2000-01-01, plus 31 (January) + 29 (February of the leap year 2000) = 11017
+    expect(d.kind === 'numeric' && Array.from(d.values)).toEqual([1, 11017, NaN]);
+    expect(isoDays('2023-02-30')).toBeNaN();
+    expect(isoDays('2023-02-28T12:00')).toBe(isoDays('2023-02-28') + 0.5);
+    const mixed = await loadCsv(text('d,y\n2020-01-01,a\nsoon,b\n'));
+    expect(mixed.byName.get('d')!.kind).toBe('categorical');
   });
 
   it('warns when a mostly numeric column has a few text cells', async () => {
