@@ -1,0 +1,223 @@
+/**
+ * The command line. `run(argv, io)` parses arguments into typed options, calls the core, and
+ * writes results; it never exits the process, so tests call it in-process. `bin.ts` is the only
+ * place that touches `process`.
+ */
+import { Command, CommanderError, Option } from 'commander';
+import type { Readable } from 'node:stream';
+import type { CsvSource, LoadOptions } from '../data/load-csv.js';
+import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
+import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
+import { LEARNERS } from '../learners/index.js';
+import { TASKS, type Task } from '../learners/types.js';
+import { getMetric, METRICS } from '../metrics/index.js';
+import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
+import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { renderJson } from '../report/json.js';
+import { renderMarkdown } from '../report/markdown.js';
+import { DEFAULT_PLAN, DEFAULT_SEED, evaluate } from '../run/evaluate.js';
+import { VERSION } from '../version.js';
+import { runSplit } from './split.js';
+
+export interface Io {
+  readonly stdout: { write(text: string): unknown };
+  readonly stderr: { write(text: string): unknown };
+  readonly stdin?: Readable;
+  readonly env?: Readonly<Record<string, string | undefined>>;
+}
+
+const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
+
+/** Parses --seed text strictly: digits only, 0 to 2^32-1. */
+export function parseSeed(text: string): number {
+  if (!/^\d+$/.test(text) || Number(text) > 0xffffffff) {
+    throw new UsageError(`--seed ${text}: expected a whole number from 0 to 4294967295`);
+  }
+  return Number(text);
+}
+
+/** Parses --delimiter: one character, or the words "tab"/"\t" for a tab. */
+export function parseDelimiter(text: string): string {
+  if (text === '\\t' || text === 'tab') return '\t';
+  return text;
+}
+
+/** --missing: comma-separated tokens that mean missing, besides the empty cell (always missing). */
+export function parseMissing(text: string): string[] {
+  return ['', ...text.split(',').map((t) => t.trim()).filter((t) => t !== '')];
+}
+
+export interface DataFlags {
+  target: string;
+  drop?: string[];
+  categorical?: string[];
+  delimiter?: string;
+  missing?: string;
+  task?: Task;
+  group?: string;
+  order?: string;
+  verbose?: boolean;
+}
+
+/** Options shared by every command that reads a CSV. */
+export function addDataOptions(cmd: Command): Command {
+  return cmd
+    .argument('<data>', 'CSV file, or - for standard input')
+    .requiredOption('--target <column>', 'the column to predict')
+    .option('--drop <column>', 'leave a column out (repeatable)', collect)
+    .option('--categorical <column>', 'read a column as categorical even if numeric (repeatable)', collect)
+    .option('--delimiter <char>', 'field separator, one character; "tab" or "\\t" for tab', ',')
+    .option('--missing <tokens>', `comma-separated texts that mean missing, besides an empty cell (default ${DEFAULT_MISSING.filter(Boolean).join(',')})`)
+    .addOption(new Option('--task <task>', 'force the task instead of inferring it from the target').choices(TASKS))
+    .option('--group <column>', 'keep rows with the same value of this column on one side of every split')
+    .option('--order <column>', 'time order column (numbers or ISO dates) for forward plans')
+    .option('--verbose', 'print stack traces of errors');
+}
+
+export function sourceOf(data: string, io: Io): CsvSource {
+  if (data === '-') {
+    if (!io.stdin) throw new UsageError('data "-": no standard input available');
+    return { stream: io.stdin, name: 'stdin' };
+  }
+  return { path: data };
+}
+
+export function loadOptionsOf(flags: DataFlags): LoadOptions {
+  return {
+    delimiter: parseDelimiter(flags.delimiter ?? ','),
+    ...(flags.missing !== undefined ? { missing: parseMissing(flags.missing) } : {}),
+    ...(flags.categorical ? { categorical: flags.categorical } : {}),
+  };
+}
+
+interface EvalFlags extends DataFlags {
+  plan: string;
+  stratify: boolean;
+  learner?: string[];
+  baseline: boolean;
+  metric?: string[];
+  seed: string;
+  impute: Impute;
+  final?: boolean;
+  json?: string;
+  markdown?: string;
+  timing: boolean;
+}
+
+async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
+  if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
+  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
+  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  const seed = parseSeed(flags.seed);
+  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  const report = evaluate(table, {
+    target: flags.target,
+    drop: flags.drop,
+    task: flags.task,
+    group: flags.group,
+    order: flags.order,
+    plan: flags.plan,
+    stratify: flags.stratify,
+    learners: flags.learner,
+    baseline: flags.baseline,
+    metrics: flags.metric,
+    seed,
+    impute: flags.impute,
+    final: flags.final,
+    timing: flags.timing,
+  });
+  for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
+  const md = (): string => renderMarkdown(report, (m) => getMetric(m).higherIsBetter);
+  if (flags.json) {
+    if (flags.json === '-') io.stdout.write(renderJson(report));
+    else writeFileAtomic(flags.json, renderJson(report), '--json');
+  }
+  if (flags.markdown) {
+    if (flags.markdown === '-') io.stdout.write(md());
+    else writeFileAtomic(flags.markdown, md(), '--markdown');
+  }
+  if (!flags.json && !flags.markdown) io.stdout.write(md());
+  return EXIT_OK;
+}
+
+function listLearners(io: Io): number {
+  for (const l of LEARNERS.values()) {
+    io.stdout.write(`${l.name}  (${l.tasks.join(', ')})  ${l.doc}\n`);
+    for (const p of l.params) {
+      const range =
+        p.kind === 'choice' ? p.choices.join('|') : p.kind === 'text' ? 'text' : `${p.kind} ${p.min ?? '-inf'}..${p.max ?? 'inf'}`;
+      io.stdout.write(`    ${p.name}=${p.default}  [${range}]  ${p.doc}\n`);
+    }
+  }
+  return EXIT_OK;
+}
+
+function listMetrics(io: Io): number {
+  for (const m of METRICS.values()) {
+    io.stdout.write(`${m.name}  (${m.task}${m.needsProba ? ', needs probabilities' : ''}, ${m.higherIsBetter ? 'higher' : 'lower'} is better)  ${m.doc}\n`);
+  }
+  return EXIT_OK;
+}
+
+function program(io: Io, setCode: (code: number) => void): Command {
+  const prog = new Command('foldwise')
+    .description('honest, repeatable cross-validated evaluation of models on tabular CSV data')
+    .version(VERSION, '--version')
+    .exitOverride()
+    .configureOutput({
+      writeOut: (s) => io.stdout.write(s),
+      writeErr: (s) => io.stderr.write(s),
+      outputError: (s, write) => write(`foldwise: ${s.replace(/^error: /, '').trim()}\n`),
+    })
+    .showSuggestionAfterError(true);
+
+  addDataOptions(prog.command('eval').description('cross-validate learners on a CSV and report per-fold scores with summaries'))
+    .option('--plan <plan>', 'resampling plan: kfold:K, kfold:KxR, loo, shuffle:N@F, holdout:A/B/C, forward:K', DEFAULT_PLAN)
+    .option('--no-stratify', 'do not stratify classification plans by class')
+    .option('--learner <spec>', 'learner NAME or NAME:key=value,... (repeatable; see foldwise learners)', collect)
+    .option('--no-baseline', 'do not evaluate the baseline beside the learners')
+    .option('--metric <name>', 'metric to report (repeatable; the first is the headline; see foldwise metrics)', collect)
+    .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
+    .addOption(new Option('--impute <how>', 'numeric imputation, fitted on training rows').choices(IMPUTE_CHOICES).default('median'))
+    .option('--final', 'also score the holdout part of a holdout plan, once')
+    .option('--json <file>', 'write the JSON report to a file, or - for standard output')
+    .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
+    .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
+    .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
+
+  addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))
+    .option('--plan <plan>', 'resampling plan (as for eval)', DEFAULT_PLAN)
+    .option('--no-stratify', 'do not stratify by class')
+    .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
+    .option('--out <dir>', 'folder for the part files (created if missing)')
+    .option('--assign <file>', 'write a row-to-fold assignment CSV')
+    .action(async (data: string, flags) => setCode(await runSplit(data, flags, io)));
+
+  prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
+  prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));
+  return prog;
+}
+
+/** Runs the CLI on `argv` (without the node and script paths) and returns the exit code. */
+export async function run(argv: readonly string[], io: Io): Promise<number> {
+  let code = EXIT_OK;
+  const verbose = argv.includes('--verbose');
+  try {
+    await program(io, (c) => (code = c)).parseAsync([...argv], { from: 'user' });
+    return code;
+  } catch (e) {
+    if (e instanceof CommanderError) {
+      // help and version exit with code 0; every other commander error is a usage error
+      return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
+    }
+    if (e instanceof FoldwiseError) {
+      io.stderr.write(`foldwise: ${e.message}\n`);
+      if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
+      return e.exitCode;
+    }
+    const err = e as Error;
+    io.stderr.write(`foldwise: internal error: ${err?.message ?? String(e)} (this is a bug; rerun with --verbose and report it)\n`);
+    if (verbose && err?.stack) io.stderr.write(`${err.stack}\n`);
+    return 70;
+  }
+}

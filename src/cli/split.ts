@@ -1,0 +1,63 @@
+/** `foldwise split`: argv flags to splitTable, then the files written atomically. */
+import { mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Readable } from 'node:stream';
+import { loadCsv } from '../data/load-csv.js';
+import { EXIT_OK, InputError, UsageError } from '../errors.js';
+import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { splitTable } from '../run/split.js';
+import { loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io } from './run.js';
+
+interface SplitFlags extends DataFlags {
+  plan: string;
+  stratify: boolean;
+  seed: string;
+  out?: string;
+  assign?: string;
+}
+
+async function readAll(stream: Readable): Promise<Buffer> {
+  const parts: Buffer[] = [];
+  for await (const c of stream) parts.push(Buffer.isBuffer(c) ? c : Buffer.from(c));
+  return Buffer.concat(parts);
+}
+
+export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise<number> {
+  if (!flags.out && !flags.assign) throw new UsageError('split: give --out DIR for part files, --assign FILE for the assignment, or both');
+  const seed = parseSeed(flags.seed);
+  if (flags.assign) checkWritable(flags.assign, '--assign');
+  let table;
+  let text: string;
+  if (data === '-') {
+    if (!io.stdin) throw new UsageError('data "-": no standard input available');
+    text = (await readAll(io.stdin)).toString('utf8');
+    table = await loadCsv({ text, name: 'stdin' }, loadOptionsOf(flags));
+  } else {
+    // the loader checks the file (and gives the precise error); then its text is read once more
+    table = await loadCsv({ path: data }, loadOptionsOf(flags));
+    text = readFileSync(data, 'utf8');
+  }
+  const result = splitTable(table, text, {
+    target: flags.target,
+    drop: flags.drop,
+    task: flags.task,
+    group: flags.group,
+    order: flags.order,
+    plan: flags.plan,
+    stratify: flags.stratify,
+    seed,
+    delimiter: parseDelimiter(flags.delimiter ?? ','),
+    parts: Boolean(flags.out),
+  });
+  if (flags.out) {
+    try {
+      mkdirSync(flags.out, { recursive: true });
+    } catch (e) {
+      throw new InputError(`--out ${flags.out}: cannot create the folder (${(e as NodeJS.ErrnoException).code}); check the path`);
+    }
+    for (const [file, csv] of result.files) writeFileAtomic(join(flags.out, file), csv, '--out');
+    io.stderr.write(`foldwise: wrote ${result.files.size} part files for ${result.planText} to ${flags.out}\n`);
+  }
+  if (flags.assign) writeFileAtomic(flags.assign, result.assignment, '--assign');
+  return EXIT_OK;
+}

@@ -1,0 +1,124 @@
+/**
+ * Fold-local preprocessing. Everything here is fitted on the training rows of one fold only and
+ * then applied unchanged to that fold's test rows, so no statistic of a test row can leak into
+ * what the model learns:
+ * - numeric columns: missing values imputed with the training median (or mean); for
+ *   distance-based learners standardised to zero mean and unit sd, both from the training rows
+ *   (a column with sd 0 is centred only);
+ * - categorical columns: missing values imputed with the most frequent training level (ties go
+ *   to the level seen first in the file), then one-hot encoded over the levels seen in training;
+ *   a level never seen in training maps to all zeros. One-hot columns are never rescaled.
+ */
+import type { Problem } from '../data/problem.js';
+import type { Matrix } from '../learners/types.js';
+
+export const IMPUTE_CHOICES = ['median', 'mean'] as const;
+export type Impute = (typeof IMPUTE_CHOICES)[number];
+
+export type PrepColumn =
+  | { readonly kind: 'numeric'; readonly name: string; readonly fill: number; readonly mean: number; readonly sd: number }
+  | { readonly kind: 'categorical'; readonly name: string; readonly fill: number; readonly levels: readonly number[] };
+
+export interface FittedPrep {
+  readonly columns: readonly PrepColumn[];
+  /** number of matrix columns after one-hot encoding */
+  readonly width: number;
+  /** a name per matrix column: the numeric column, or `column=level` */
+  readonly names: readonly string[];
+  /** which source feature (index into columns) each matrix column comes from */
+  readonly source: Int32Array;
+}
+
+function median(sorted: Float64Array): number {
+  const n = sorted.length;
+  return n % 2 ? sorted[(n - 1) / 2] : (sorted[n / 2 - 1] + sorted[n / 2]) / 2;
+}
+
+/** Fits the preprocessing on `train`, a list of used-row indices of the problem. */
+export function fitPrep(problem: Problem, train: Int32Array, impute: Impute = 'median'): FittedPrep {
+  const columns: PrepColumn[] = [];
+  const names: string[] = [];
+  const source: number[] = [];
+  const rows = problem.rows;
+  const buf = new Float64Array(train.length);
+  problem.features.forEach((col, f) => {
+    if (col.kind === 'numeric') {
+      let m = 0;
+      for (const i of train) {
+        const v = col.values[rows[i]];
+        if (!Number.isNaN(v)) buf[m++] = v;
+      }
+      const seen = buf.subarray(0, m);
+      let fill = 0;
+      if (m > 0) {
+        if (impute === 'median') fill = median(seen.slice().sort());
+        else {
+          let s = 0;
+          for (const v of seen) s += v;
+          fill = s / m;
+        }
+      }
+      // mean and sd of the imputed training column (two-pass for accuracy)
+      let sum = 0;
+      for (const v of seen) sum += v;
+      const n = train.length;
+      const mean = (sum + fill * (n - m)) / n;
+      let ss = (n - m) * (fill - mean) ** 2;
+      for (const v of seen) ss += (v - mean) ** 2;
+      const sd = Math.sqrt(ss / n);
+      columns.push({ kind: 'numeric', name: col.name, fill, mean, sd: sd > 0 ? sd : 1 });
+      names.push(col.name);
+      source.push(f);
+    } else {
+      const counts = new Int32Array(col.levels.length);
+      for (const i of train) {
+        const c = col.codes[rows[i]];
+        if (c >= 0) counts[c]++;
+      }
+      let fill = -1;
+      const levels: number[] = [];
+      for (let k = 0; k < counts.length; k++) {
+        if (counts[k] === 0) continue;
+        levels.push(k);
+        if (fill < 0 || counts[k] > counts[fill]) fill = k;
+      }
+      columns.push({ kind: 'categorical', name: col.name, fill, levels });
+      for (const k of levels) {
+        names.push(`${col.name}=${col.levels[k]}`);
+        source.push(f);
+      }
+    }
+  });
+  return { columns, width: names.length, names, source: Int32Array.from(source) };
+}
+
+/** Applies a fitted preprocessing to used rows `idx`, giving a row-major matrix. */
+export function applyPrep(problem: Problem, prep: FittedPrep, idx: Int32Array, scale: boolean): Matrix {
+  const width = prep.width;
+  const data = new Float64Array(idx.length * width);
+  const rows = problem.rows;
+  let offset = 0;
+  prep.columns.forEach((pc, f) => {
+    const col = problem.features[f];
+    if (pc.kind === 'numeric' && col.kind === 'numeric') {
+      const shift = scale ? pc.mean : 0;
+      const div = scale ? pc.sd : 1;
+      for (let i = 0; i < idx.length; i++) {
+        const v = col.values[rows[idx[i]]];
+        data[i * width + offset] = ((Number.isNaN(v) ? pc.fill : v) - shift) / div;
+      }
+      offset += 1;
+    } else if (pc.kind === 'categorical' && col.kind === 'categorical') {
+      const slot = new Int32Array(col.levels.length).fill(-1);
+      pc.levels.forEach((k, s) => (slot[k] = s));
+      for (let i = 0; i < idx.length; i++) {
+        let c = col.codes[rows[idx[i]]];
+        if (c < 0) c = pc.fill;
+        const s = c < 0 ? -1 : slot[c];
+        if (s >= 0) data[i * width + offset + s] = 1;
+      }
+      offset += pc.levels.length;
+    }
+  });
+  return { rows: idx.length, cols: width, data };
+}

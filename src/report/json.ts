@@ -1,0 +1,6 @@
+/** The JSON report: two-space indented, keys in the order the report was built, a final newline. */
+import type { Report } from './types.js';
+
+export function renderJson(report: Report): string {
+  return `${JSON.stringify(report, null, 2)}\n`;
+}

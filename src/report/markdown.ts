@@ -1,0 +1,137 @@
+/**
+ * The Markdown report, for people: what was run, one summary table of the headline metric,
+ * a table of every metric, the per-fold scores of the headline metric, the pooled confusion
+ * matrix of the best learner, and the warnings. Numbers are right-aligned with four decimals.
+ */
+import type { LearnerReport, Report, ScoreSummary } from './types.js';
+
+const DIGITS = 4;
+
+/** Escapes text for a Markdown table cell (pipes, backslashes, line breaks, HTML brackets). */
+export function cell(text: string): string {
+  return text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/\r?\n|\r/g, ' ').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+export function num(v: number | null | undefined): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(DIGITS);
+}
+
+function interval(s: ScoreSummary | null): string {
+  return s?.ci95 ? `${num(s.ci95[0])} to ${num(s.ci95[1])}` : '–';
+}
+
+function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
+  const line = (cells: readonly string[]): string => `| ${cells.join(' | ')} |`;
+  return [line(header), line(align.map((a) => (a === 'l' ? ':--' : '--:'))), ...rows.map(line)].join('\n');
+}
+
+/** The learner with the best mean headline score (the first on a tie), or undefined. */
+export function bestLearner(report: Report, higherIsBetter: boolean): LearnerReport | undefined {
+  const m = report.metrics[0];
+  let best: LearnerReport | undefined;
+  for (const l of report.learners) {
+    const s = l.summary[m];
+    if (!s) continue;
+    const b = best?.summary[m];
+    if (!b || (higherIsBetter ? s.mean > b.mean : s.mean < b.mean)) best = l;
+  }
+  return best;
+}
+
+function describe(report: Report): string[] {
+  const d = report.data;
+  const p = report.plan;
+  const excluded = d.excludedRows ? `, ${d.excludedRows} left out for a missing target` : '';
+  const task = d.task === 'classification' ? `classification into ${d.classes?.length ?? 0} classes` : 'regression';
+  const extras = [p.stratified ? 'stratified' : 'not stratified', p.group ? `grouped by ${cell(p.group)}` : '', p.order ? `ordered by ${cell(p.order)}` : '']
+    .filter(Boolean)
+    .join(', ');
+  return [
+    `- Data: ${cell(d.path)}, ${d.rowsUsed} of ${d.rows} rows used${excluded}; ${d.features.length} features; target ${cell(d.target)} (${task}); SHA-256 ${d.sha256.slice(0, 12)}`,
+    `- Plan: ${p.text} (${p.folds} folds${p.repeats > 1 ? ` x ${p.repeats} repeats` : ''}), ${extras}; seed ${p.seed}`,
+    ...(p.holdoutRows !== undefined ? [`- Holdout: ${p.holdoutRows} rows, ${p.finalScored ? 'scored (--final)' : 'not scored (use --final to score it once)'}`] : []),
+  ];
+}
+
+/** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
+export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
+  const head = report.metrics[0];
+  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ''];
+
+  out.push(`## ${head} (headline)`, '');
+  out.push(
+    table(
+      ['learner', 'mean', 'sd', 'median', 'min', 'max', '95% interval (corrected)'],
+      ['l', 'r', 'r', 'r', 'r', 'r', 'r'],
+      report.learners.map((l) => {
+        const s = l.summary[head];
+        return [cell(l.spec), num(s?.mean), num(s?.sd), num(s?.median), num(s?.min), num(s?.max), interval(s)];
+      }),
+    ),
+    '',
+  );
+
+  if (report.metrics.length > 1) {
+    out.push('## All metrics: mean over folds (pooled out-of-fold in brackets)', '');
+    out.push(
+      table(
+        ['learner', ...report.metrics],
+        ['l', ...report.metrics.map(() => 'r' as const)],
+        report.learners.map((l) => [cell(l.spec), ...report.metrics.map((m) => `${num(l.summary[m]?.mean)} (${num(l.pooled[m])})`)]),
+      ),
+      '',
+    );
+  }
+
+  if (report.learners.some((l) => l.final)) {
+    out.push('## Holdout (scored once)', '');
+    out.push(
+      table(
+        ['learner', ...report.metrics],
+        ['l', ...report.metrics.map(() => 'r' as const)],
+        report.learners.map((l) => [cell(l.spec), ...report.metrics.map((m) => num(l.final?.scores[m]))]),
+      ),
+      '',
+    );
+  }
+
+  const folds = report.learners[0]?.folds ?? [];
+  out.push(`## ${head} per fold`, '');
+  out.push(
+    table(
+      ['repeat', 'fold', 'train', 'test', ...report.learners.map((l) => cell(l.spec))],
+      ['r', 'r', 'r', 'r', ...report.learners.map(() => 'r' as const)],
+      folds.map((f, i) => [
+        String(f.repeat + 1),
+        String(f.fold + 1),
+        String(f.trainRows),
+        String(f.testRows),
+        ...report.learners.map((l) => num(l.folds[i]?.scores[head])),
+      ]),
+    ),
+    '',
+  );
+
+  const best = bestLearner(report, higherIsBetter(head));
+  if (best?.confusion && report.data.classes) {
+    const classes = report.data.classes;
+    out.push(`## Confusion matrix of ${cell(best.spec)} (pooled over folds; rows actual, columns predicted)`, '');
+    out.push(
+      table(
+        ['actual \\ predicted', ...classes.map(cell)],
+        ['l', ...classes.map(() => 'r' as const)],
+        best.confusion.map((row, i) => [cell(classes[i]), ...row.map(String)]),
+      ),
+      '',
+    );
+  }
+
+  if (report.warnings.length) {
+    out.push('## Warnings', '', ...report.warnings.map((w) => `- ${cell(w)}`), '');
+  }
+  out.push(
+    '_A cross-validated score estimates performance on data drawn like this data; it is not a guarantee. High-stakes uses need domain validation._',
+    '',
+  );
+  return out.join('\n');
+}

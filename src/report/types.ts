@@ -1,0 +1,85 @@
+/**
+ * The report contract. The JSON Schema in schema/report.schema.json describes exactly this
+ * shape; tests validate every report they make against it. A score that is undefined for a fold
+ * (for example ROC AUC on a fold with one class) is null.
+ */
+import type { Params, Task } from '../learners/types.js';
+
+export interface ScoreSummary {
+  readonly n: number;
+  readonly mean: number;
+  readonly median: number;
+  readonly sd: number | null;
+  readonly min: number;
+  readonly max: number;
+  readonly q1: number;
+  readonly q3: number;
+  /** 95% interval for the mean, Student t with the Nadeau-Bengio variance correction */
+  readonly ci95: readonly [number, number] | null;
+}
+
+export interface FoldScores {
+  readonly repeat: number;
+  readonly fold: number;
+  readonly trainRows: number;
+  readonly testRows: number;
+  readonly scores: Readonly<Record<string, number | null>>;
+}
+
+export interface LearnerReport {
+  readonly name: string;
+  /** canonical spec text: name plus the options that differ from the defaults */
+  readonly spec: string;
+  readonly params: Params;
+  readonly folds: readonly FoldScores[];
+  readonly summary: Readonly<Record<string, ScoreSummary | null>>;
+  /** each metric on the out-of-fold predictions of all folds pooled together */
+  readonly pooled: Readonly<Record<string, number | null>>;
+  /** pooled confusion matrix: rows are actual classes, columns predicted, in data.classes order */
+  readonly confusion?: readonly (readonly number[])[];
+  /** scores on the holdout part, present only when it was scored (--final) */
+  readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>> };
+}
+
+export interface Report {
+  readonly schema: string;
+  readonly tool: { readonly name: 'foldwise'; readonly version: string };
+  readonly command: 'eval';
+  readonly data: {
+    readonly path: string;
+    readonly sha256: string;
+    readonly rows: number;
+    readonly columns: number;
+    readonly rowsUsed: number;
+    readonly excludedRows: number;
+    readonly target: string;
+    readonly task: Task;
+    readonly classes?: readonly string[];
+    readonly features: readonly string[];
+    readonly dropped: readonly string[];
+  };
+  readonly plan: {
+    readonly kind: string;
+    /** the plan as text, e.g. kfold:10 */
+    readonly text: string;
+    readonly folds: number;
+    readonly repeats: number;
+    readonly stratified: boolean;
+    readonly group?: string;
+    readonly order?: string;
+    readonly seed: number;
+    readonly holdoutRows?: number;
+    /** true when the holdout part was scored (--final) */
+    readonly finalScored?: boolean;
+  };
+  readonly settings: { readonly impute: string };
+  /** the reported metrics, headline first */
+  readonly metrics: readonly string[];
+  readonly warnings: readonly string[];
+  readonly learners: readonly LearnerReport[];
+  /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */
+  readonly timing?: {
+    readonly totalMs: number;
+    readonly learners: readonly { readonly spec: string; readonly fitMs: number; readonly predictMs: number }[];
+  };
+}

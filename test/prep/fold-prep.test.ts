@@ -1,0 +1,72 @@
+import { describe, expect, it } from 'vitest';
+import { median, mean, standardDeviation } from 'simple-statistics';
+import { loadCsv } from '../../src/data/load-csv.js';
+import { defineProblem } from '../../src/data/problem.js';
+import { applyPrep, fitPrep } from '../../src/prep/fold-prep.js';
+
+const csv = (rows: string[]) => ({ text: `x,c,y\n${rows.join('\n')}\n`, name: 'mem.csv' });
+const base = ['1,a,p', '2,b,q', ',a,p', '10,a,q', '4,,p', '5,c,q', '6,b,p', '7,d,q'];
+
+describe('fold-local preprocessing', () => {
+  it('fits imputation, encoding and scaling on the training rows only (simple-statistics as reference)', async () => {
+    const problem = defineProblem(await loadCsv(csv(base)), { target: 'y' });
+    const train = Int32Array.from([0, 1, 2, 3, 4]);
+    const prep = fitPrep(problem, train);
+    const x = prep.columns[0];
+    expect(x.kind).toBe('numeric');
+    if (x.kind === 'numeric') {
+      // training x values: 1, 2, (missing), 10, 4 -> median 3 (simple-statistics), imputed column 1,2,3,10,4
+      expect(x.fill).toBe(median([1, 2, 10, 4]));
+      expect(Math.abs(x.mean - mean([1, 2, 3, 10, 4]))).toBeLessThan(1e-12);
+      // population sd (divide by n), as standardisation uses
+      expect(Math.abs(x.sd - standardDeviation([1, 2, 3, 10, 4]))).toBeLessThan(1e-12);
+    }
+    // categorical c: training levels a, b (a most frequent, fills the missing one); c and d unseen
+    expect(prep.names).toEqual(['x', 'c=a', 'c=b']);
+    const test = Int32Array.from([5, 7, 4]);
+    const m = applyPrep(problem, prep, test, false);
+    expect(Array.from(m.data)).toEqual([5, 0, 0, 7, 0, 0, 4, 1, 0]);
+  });
+
+  it('ignores the test rows: changing them leaves the fitted preprocessing unchanged (no leakage)', async () => {
+    const train = Int32Array.from([0, 1, 2, 3, 4]);
+    const a = fitPrep(defineProblem(await loadCsv(csv(base)), { target: 'y' }), train);
+    const changed = [...base.slice(0, 5), '1000,z,q', ',z,p', '-50,a,q'];
+    const b = fitPrep(defineProblem(await loadCsv(csv(changed)), { target: 'y' }), train);
+    expect(JSON.stringify(b.columns)).toBe(JSON.stringify(a.columns));
+    expect(b.names).toEqual(a.names);
+  });
+
+  it('reads only training rows while fitting (instrumented column)', async () => {
+    const problem = defineProblem(await loadCsv(csv(base)), { target: 'y' });
+    const x = problem.features[0];
+    if (x.kind !== 'numeric') throw new Error('expected numeric');
+    const read = new Set<number>();
+    const spy = new Proxy(x.values, {
+      get(target, key, receiver) {
+        if (typeof key === 'string' && /^\d+$/.test(key)) read.add(Number(key));
+        const v = Reflect.get(target, key, target);
+        return typeof v === 'function' ? v.bind(target) : v;
+      },
+    });
+    const features = [{ ...x, values: spy as unknown as Float64Array }, problem.features[1]];
+    const train = Int32Array.from([1, 3, 5]);
+    fitPrep({ ...problem, features }, train);
+    expect(read.size).toBeGreaterThan(0);
+    expect([...read].sort()).toEqual([...train].map((i) => problem.rows[i]).sort());
+  });
+
+  it('standardises numeric columns when asked and centres a constant column', async () => {
+    const problem = defineProblem(await loadCsv({ text: 'x,k,y\n1,5,a\n3,5,b\n', name: 'm' }), { target: 'y' });
+    const prep = fitPrep(problem, Int32Array.from([0, 1]));
+    const m = applyPrep(problem, prep, Int32Array.from([0, 1]), true);
+    expect(Array.from(m.data)).toEqual([-1, 0, 1, 0]);
+  });
+
+  it('imputes with the mean when asked', async () => {
+    const problem = defineProblem(await loadCsv(csv(base)), { target: 'y' });
+    const prep = fitPrep(problem, Int32Array.from([0, 1, 2, 3]), 'mean');
+    const x = prep.columns[0];
+    expect(x.kind === 'numeric' && x.fill).toBe(13 / 3);
+  });
+});
