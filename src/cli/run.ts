@@ -17,6 +17,9 @@ import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { DEFAULT_PLAN, DEFAULT_SEED, evaluate } from '../run/evaluate.js';
 import { VERSION } from '../version.js';
+import { registerAudit } from './audit.js';
+import { registerCompare } from './compare.js';
+import { registerGate } from './gate.js';
 import { runSplit } from './split.js';
 
 export interface Io {
@@ -192,6 +195,10 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--out <dir>', 'folder for the part files (created if missing)')
     .option('--assign <file>', 'write a row-to-fold assignment CSV')
     .action(async (data: string, flags) => setCode(await runSplit(data, flags, io)));
+
+  registerCompare(prog, io, setCode);
+  registerGate(prog, io, setCode);
+  registerAudit(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
   prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));
