@@ -3,18 +3,21 @@
  */
 import { closeNames, UsageError } from '../errors.js';
 import { baseline } from './baseline.js';
+import { forest } from './forest.js';
 import { forestRef } from './forest-ref.js';
 import { knn } from './knn.js';
 import { knnRef } from './knn-ref.js';
+import { tree } from './tree.js';
 import type { Learner, Task } from './types.js';
 
 export const LEARNERS: ReadonlyMap<string, Learner> = new Map(
-  [baseline, knn, knnRef, forestRef].map((l) => [l.name, l] as const),
+  [baseline, forest, tree, knn, knnRef, forestRef].map((l) => [l.name, l] as const),
 );
 
 /** The learners evaluated when the user names none (the baseline is added separately). */
 export function defaultLearnerSpecs(task: Task): string[] {
-  return task === 'classification' ? ['knn', 'forest-ref:trees=30'] : ['knn', 'forest-ref:trees=30'];
+  void task;
+  return ['forest', 'knn'];
 }
 
 export function getLearner(name: string): Learner {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import Ajv from 'ajv';
+import { Ajv } from 'ajv';
 import { readFileSync, existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { cli } from '../helpers/cli.js';

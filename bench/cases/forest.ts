@@ -1,0 +1,153 @@
+/**
+ * Forest benchmarks.
+ * forest-vs-ref: 100 trees, classification, 1,000 x 10 and 2,000 x 10; ours (median of --runs
+ *   fits) against ml-random-forest (one fit: it takes tens of seconds), both scored by hold-out
+ *   accuracy on 2,000 fresh rows of the same seeded problem. Goal: ours >= 200x faster at
+ *   2,000 x 10, accuracy within 0.02.
+ * forest-large: 100 trees on 20,000 x 20, classification and regression, ours alone.
+ *   Goal: a fit in at most 3 s on one core.
+ */
+import { RandomForestClassifier } from 'ml-random-forest';
+import type { Matrix, Model, Target } from '../../src/learners/types.js';
+import { forest, isCartModel } from '../../src/learners/forest.js';
+import { createRng } from '../../src/run/rng.js';
+import { type BenchCase, type BenchTable, fixed, heapUsedMb, peakRssMb, timeMedian, timeOnce } from '../case.js';
+import { rowArrays, syntheticProblem } from '../synthetic.js';
+
+const TREES = 100;
+const SEED = 7;
+
+function accuracy(pred: ArrayLike<number>, y: Target): number {
+  if (y.task !== 'classification') throw new Error('accuracy needs classes');
+  let right = 0;
+  for (let i = 0; i < pred.length; i++) if (pred[i] === y.codes[i]) right++;
+  return right / pred.length;
+}
+
+function rmse(pred: ArrayLike<number>, y: Target): number {
+  if (y.task !== 'regression') throw new Error('rmse needs values');
+  let s = 0;
+  for (let i = 0; i < pred.length; i++) s += (pred[i] - y.values[i]) ** 2;
+  return Math.sqrt(s / pred.length);
+}
+
+function fitOurs(X: Matrix, y: Target, params: Record<string, number | string>): Model {
+  return forest.fit(X, y, { trees: TREES, ...params }, { rng: createRng(SEED), seed: SEED });
+}
+
+const versusReference: BenchCase = {
+  name: 'forest-vs-ref',
+  doc: `forest, ${TREES} trees, classification 1,000 x 10 and 2,000 x 10: ours vs ml-random-forest`,
+  run({ runs, log }) {
+    const test = syntheticProblem('classification', 2000, 10, 1);
+    const testRows = rowArrays(test.X);
+    const sizes = [1000, 2000].map((n) => ({ n, label: `${n.toLocaleString('en-US')} x 10`, train: syntheticProblem('classification', n, 10, 1000 + n) }));
+    // ours first for every size, so that the peak RSS after them is ours alone
+    const ours = sizes.map(({ label, train }) => {
+      log(`${label}: ours, ${runs} runs each`);
+      const auto = timeMedian(runs, () => fitOurs(train.X, train.y, {}));
+      const all = timeMedian(runs, () => fitOurs(train.X, train.y, { features: 'all' }));
+      return {
+        auto: { time: auto.time, acc: accuracy(auto.value.predict(test.X), test.y) },
+        all: { time: all.time, acc: accuracy(all.value.predict(test.X), test.y) },
+        rss: peakRssMb(),
+      };
+    });
+    const refs = sizes.map(({ label, train }) => {
+      log(`${label}: ml-random-forest, one run (slow)`);
+      const codes = train.y.task === 'classification' ? Array.from(train.y.codes) : [];
+      const trainRows = rowArrays(train.X);
+      const ref = timeOnce(() => {
+        // noOOB: its out-of-bag pass throws on small data; maxFeatures 1.0 = all (its default)
+        const rf = new RandomForestClassifier({ nEstimators: TREES, noOOB: true, seed: SEED, maxFeatures: 1.0 });
+        rf.train(trainRows, codes);
+        return rf;
+      });
+      return { time: ref.time, acc: accuracy(ref.value.predict(testRows), test.y), rss: peakRssMb() };
+    });
+    const rows: (string | number)[][] = [];
+    const notes: string[] = [
+      'fit times only; ours = median of the runs, the reference = one run; accuracy on 2,000 hold-out rows;',
+      'time ratio = ours / reference wall time; speedup = reference / ours (wall; CPU in brackets);',
+      'peak RSS = process peak after that row: ours ran first for both sizes, then the reference.',
+    ];
+    sizes.forEach(({ n, label }, i) => {
+      const ref = refs[i];
+      const o = ours[i];
+      for (const [name, r] of [
+        ['forest (features=auto)', o.auto],
+        ['forest (features=all)', o.all],
+      ] as const) {
+        rows.push([
+          label,
+          name,
+          fixed(r.time.wallMs / 1000, 3),
+          fixed(r.time.cpuMs / 1000, 3),
+          fixed(r.acc, 4),
+          fixed(r.time.wallMs / ref.time.wallMs, 5),
+          `${fixed(ref.time.wallMs / r.time.wallMs, 0)} (${fixed(ref.time.cpuMs / r.time.cpuMs, 0)})`,
+          fixed(o.rss, 0),
+        ]);
+      }
+      rows.push([label, 'ml-random-forest', fixed(ref.time.wallMs / 1000, 3), fixed(ref.time.cpuMs / 1000, 3), fixed(ref.acc, 4), '1', '1', fixed(ref.rss, 0)]);
+      if (n === 2000) {
+        const speedup = ref.time.wallMs / o.auto.time.wallMs;
+        notes.push(
+          `goal at 2,000 x 10 (features=auto): >= 200x faster: ${speedup >= 200 ? 'met' : 'NOT met'} (${fixed(speedup, 0)}x); ` +
+            `accuracy within 0.02 or better: ${o.auto.acc >= ref.acc - 0.02 ? 'met' : 'NOT met'} (ours - reference = ${fixed(o.auto.acc - ref.acc, 4)})`,
+        );
+      }
+    });
+    const table: BenchTable = {
+      title: `forest vs ml-random-forest, ${TREES} trees, classification`,
+      columns: ['size', 'learner', 'fit wall s', 'fit cpu s', 'accuracy', 'time ratio', 'speedup', 'peak RSS MB'],
+      rows,
+      notes,
+    };
+    return [table];
+  },
+};
+
+const large: BenchCase = {
+  name: 'forest-large',
+  doc: `forest, ${TREES} trees on 20,000 x 20, classification and regression, ours alone`,
+  run({ runs, log }) {
+    const rows: (string | number)[][] = [];
+    const notes: string[] = ['median of the runs; rows x trees / s uses the fit wall time; goal: fit <= 3 s on one core.'];
+    for (const task of ['classification', 'regression'] as const) {
+      const train = syntheticProblem(task, 20000, 20, 5);
+      const test = syntheticProblem(task, 20000, 20, 6);
+      log(`${task}: ${runs} runs`);
+      const fit = timeMedian(runs, () => fitOurs(train.X, train.y, {}));
+      const model = fit.value;
+      const heap = heapUsedMb();
+      const pred = timeMedian(runs, () => model.predict(test.X));
+      const score = task === 'classification' ? `accuracy ${fixed(accuracy(pred.value, test.y), 4)}` : `RMSE ${fixed(rmse(pred.value, test.y), 4)}`;
+      const nodes = isCartModel(model) ? model.treeSizes().reduce((s, v) => s + v, 0) : NaN;
+      const wallS = fit.time.wallMs / 1000;
+      rows.push([
+        task,
+        '20,000 x 20',
+        fixed(wallS, 3),
+        fixed(fit.time.cpuMs / 1000, 3),
+        fixed((20000 * TREES) / wallS, 0),
+        fixed(pred.time.wallMs / 1000, 3),
+        score,
+        nodes,
+        fixed(heap, 0),
+        fixed(peakRssMb(), 0),
+      ]);
+      notes.push(`${task}: fit <= 3 s: ${wallS <= 3 ? 'met' : 'NOT met'} (${fixed(wallS, 2)} s wall, ${fixed(fit.time.cpuMs / 1000, 2)} s CPU)`);
+    }
+    return [
+      {
+        title: `forest, ${TREES} trees, 20,000 x 20 (features=auto, default options)`,
+        columns: ['task', 'size', 'fit wall s', 'fit cpu s', 'rows x trees / s', 'predict 20k s', 'hold-out', 'nodes', 'heap+buffers MB', 'peak RSS MB'],
+        rows,
+        notes,
+      },
+    ];
+  },
+};
+
+export const cases: readonly BenchCase[] = [versusReference, large];

@@ -1,0 +1,113 @@
+/**
+ * Fitting a tree or a forest: input checks, binning, bootstrap samples and the per-tree loop.
+ *
+ * Forest (Breiman 2001, "Random Forests", Machine Learning 45:5-32, free:
+ * https://www.stat.berkeley.edu/~breiman/randomforest2001.pdf): tree t is grown on a bootstrap
+ * sample (n draws with replacement from the n training rows, kept as per-row draw counts) with a
+ * fresh feature draw at every node. Tree t's generator is createRng(deriveSeed(seed, "forest",
+ * "tree", t)), so a tree depends only on the fit's seed and its index: not on the order trees
+ * are grown in, and the first k trees of a forest of T trees equal the forest of k trees.
+ * Tree: one CART tree on all rows with weight 1 and all features at every node; it uses no
+ * randomness at all.
+ *
+ * Features must be finite (NaN or infinite values throw InputError: impute first); at
+ * prediction time a NaN goes to the left child. Regression targets are centred on their mean
+ * for the split sums; a leaf's value is the weighted mean of the targets as given (exactly the
+ * target in a pure leaf).
+ */
+import { InputError } from '../../errors.js';
+import { type Rng, createRng, deriveSeed } from '../../run/rng.js';
+import type { FitContext, Matrix, Target } from '../types.js';
+import { binMatrix } from './bins.js';
+import { resolveFeatureCount } from './feature-count.js';
+import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
+import { type Criterion, type GrowTarget, TreeGrower } from './grow.js';
+import { NodeStore } from './node-store.js';
+
+export interface CartSettings {
+  readonly trees: number;
+  readonly depth: number;
+  readonly minLeaf: number;
+  /** canonical `features` value (see feature-count.ts) */
+  readonly features: string;
+  readonly criterion: 'gini' | 'entropy';
+  readonly bins: number;
+  readonly bootstrap: boolean;
+}
+
+/** Checks X and y agree and are usable; returns the classification class count (1 for regression). */
+export function checkTrainingData(kind: CartKind, X: Matrix, y: Target): number {
+  const { rows: n, cols: p, data } = X;
+  if (!Number.isInteger(n) || !Number.isInteger(p) || n < 0 || p < 0 || data.length !== n * p) {
+    throw new InputError(`${kind}: matrix data length ${data.length} is not rows x cols = ${n} x ${p}`);
+  }
+  if (n < 1) throw new InputError(`${kind}: no training rows`);
+  if (y.task === 'classification') {
+    const C = y.classes.length;
+    if (C < 1) throw new InputError(`${kind}: the target has no classes`);
+    if (y.codes.length !== n) throw new InputError(`${kind}: ${y.codes.length} target codes for ${n} rows`);
+    for (let i = 0; i < n; i++) {
+      const c = y.codes[i];
+      if (c < 0 || c >= C) throw new InputError(`${kind}: target code ${c} of row ${i + 1} is outside 0..${C - 1}`);
+    }
+    return C;
+  }
+  if (y.values.length !== n) throw new InputError(`${kind}: ${y.values.length} target values for ${n} rows`);
+  for (let i = 0; i < n; i++) {
+    if (!Number.isFinite(y.values[i])) throw new InputError(`${kind}: target value of row ${i + 1} is ${y.values[i]}; it must be finite`);
+  }
+  return 1;
+}
+
+export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext): FlatForestParts {
+  const classCount = checkTrainingData(kind, X, y);
+  const n = X.rows;
+  const p = X.cols;
+  const binned = binMatrix(X, s.bins, kind);
+  const mtry = resolveFeatureCount(s.features, p, y.task);
+  const criterion: Criterion = y.task === 'regression' ? 'variance' : s.criterion;
+
+  let target: GrowTarget;
+  if (y.task === 'classification') {
+    target = { kind: 'classes', codes: y.codes, classCount };
+  } else {
+    let mean = 0;
+    for (let i = 0; i < n; i++) mean += y.values[i];
+    mean /= n;
+    const centred = new Float64Array(n);
+    for (let i = 0; i < n; i++) centred[i] = y.values[i] - mean;
+    target = { kind: 'values', values: centred, raw: y.values };
+  }
+  const grower = new TreeGrower(binned, target, { maxDepth: s.depth, minLeaf: s.minLeaf, mtry, criterion });
+
+  const store = new NodeStore(p);
+  const weights = new Float64Array(n);
+  const rows = new Int32Array(n);
+  for (let t = 0; t < s.trees; t++) {
+    let rng: Rng = ctx.rng;
+    let m = n;
+    if (s.bootstrap) {
+      rng = createRng(deriveSeed(ctx.seed, 'forest', 'tree', t));
+      weights.fill(0);
+      for (let i = 0; i < n; i++) weights[rng.int(n)] += 1;
+      m = 0;
+      for (let i = 0; i < n; i++) if (weights[i] > 0) rows[m++] = i;
+    } else {
+      weights.fill(1);
+      for (let i = 0; i < n; i++) rows[i] = i;
+    }
+    grower.grow(rows.subarray(0, m), weights, rng, store);
+    if (t === 0 && s.trees > 1) store.expect(s.trees - 1);
+  }
+
+  const settings = new Map<string, number | string>([
+    ['trees', s.trees],
+    ['depth', s.depth],
+    ['minLeaf', s.minLeaf],
+    ['features', s.features],
+    ['featuresPerSplit', mtry],
+    ['criterion', criterion],
+    ['bins', s.bins],
+  ]);
+  return finishForest(kind, y.task, classCount, settings, store);
+}
