@@ -7,6 +7,8 @@ import type { BenchCase, BenchTable } from './case.js';
 
 const CASES: readonly BenchCase[] = [
   ...(await import('./cases/forest.js')).cases,
+  ...(await import('./cases/knn.js')).cases,
+  ...(await import('./cases/eval.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

@@ -179,7 +179,8 @@ export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Pro
     for (let j = 0; j < fields.length; j++) {
       const col = raw[j];
       const text = fields[j];
-      if (missing.has(text.trim())) {
+      const edge = text.length > 0 && (text.charCodeAt(0) <= 32 || text.charCodeAt(text.length - 1) <= 32);
+      if (missing.has(edge ? text.trim() : text)) {
         col.codes.push(-1);
         col.missing++;
         continue;

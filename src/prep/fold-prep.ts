@@ -29,9 +29,41 @@ export interface FittedPrep {
   readonly source: Int32Array;
 }
 
-function median(sorted: Float64Array): number {
-  const n = sorted.length;
-  return n % 2 ? sorted[(n - 1) / 2] : (sorted[n / 2 - 1] + sorted[n / 2]) / 2;
+/** The k-th smallest value (0-based) of `a`, reordering `a` in place (Hoare's selection, 1961). */
+function select(a: Float64Array, k: number): number {
+  let lo = 0;
+  let hi = a.length - 1;
+  while (lo < hi) {
+    const pivot = a[(lo + hi) >> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
+}
+
+/** The median of `a` (mean of the two middle values for an even count); reorders `a`. */
+function medianInPlace(a: Float64Array): number {
+  const n = a.length;
+  const upper = select(a, n >> 1);
+  if (n % 2) return upper;
+  // the lower middle is the largest value left of the upper middle after selection
+  let lower = -Infinity;
+  for (let i = 0; i < n >> 1; i++) if (a[i] > lower) lower = a[i];
+  return (lower + upper) / 2;
 }
 
 /** Fits the preprocessing on `train`, a list of used-row indices of the problem. */
@@ -43,36 +75,32 @@ export function fitPrep(problem: Problem, train: Int32Array, impute: Impute = 'm
   const buf = new Float64Array(train.length);
   problem.features.forEach((col, f) => {
     if (col.kind === 'numeric') {
+      const values = col.values;
       let m = 0;
-      for (const i of train) {
-        const v = col.values[rows[i]];
-        if (!Number.isNaN(v)) buf[m++] = v;
+      let sum = 0;
+      for (let t = 0; t < train.length; t++) {
+        const v = values[rows[train[t]]];
+        if (v === v) {
+          buf[m++] = v;
+          sum += v;
+        }
       }
       const seen = buf.subarray(0, m);
       let fill = 0;
-      if (m > 0) {
-        if (impute === 'median') fill = median(seen.slice().sort());
-        else {
-          let s = 0;
-          for (const v of seen) s += v;
-          fill = s / m;
-        }
-      }
+      if (m > 0) fill = impute === 'median' ? medianInPlace(seen) : sum / m;
       // mean and sd of the imputed training column (two-pass for accuracy)
-      let sum = 0;
-      for (const v of seen) sum += v;
       const n = train.length;
       const mean = (sum + fill * (n - m)) / n;
       let ss = (n - m) * (fill - mean) ** 2;
-      for (const v of seen) ss += (v - mean) ** 2;
+      for (let t = 0; t < m; t++) ss += (seen[t] - mean) ** 2;
       const sd = Math.sqrt(ss / n);
       columns.push({ kind: 'numeric', name: col.name, fill, mean, sd: sd > 0 ? sd : 1 });
       names.push(col.name);
       source.push(f);
     } else {
       const counts = new Int32Array(col.levels.length);
-      for (const i of train) {
-        const c = col.codes[rows[i]];
+      for (let t = 0; t < train.length; t++) {
+        const c = col.codes[rows[train[t]]];
         if (c >= 0) counts[c]++;
       }
       let fill = -1;

@@ -3,6 +3,7 @@ import { median, mean, standardDeviation } from 'simple-statistics';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { defineProblem } from '../../src/data/problem.js';
 import { applyPrep, fitPrep } from '../../src/prep/fold-prep.js';
+import { createRng } from '../../src/run/rng.js';
 
 const csv = (rows: string[]) => ({ text: `x,c,y\n${rows.join('\n')}\n`, name: 'mem.csv' });
 const base = ['1,a,p', '2,b,q', ',a,p', '10,a,q', '4,,p', '5,c,q', '6,b,p', '7,d,q'];
@@ -61,6 +62,17 @@ describe('fold-local preprocessing', () => {
     const prep = fitPrep(problem, Int32Array.from([0, 1]));
     const m = applyPrep(problem, prep, Int32Array.from([0, 1]), true);
     expect(Array.from(m.data)).toEqual([-1, 0, 1, 0]);
+  });
+
+  it('imputes with the median by selection, equal to simple-statistics on odd and even counts with ties', async () => {
+    const rng = createRng(4);
+    for (const n of [2, 3, 7, 50, 51, 400]) {
+      const xs = Array.from({ length: n }, () => Math.floor(rng.next() * 20) / 2);
+      const problem = defineProblem(await loadCsv({ text: `x,y\n${xs.map((x, i) => `${x},${i % 2 ? 'a' : 'b'}`).join('\n')}\n`, name: 'm' }), { target: 'y', task: 'classification' });
+      const prep = fitPrep(problem, Int32Array.from(xs.keys()));
+      const x = prep.columns[0];
+      expect(x.kind === 'numeric' && x.fill).toBe(median(xs));
+    }
   });
 
   it('imputes with the mean when asked', async () => {

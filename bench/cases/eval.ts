@@ -1,0 +1,54 @@
+/**
+ * Whole-run benchmark (issue 3, case 4): `evaluate` with the default forest, 10-fold
+ * stratified, on 20,000 x 20 rows of the seeded synthetic problem, loaded from CSV text through
+ * the real loader. Reports the total (load + evaluate) and the share of time spent outside the
+ * learners' fit and predict calls (harness overhead: loading, plans, preprocessing, metrics,
+ * summaries). Goal: overhead <= 5%.
+ */
+import { loadCsv } from '../../src/data/load-csv.js';
+import { evaluate } from '../../src/run/evaluate.js';
+import { type BenchCase, fixed, median, peakRssMb } from '../case.js';
+import { syntheticProblem } from '../synthetic.js';
+
+function csvText(rows: number, cols: number): string {
+  const { X, y } = syntheticProblem('classification', rows, cols, 11);
+  if (y.task !== 'classification') throw new Error('expected classes');
+  const lines = [[...Array.from({ length: cols }, (_, j) => `x${j}`), 'label'].join(',')];
+  for (let i = 0; i < rows; i++) {
+    const cells = Array.from(X.data.subarray(i * cols, (i + 1) * cols), (v) => v.toFixed(5));
+    lines.push(`${cells.join(',')},${y.codes[i] ? 'yes' : 'no'}`);
+  }
+  return `${lines.join('\n')}\n`;
+}
+
+export const cases: BenchCase[] = [
+  {
+    name: 'eval-forest',
+    doc: 'a full 10-fold eval of the default forest on 20,000 x 20: total time and harness overhead',
+    async run({ runs, log }) {
+      const text = csvText(20_000, 20);
+      const totals: number[] = [];
+      const inside: number[] = [];
+      let accuracy = 0;
+      for (let r = 0; r < Math.min(runs, 3); r++) {
+        log(`run ${r + 1}...`);
+        const t0 = performance.now();
+        const table = await loadCsv({ text, name: 'bench.csv' });
+        const report = evaluate(table, { target: 'label', learners: ['forest'], plan: 'kfold:10', seed: 1 });
+        totals.push(performance.now() - t0);
+        inside.push(report.timing!.learners.reduce((s, l) => s + l.fitMs + l.predictMs, 0));
+        accuracy = report.learners[1].summary.accuracy!.mean;
+      }
+      const total = median(totals);
+      const fit = median(inside);
+      return [
+        {
+          title: 'foldwise eval, default forest (100 trees) + baseline, kfold:10 on 20,000 x 20',
+          columns: ['total s', 'fit+predict s', 'harness overhead'],
+          rows: [[fixed(total / 1000, 2), fixed(fit / 1000, 2), `${fixed((100 * (total - fit)) / total, 1)}%`]],
+          notes: [`median of ${totals.length} runs; forest mean accuracy ${fixed(accuracy, 4)}; peak RSS ${fixed(peakRssMb(), 0)} MB; goal: overhead <= 5%`],
+        },
+      ];
+    },
+  },
+];
