@@ -3,95 +3,28 @@
  * on each fold's training rows and scored on its test rows, then per-metric summaries across
  * folds and on the pooled out-of-fold predictions.
  *
+ * The work is split in three: `prepareRun` validates and plans, `runTasks` (or a worker pool,
+ * shards, a journal) produces one result per task, and `assembleReport` turns the results into
+ * the report. Assembly depends only on the results, never on where or in which order they were
+ * made, so every way of running gives the same report.
+ *
  * Randomness: the plan's generator is derived from (seed, "plan"); each fit gets a seed derived
- * from (seed, "fit", learner spec, repeat, fold), so results do not depend on the order in
- * which learners or folds are run.
+ * from (seed, "fit", learner spec, repeat, fold).
  */
 import { performance } from 'node:perf_hooks';
-import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
-import { UsageError } from '../errors.js';
-import { defaultLearnerSpecs, formatSpec, getLearner, parseLearnerSpec, resolveParams } from '../learners/index.js';
-import type { Learner, Matrix, Model, Params, Target } from '../learners/types.js';
-import { confusionMatrix, defaultMetrics, getMetric } from '../metrics/index.js';
+import { InputError } from '../errors.js';
+import type { Target } from '../learners/types.js';
+import { confusionMatrix } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
-import { formatPlan, parsePlan } from '../plans/index.js';
-import type { Fold, PlanSpec } from '../plans/types.js';
-import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
+import type { Fold } from '../plans/types.js';
 import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
-import { planFor } from './plan-for.js';
-import { createRng, deriveSeed } from './rng.js';
+import { prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
+import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
-export const DEFAULT_SEED = 1;
-export const DEFAULT_PLAN = 'kfold:10';
-
-export interface EvaluateOptions extends ProblemOptions {
-  /** plan text such as "kfold:10" or a parsed spec (default kfold:10) */
-  readonly plan?: string | PlanSpec;
-  /** stratify classification plans by class (default true) */
-  readonly stratify?: boolean;
-  /** learner specs such as "knn:k=3" (default: the task's default list) */
-  readonly learners?: readonly string[];
-  /** evaluate the baseline beside the learners (default true) */
-  readonly baseline?: boolean;
-  /** metric names, headline first (default: the task's default list) */
-  readonly metrics?: readonly string[];
-  /** integer seed, 0 to 2^32-1 (default 1) */
-  readonly seed?: number;
-  readonly impute?: Impute;
-  /** score the holdout part of a holdout plan */
-  readonly final?: boolean;
-  /** include wall-clock timings (default true) */
-  readonly timing?: boolean;
-}
-
-interface Candidate {
-  readonly learner: Learner;
-  readonly spec: string;
-  readonly params: Params;
-}
-
-/** Checks a seed: an integer from 0 to 2^32-1. */
-export function checkSeed(seed: number): number {
-  if (!Number.isInteger(seed) || seed < 0 || seed > 0xffffffff) {
-    throw new UsageError(`--seed ${seed}: expected a whole number from 0 to 4294967295`);
-  }
-  return seed;
-}
-
-function resolveCandidates(problem: Problem, options: EvaluateOptions): Candidate[] {
-  const specs = options.learners?.length ? options.learners : defaultLearnerSpecs(problem.task);
-  const list: Candidate[] = [];
-  const withBaseline = options.baseline !== false ? ['baseline', ...specs.filter((s) => s.trim() !== 'baseline')] : specs;
-  for (const text of withBaseline) {
-    const parsed = parseLearnerSpec(text);
-    const learner = getLearner(parsed.name);
-    const params = resolveParams(learner, parsed, problem.task);
-    const spec = formatSpec(learner, params);
-    if (list.some((c) => c.spec === spec)) throw new UsageError(`--learner ${text}: the same learner and options are given twice (${spec})`);
-    list.push({ learner, spec, params });
-  }
-  return list;
-}
-
-function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
-  const list = names?.length ? names : defaultMetrics(problem.task);
-  const out: Metric[] = [];
-  for (const name of list) {
-    const m = getMetric(name);
-    if (m.task !== problem.task) throw new UsageError(`--metric ${name}: a ${m.task} metric, but the task is ${problem.task}`);
-    if (!out.includes(m)) out.push(m);
-  }
-  return out;
-}
-
-function subsetTarget(y: Target, idx: Int32Array): Target {
-  return y.task === 'classification'
-    ? { task: 'classification', codes: Int32Array.from(idx, (i) => y.codes[i]), classes: y.classes }
-    : { task: 'regression', values: Float64Array.from(idx, (i) => y.values[i]) };
-}
+export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
 
 interface Prediction {
   readonly predicted: Int32Array | Float64Array;
@@ -141,109 +74,69 @@ function concatTargets(parts: readonly Target[]): Target {
   return { task: 'regression', values };
 }
 
-/** Preprocessed matrices of one split, made lazily: scaled only if some learner needs it. */
-class SplitData {
-  private readonly cache = new Map<string, Matrix>();
-  readonly prep: FittedPrep;
-  constructor(
-    private readonly problem: Problem,
-    readonly train: Int32Array,
-    readonly test: Int32Array,
-    impute: Impute,
-  ) {
-    this.prep = fitPrep(problem, train, impute);
-  }
-  matrix(part: 'train' | 'test', scale: boolean): Matrix {
-    const key = `${part}:${scale}`;
-    let m = this.cache.get(key);
-    if (!m) {
-      m = applyPrep(this.problem, this.prep, part === 'train' ? this.train : this.test, scale);
-      this.cache.set(key, m);
-    }
-    return m;
-  }
-}
-
-interface FitTimes {
-  fitMs: number;
-  predictMs: number;
-}
-
-function fitAndPredict(c: Candidate, split: SplitData, y: Target, seed: number, times: FitTimes): Prediction {
-  const Xtrain = split.matrix('train', c.learner.needsScaling);
-  const Xtest = split.matrix('test', c.learner.needsScaling);
-  const t0 = performance.now();
-  const model: Model = c.learner.fit(Xtrain, subsetTarget(y, split.train), c.params, { rng: createRng(seed), seed });
-  const t1 = performance.now();
-  const predicted = model.predict(Xtest);
-  const proba = model.predictProba?.(Xtest);
-  times.fitMs += t1 - t0;
-  times.predictMs += performance.now() - t1;
-  return { predicted, proba };
-}
-
 function meanOf(values: readonly number[]): number {
   return values.reduce((s, v) => s + v, 0) / values.length;
 }
 
-/** Evaluates learners on a loaded table. Pure apart from reading the clock for timings. */
+/** Evaluates learners on a loaded table, in this thread. Pure apart from reading the clock. */
 export function evaluate(table: Table, options: EvaluateOptions): Report {
   const started = performance.now();
-  const seed = checkSeed(options.seed ?? DEFAULT_SEED);
-  const problem = defineProblem(table, options);
-  const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
-  const metrics = resolveMetrics(problem, options.metrics);
-  const candidates = resolveCandidates(problem, options);
-  const impute = options.impute ?? 'median';
-  if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
+  const prepared = prepareRun(table, options);
+  const results = runTasks(prepared, taskList(prepared));
+  return assembleReport(prepared, results, options.timing === false ? undefined : performance.now() - started);
+}
 
+/**
+ * Builds the report from one result per task (in any order). Throws InputError when a task's
+ * result is missing or has the wrong length (a journal or shard that does not belong to the run).
+ */
+export function assembleReport(prepared: Prepared, results: readonly TaskResult[], totalMs?: number): Report {
+  const { table, problem, plan, planSpec, metrics, candidates } = prepared;
   const y = problem.target;
-  const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);
-  const warnings: string[] = [...table.warnings, ...plan.warnings];
-  if (problem.excludedRows > 0) {
-    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target ("${problem.targetName}") left out`);
-  }
-  if (planSpec.kind === 'loo') {
-    warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');
-  }
+  const byId = new Map(results.map((r) => [r.id, r]));
+  const get = (id: string, rows: number): TaskResult => {
+    const r = byId.get(id);
+    if (!r) throw new InputError(`the results of task ${id} are missing`);
+    if (r.predicted.length !== rows) throw new InputError(`task ${id} has ${r.predicted.length} predictions for ${rows} test rows`);
+    return r;
+  };
+  const warnings: string[] = [...prepared.warnings];
+  const tasks = taskList(prepared);
   const perLearner = candidates.map(() => ({
     folds: [] as FoldScores[],
     preds: [] as Prediction[],
     times: { fitMs: 0, predictMs: 0 },
   }));
   const actualParts: Target[] = [];
-  for (const fold of plan.folds) {
-    const split = new SplitData(problem, fold.train, fold.test, impute);
-    const yTest = subsetTarget(y, fold.test);
-    actualParts.push(yTest);
-    candidates.forEach((c, li) => {
-      const s = deriveSeed(seed, 'fit', c.spec, fold.repeat, fold.fold);
-      const pred = fitAndPredict(c, split, y, s, perLearner[li].times);
-      perLearner[li].preds.push(pred);
-      const scores: Record<string, number | null> = {};
-      for (const m of metrics) scores[m.name] = score(m, yTest, pred);
-      perLearner[li].folds.push({ repeat: fold.repeat, fold: fold.fold, trainRows: fold.train.length, testRows: fold.test.length, scores });
-    });
+  const finalParts: ({ trainRows: number; testRows: number; scores: Record<string, number | null> } | undefined)[] = candidates.map(() => undefined);
+  const testTargets = new Map<number, Target>();
+  for (const t of tasks) {
+    const { train, test } = splitRows(prepared, t.foldIndex);
+    let yTest = testTargets.get(t.foldIndex);
+    if (!yTest) {
+      yTest = subsetTarget(y, test);
+      testTargets.set(t.foldIndex, yTest);
+      if (t.foldIndex >= 0) actualParts.push(yTest);
+    }
+    const r = get(t.id, test.length);
+    const li = t.candidateIndex;
+    perLearner[li].times.fitMs += r.fitMs;
+    perLearner[li].times.predictMs += r.predictMs;
+    const scores: Record<string, number | null> = {};
+    for (const m of metrics) scores[m.name] = score(m, yTest, r);
+    if (t.foldIndex < 0) {
+      finalParts[li] = { trainRows: train.length, testRows: test.length, scores };
+      continue;
+    }
+    const fold = plan.folds[t.foldIndex];
+    perLearner[li].preds.push(r);
+    perLearner[li].folds.push({ repeat: fold.repeat, fold: fold.fold, trainRows: train.length, testRows: test.length, scores });
   }
 
   const trainMean = meanOf(plan.folds.map((f: Fold) => f.train.length));
   const testMean = meanOf(plan.folds.map((f: Fold) => f.test.length));
   const pooledActual = concatTargets(actualParts);
   const classes = y.task === 'classification' ? y.classes.length : 0;
-
-  let finalParts: ({ trainRows: number; testRows: number; scores: Record<string, number | null> } | undefined)[] = candidates.map(() => undefined);
-  if (options.final && plan.holdout) {
-    const fold = plan.folds[0];
-    const fitRows = Int32Array.from([...fold.train, ...fold.test]).sort();
-    const split = new SplitData(problem, fitRows, plan.holdout, impute);
-    const yHold = subsetTarget(y, plan.holdout);
-    finalParts = candidates.map((c, li) => {
-      const pred = fitAndPredict(c, split, y, deriveSeed(seed, 'final', c.spec), perLearner[li].times);
-      const scores: Record<string, number | null> = {};
-      for (const m of metrics) scores[m.name] = score(m, yHold, pred);
-      return { trainRows: fitRows.length, testRows: plan.holdout!.length, scores };
-    });
-  }
 
   const learners: LearnerReport[] = candidates.map((c, li) => {
     const { folds, preds } = perLearner[li];
@@ -275,6 +168,9 @@ export function evaluate(table: Table, options: EvaluateOptions): Report {
     };
     return report;
   });
+  const stratified = prepared.stratified;
+  const seed = prepared.seed;
+  const impute = prepared.impute;
 
   const report: Report = {
     schema: REPORT_SCHEMA,
@@ -295,24 +191,24 @@ export function evaluate(table: Table, options: EvaluateOptions): Report {
     },
     plan: {
       kind: planSpec.kind,
-      text: formatPlan(planSpec),
+      text: prepared.planText,
       folds: plan.foldsPerRepeat,
       repeats: plan.repeats,
       stratified,
       ...(problem.groupName !== undefined ? { group: problem.groupName } : {}),
       ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
       seed,
-      ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: Boolean(options.final) } : {}),
+      ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: prepared.final } : {}),
     },
     settings: { impute },
     metrics: metrics.map((m) => m.name),
     warnings: [...new Set(warnings)],
     learners,
-    ...(options.timing === false
+    ...(totalMs === undefined
       ? {}
       : {
           timing: {
-            totalMs: performance.now() - started,
+            totalMs,
             learners: candidates.map((c, li) => ({ spec: c.spec, ...perLearner[li].times })),
           },
         }),

@@ -1,0 +1,115 @@
+/**
+ * Everything a run decides before fitting anything: the problem, the plan, the metrics and the
+ * learners, all validated. It is a pure function of the table and the options, so a worker
+ * thread or another shard that prepares the same run gets the same tasks.
+ */
+import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
+import type { Table } from '../data/types.js';
+import { UsageError } from '../errors.js';
+import { defaultLearnerSpecs, formatSpec, getLearner, parseLearnerSpec, resolveParams } from '../learners/index.js';
+import { defaultMetrics, getMetric } from '../metrics/index.js';
+import type { Metric } from '../metrics/types.js';
+import { formatPlan, parsePlan } from '../plans/index.js';
+import type { PlanSpec } from '../plans/types.js';
+import type { Impute } from '../prep/fold-prep.js';
+import { planFor } from './plan-for.js';
+import type { Candidate, TaskContext } from './tasks.js';
+
+export const DEFAULT_SEED = 1;
+export const DEFAULT_PLAN = 'kfold:10';
+
+export interface EvaluateOptions extends ProblemOptions {
+  /** plan text such as "kfold:10" or a parsed spec (default kfold:10) */
+  readonly plan?: string | PlanSpec;
+  /** stratify classification plans by class (default true) */
+  readonly stratify?: boolean;
+  /** learner specs such as "knn:k=3" (default: the task's default list) */
+  readonly learners?: readonly string[];
+  /** evaluate the baseline beside the learners (default true) */
+  readonly baseline?: boolean;
+  /** metric names, headline first (default: the task's default list) */
+  readonly metrics?: readonly string[];
+  /** integer seed, 0 to 2^32-1 (default 1) */
+  readonly seed?: number;
+  readonly impute?: Impute;
+  /** score the holdout part of a holdout plan */
+  readonly final?: boolean;
+  /** include wall-clock timings (default true) */
+  readonly timing?: boolean;
+}
+
+export interface Prepared extends TaskContext {
+  readonly table: Table;
+  readonly planSpec: PlanSpec;
+  readonly planText: string;
+  readonly stratified: boolean;
+  readonly metrics: readonly Metric[];
+  readonly warnings: readonly string[];
+}
+
+/** Checks a seed: an integer from 0 to 2^32-1. */
+export function checkSeed(seed: number): number {
+  if (!Number.isInteger(seed) || seed < 0 || seed > 0xffffffff) {
+    throw new UsageError(`--seed ${seed}: expected a whole number from 0 to 4294967295`);
+  }
+  return seed;
+}
+
+function resolveCandidates(problem: Problem, options: EvaluateOptions): Candidate[] {
+  const specs = options.learners?.length ? options.learners : defaultLearnerSpecs(problem.task);
+  const list: Candidate[] = [];
+  const withBaseline = options.baseline !== false ? ['baseline', ...specs.filter((s) => s.trim() !== 'baseline')] : specs;
+  for (const text of withBaseline) {
+    const parsed = parseLearnerSpec(text);
+    const learner = getLearner(parsed.name);
+    const params = resolveParams(learner, parsed, problem.task);
+    const spec = formatSpec(learner, params);
+    if (list.some((c) => c.spec === spec)) throw new UsageError(`--learner ${text}: the same learner and options are given twice (${spec})`);
+    list.push({ learner, spec, params });
+  }
+  return list;
+}
+
+function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
+  const list = names?.length ? names : defaultMetrics(problem.task);
+  const out: Metric[] = [];
+  for (const name of list) {
+    const m = getMetric(name);
+    if (m.task !== problem.task) throw new UsageError(`--metric ${name}: a ${m.task} metric, but the task is ${problem.task}`);
+    if (!out.includes(m)) out.push(m);
+  }
+  return out;
+}
+
+/** Validates the options against the table and builds the plan; fits nothing. */
+export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
+  const seed = checkSeed(options.seed ?? DEFAULT_SEED);
+  const problem = defineProblem(table, options);
+  const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
+  const metrics = resolveMetrics(problem, options.metrics);
+  const candidates = resolveCandidates(problem, options);
+  const impute = options.impute ?? 'median';
+  if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
+  const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);
+  const warnings: string[] = [...table.warnings, ...plan.warnings];
+  if (problem.excludedRows > 0) {
+    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target ("${problem.targetName}") left out`);
+  }
+  if (planSpec.kind === 'loo') {
+    warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');
+  }
+  return {
+    table,
+    problem,
+    plan,
+    planSpec,
+    planText: formatPlan(planSpec),
+    stratified,
+    metrics,
+    candidates,
+    impute,
+    seed,
+    final: Boolean(options.final && plan.holdout),
+    warnings,
+  };
+}

@@ -1,0 +1,140 @@
+/**
+ * The run as a list of independent tasks. A task fits one learner on the training rows of one
+ * fold (or, for `--final`, on train + validation) and predicts that fold's test rows. Its id is
+ * stable, derived from the plan position and the learner spec only, and so is its seed, so a task
+ * gives the same predictions wherever and whenever it runs: in this thread, in a worker, in
+ * another shard on another machine, or after a resume from a journal.
+ */
+import { performance } from 'node:perf_hooks';
+import type { Problem } from '../data/problem.js';
+import type { Learner, Matrix, Params, Target } from '../learners/types.js';
+import type { BuiltPlan } from '../plans/types.js';
+import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
+import { createRng, deriveSeed } from './rng.js';
+
+export interface Candidate {
+  readonly learner: Learner;
+  readonly spec: string;
+  readonly params: Params;
+}
+
+export interface TaskSpec {
+  /** stable id: r{repeat}.f{fold}:{spec}, or final:{spec} */
+  readonly id: string;
+  /** index into plan.folds, or -1 for the final (holdout) task */
+  readonly foldIndex: number;
+  readonly candidateIndex: number;
+  /** rough relative cost, for balancing shards: training rows */
+  readonly cost: number;
+}
+
+export interface TaskResult {
+  readonly id: string;
+  readonly predicted: Int32Array | Float64Array;
+  readonly proba?: Float64Array;
+  readonly fitMs: number;
+  readonly predictMs: number;
+}
+
+/** What a task needs: the problem, the built plan, the learners and the settings. */
+export interface TaskContext {
+  readonly problem: Problem;
+  readonly plan: BuiltPlan;
+  readonly candidates: readonly Candidate[];
+  readonly impute: Impute;
+  readonly seed: number;
+  /** also run the final tasks (holdout scored once) */
+  readonly final: boolean;
+}
+
+export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: number): string {
+  const spec = ctx.candidates[candidateIndex].spec;
+  if (foldIndex < 0) return `final:${spec}`;
+  const f = ctx.plan.folds[foldIndex];
+  return `r${f.repeat + 1}.f${f.fold + 1}:${spec}`;
+}
+
+/** Every task of a run, in the order a single run performs them (fold by fold). */
+export function taskList(ctx: TaskContext): TaskSpec[] {
+  const out: TaskSpec[] = [];
+  ctx.plan.folds.forEach((f, fi) => {
+    ctx.candidates.forEach((_, ci) => out.push({ id: taskId(ctx, fi, ci), foldIndex: fi, candidateIndex: ci, cost: f.train.length }));
+  });
+  if (ctx.final && ctx.plan.holdout) {
+    const rows = ctx.plan.folds[0].train.length + ctx.plan.folds[0].test.length;
+    ctx.candidates.forEach((_, ci) => out.push({ id: taskId(ctx, -1, ci), foldIndex: -1, candidateIndex: ci, cost: rows }));
+  }
+  return out;
+}
+
+export function subsetTarget(y: Target, idx: Int32Array): Target {
+  return y.task === 'classification'
+    ? { task: 'classification', codes: Int32Array.from(idx, (i) => y.codes[i]), classes: y.classes }
+    : { task: 'regression', values: Float64Array.from(idx, (i) => y.values[i]) };
+}
+
+/** The training and test rows of a task's split. */
+export function splitRows(ctx: TaskContext, foldIndex: number): { train: Int32Array; test: Int32Array } {
+  if (foldIndex >= 0) return ctx.plan.folds[foldIndex];
+  const f = ctx.plan.folds[0];
+  return { train: Int32Array.from([...f.train, ...f.test]).sort(), test: ctx.plan.holdout! };
+}
+
+/** Preprocessed matrices of one split, made lazily and shared by the tasks of that split. */
+export class SplitData {
+  private readonly cache = new Map<string, Matrix>();
+  readonly prep: FittedPrep;
+  constructor(
+    private readonly problem: Problem,
+    readonly train: Int32Array,
+    readonly test: Int32Array,
+    impute: Impute,
+  ) {
+    this.prep = fitPrep(problem, train, impute);
+  }
+  matrix(part: 'train' | 'test', scale: boolean): Matrix {
+    const key = `${part}:${scale}`;
+    let m = this.cache.get(key);
+    if (!m) {
+      m = applyPrep(this.problem, this.prep, part === 'train' ? this.train : this.test, scale);
+      this.cache.set(key, m);
+    }
+    return m;
+  }
+}
+
+/**
+ * Runs tasks in the given order, fitting each split's preprocessing once for consecutive tasks
+ * of the same split. `done` is called after each task (for journals and progress).
+ */
+export function runTasks(ctx: TaskContext, tasks: readonly TaskSpec[], done?: (r: TaskResult) => void): TaskResult[] {
+  const out: TaskResult[] = [];
+  let split: SplitData | undefined;
+  let splitOf = NaN;
+  for (const t of tasks) {
+    if (t.foldIndex !== splitOf) {
+      const { train, test } = splitRows(ctx, t.foldIndex);
+      split = new SplitData(ctx.problem, train, test, ctx.impute);
+      splitOf = t.foldIndex;
+    }
+    const r = runTask(ctx, t, split!);
+    out.push(r);
+    done?.(r);
+  }
+  return out;
+}
+
+function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
+  const c = ctx.candidates[t.candidateIndex];
+  const f = t.foldIndex >= 0 ? ctx.plan.folds[t.foldIndex] : undefined;
+  const seed = f ? deriveSeed(ctx.seed, 'fit', c.spec, f.repeat, f.fold) : deriveSeed(ctx.seed, 'final', c.spec);
+  const Xtrain = split.matrix('train', c.learner.needsScaling);
+  const Xtest = split.matrix('test', c.learner.needsScaling);
+  const t0 = performance.now();
+  const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed });
+  const t1 = performance.now();
+  const predicted = model.predict(Xtest);
+  const proba = model.predictProba?.(Xtest);
+  const t2 = performance.now();
+  return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1 };
+}
