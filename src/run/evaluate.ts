@@ -15,9 +15,8 @@ import { performance } from 'node:perf_hooks';
 import type { Table } from '../data/types.js';
 import { InputError } from '../errors.js';
 import type { Target } from '../learners/types.js';
-import { confusionMatrix } from '../metrics/index.js';
+import { confusionMatrix, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
-import type { Fold } from '../plans/types.js';
 import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
@@ -78,104 +77,39 @@ function meanOf(values: readonly number[]): number {
   return values.reduce((s, v) => s + v, 0) / values.length;
 }
 
-/** Evaluates learners on a loaded table, in this thread. Pure apart from reading the clock. */
-export function evaluate(table: Table, options: EvaluateOptions): Report {
-  const started = performance.now();
-  const prepared = prepareRun(table, options);
-  const results = runTasks(prepared, taskList(prepared));
-  return assembleReport(prepared, results, options.timing === false ? undefined : performance.now() - started);
+/**
+ * Everything of the report that is known before any fit: the same for every shard of a run, so
+ * shards can carry it and `merge` can assemble a report without the data.
+ */
+export interface ReportFrame {
+  readonly data: Report['data'];
+  readonly plan: Report['plan'];
+  readonly settings: Report['settings'];
+  readonly metrics: readonly string[];
+  readonly warnings: readonly string[];
+  readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
 }
 
-/**
- * Builds the report from one result per task (in any order). Throws InputError when a task's
- * result is missing or has the wrong length (a journal or shard that does not belong to the run).
- */
-export function assembleReport(prepared: Prepared, results: readonly TaskResult[], totalMs?: number): Report {
+/** One task's outcome with what scoring needs: its place, sizes, actual and predicted values. */
+export interface TaskRecord {
+  readonly id: string;
+  readonly candidateIndex: number;
+  /** -1 for the final (holdout) task */
+  readonly foldIndex: number;
+  readonly repeat: number;
+  readonly fold: number;
+  readonly trainRows: number;
+  readonly actual: Target;
+  readonly predicted: Int32Array | Float64Array;
+  readonly proba?: Float64Array;
+  readonly fitMs: number;
+  readonly predictMs: number;
+}
+
+export function frameOf(prepared: Prepared): ReportFrame {
   const { table, problem, plan, planSpec, metrics, candidates } = prepared;
   const y = problem.target;
-  const byId = new Map(results.map((r) => [r.id, r]));
-  const get = (id: string, rows: number): TaskResult => {
-    const r = byId.get(id);
-    if (!r) throw new InputError(`the results of task ${id} are missing`);
-    if (r.predicted.length !== rows) throw new InputError(`task ${id} has ${r.predicted.length} predictions for ${rows} test rows`);
-    return r;
-  };
-  const warnings: string[] = [...prepared.warnings];
-  const tasks = taskList(prepared);
-  const perLearner = candidates.map(() => ({
-    folds: [] as FoldScores[],
-    preds: [] as Prediction[],
-    times: { fitMs: 0, predictMs: 0 },
-  }));
-  const actualParts: Target[] = [];
-  const finalParts: ({ trainRows: number; testRows: number; scores: Record<string, number | null> } | undefined)[] = candidates.map(() => undefined);
-  const testTargets = new Map<number, Target>();
-  for (const t of tasks) {
-    const { train, test } = splitRows(prepared, t.foldIndex);
-    let yTest = testTargets.get(t.foldIndex);
-    if (!yTest) {
-      yTest = subsetTarget(y, test);
-      testTargets.set(t.foldIndex, yTest);
-      if (t.foldIndex >= 0) actualParts.push(yTest);
-    }
-    const r = get(t.id, test.length);
-    const li = t.candidateIndex;
-    perLearner[li].times.fitMs += r.fitMs;
-    perLearner[li].times.predictMs += r.predictMs;
-    const scores: Record<string, number | null> = {};
-    for (const m of metrics) scores[m.name] = score(m, yTest, r);
-    if (t.foldIndex < 0) {
-      finalParts[li] = { trainRows: train.length, testRows: test.length, scores };
-      continue;
-    }
-    const fold = plan.folds[t.foldIndex];
-    perLearner[li].preds.push(r);
-    perLearner[li].folds.push({ repeat: fold.repeat, fold: fold.fold, trainRows: train.length, testRows: test.length, scores });
-  }
-
-  const trainMean = meanOf(plan.folds.map((f: Fold) => f.train.length));
-  const testMean = meanOf(plan.folds.map((f: Fold) => f.test.length));
-  const pooledActual = concatTargets(actualParts);
-  const classes = y.task === 'classification' ? y.classes.length : 0;
-
-  const learners: LearnerReport[] = candidates.map((c, li) => {
-    const { folds, preds } = perLearner[li];
-    const summary: Record<string, ScoreSummary | null> = {};
-    const pooled: Record<string, number | null> = {};
-    const pooledPred = concatPredictions(preds, classes);
-    const noProba = metrics.filter((m) => m.needsProba && !pooledPred.proba).map((m) => m.name);
-    if (noProba.length) warnings.push(`${c.spec} gives no class probabilities, so ${noProba.join(', ')} ${noProba.length === 1 ? 'is' : 'are'} not reported for it`);
-    for (const m of metrics) {
-      const values = folds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
-      const undefinedFolds = folds.length - values.length;
-      if (undefinedFolds > 0 && undefinedFolds < folds.length) {
-        warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${folds.length} folds; its summary uses the other folds`);
-      }
-      summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
-      pooled[m.name] = score(m, pooledActual, pooledPred);
-    }
-    const report: LearnerReport = {
-      name: c.learner.name,
-      spec: c.spec,
-      params: { ...c.params },
-      folds,
-      summary,
-      pooled,
-      ...(pooledActual.task === 'classification'
-        ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
-        : {}),
-      ...(finalParts[li] ? { final: finalParts[li] } : {}),
-    };
-    return report;
-  });
-  const stratified = prepared.stratified;
-  const seed = prepared.seed;
-  const impute = prepared.impute;
-
-  const report: Report = {
-    schema: REPORT_SCHEMA,
-    tool: { name: 'foldwise', version: VERSION },
-    command: 'eval',
+  return {
     data: {
       path: table.source,
       sha256: table.fingerprint.sha256,
@@ -194,14 +128,135 @@ export function assembleReport(prepared: Prepared, results: readonly TaskResult[
       text: prepared.planText,
       folds: plan.foldsPerRepeat,
       repeats: plan.repeats,
-      stratified,
+      stratified: prepared.stratified,
       ...(problem.groupName !== undefined ? { group: problem.groupName } : {}),
       ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
-      seed,
+      seed: prepared.seed,
       ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: prepared.final } : {}),
     },
-    settings: { impute },
+    settings: { impute: prepared.impute },
     metrics: metrics.map((m) => m.name),
+    warnings: prepared.warnings,
+    learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
+  };
+}
+
+/**
+ * Pairs each task of the run with its result (in any order). Throws InputError when a result is
+ * missing or has the wrong length (a journal or shard that does not belong to the run).
+ */
+export function recordsOf(prepared: Prepared, results: readonly TaskResult[]): TaskRecord[] {
+  const byId = new Map(results.map((r) => [r.id, r]));
+  const targets = new Map<number, Target>();
+  return taskList(prepared).map((t) => {
+    const { train, test } = splitRows(prepared, t.foldIndex);
+    const r = byId.get(t.id);
+    if (!r) throw new InputError(`the results of task ${t.id} are missing`);
+    if (r.predicted.length !== test.length) throw new InputError(`task ${t.id} has ${r.predicted.length} predictions for ${test.length} test rows`);
+    let actual = targets.get(t.foldIndex);
+    if (!actual) targets.set(t.foldIndex, (actual = subsetTarget(prepared.problem.target, test)));
+    const f = t.foldIndex >= 0 ? prepared.plan.folds[t.foldIndex] : { repeat: 0, fold: 0 };
+    return {
+      id: t.id,
+      candidateIndex: t.candidateIndex,
+      foldIndex: t.foldIndex,
+      repeat: f.repeat,
+      fold: f.fold,
+      trainRows: train.length,
+      actual,
+      predicted: r.predicted,
+      ...(r.proba ? { proba: r.proba } : {}),
+      fitMs: r.fitMs,
+      predictMs: r.predictMs,
+    };
+  });
+}
+
+/** Evaluates learners on a loaded table, in this thread. Pure apart from reading the clock. */
+export function evaluate(table: Table, options: EvaluateOptions): Report {
+  const started = performance.now();
+  const prepared = prepareRun(table, options);
+  const results = runTasks(prepared, taskList(prepared));
+  return assembleReport(frameOf(prepared), recordsOf(prepared, results), options.timing === false ? undefined : performance.now() - started);
+}
+
+/**
+ * Builds the report from the frame and one record per task, in the run's task order (fold by
+ * fold, learners in order within a fold). Scores are computed here, from actual and predicted
+ * values, so a report assembled from shards equals the report of a single run.
+ */
+export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[], totalMs?: number): Report {
+  const metrics: Metric[] = frame.metrics.map((m) => getMetric(m));
+  const warnings: string[] = [...frame.warnings];
+  const perLearner = frame.learners.map(() => ({
+    folds: [] as FoldScores[],
+    preds: [] as Prediction[],
+    actual: [] as Target[],
+    trainRows: [] as number[],
+    times: { fitMs: 0, predictMs: 0 },
+    final: undefined as { trainRows: number; testRows: number; scores: Record<string, number | null> } | undefined,
+  }));
+  for (const r of records) {
+    const l = perLearner[r.candidateIndex];
+    l.times.fitMs += r.fitMs;
+    l.times.predictMs += r.predictMs;
+    const scores: Record<string, number | null> = {};
+    for (const m of metrics) scores[m.name] = score(m, r.actual, r);
+    const testRows = r.predicted.length;
+    if (r.foldIndex < 0) {
+      l.final = { trainRows: r.trainRows, testRows, scores };
+      continue;
+    }
+    l.preds.push(r);
+    l.actual.push(r.actual);
+    l.trainRows.push(r.trainRows);
+    l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores });
+  }
+  const classes = frame.data.classes?.length ?? 0;
+
+  const learners: LearnerReport[] = frame.learners.map((c, li) => {
+    const { folds, preds, actual } = perLearner[li];
+    const trainMean = meanOf(folds.map((f) => f.trainRows));
+    const testMean = meanOf(folds.map((f) => f.testRows));
+    const pooledActual = concatTargets(actual);
+    const summary: Record<string, ScoreSummary | null> = {};
+    const pooled: Record<string, number | null> = {};
+    const pooledPred = concatPredictions(preds, classes);
+    const noProba = metrics.filter((m) => m.needsProba && !pooledPred.proba).map((m) => m.name);
+    if (noProba.length) warnings.push(`${c.spec} gives no class probabilities, so ${noProba.join(', ')} ${noProba.length === 1 ? 'is' : 'are'} not reported for it`);
+    for (const m of metrics) {
+      const values = folds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
+      const undefinedFolds = folds.length - values.length;
+      if (undefinedFolds > 0 && undefinedFolds < folds.length) {
+        warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${folds.length} folds; its summary uses the other folds`);
+      }
+      summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
+      pooled[m.name] = score(m, pooledActual, pooledPred);
+    }
+    const final = perLearner[li].final;
+    const report: LearnerReport = {
+      name: c.name,
+      spec: c.spec,
+      params: { ...c.params },
+      folds,
+      summary,
+      pooled,
+      ...(pooledActual.task === 'classification'
+        ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
+        : {}),
+      ...(final ? { final } : {}),
+    };
+    return report;
+  });
+
+  const report: Report = {
+    schema: REPORT_SCHEMA,
+    tool: { name: 'foldwise', version: VERSION },
+    command: 'eval',
+    data: frame.data,
+    plan: frame.plan,
+    settings: frame.settings,
+    metrics: frame.metrics,
     warnings: [...new Set(warnings)],
     learners,
     ...(totalMs === undefined
@@ -209,7 +264,7 @@ export function assembleReport(prepared: Prepared, results: readonly TaskResult[
       : {
           timing: {
             totalMs,
-            learners: candidates.map((c, li) => ({ spec: c.spec, ...perLearner[li].times })),
+            learners: frame.learners.map((c, li) => ({ spec: c.spec, ...perLearner[li].times })),
           },
         }),
   };
