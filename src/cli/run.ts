@@ -4,6 +4,7 @@
  * place that touches `process`.
  */
 import { Command, CommanderError, Option } from 'commander';
+import { availableParallelism } from 'node:os';
 import type { Readable } from 'node:stream';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
@@ -15,7 +16,11 @@ import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
-import { DEFAULT_PLAN, DEFAULT_SEED, evaluate } from '../run/evaluate.js';
+import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
+import { execute } from '../run/execute.js';
+import { parseShard } from '../run/shard.js';
+import { registerMerge } from './merge.js';
+import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
 import { registerCompare } from './compare.js';
@@ -27,6 +32,8 @@ export interface Io {
   readonly stderr: { write(text: string): unknown };
   readonly stdin?: Readable;
   readonly env?: Readonly<Record<string, string | undefined>>;
+  /** true once the user asked to stop (SIGINT); the run then stops cleanly */
+  readonly interrupted?: () => boolean;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -105,6 +112,16 @@ interface EvalFlags extends DataFlags {
   json?: string;
   markdown?: string;
   timing: boolean;
+  jobs: string;
+  shard?: string;
+  journal?: string;
+  quiet?: boolean;
+}
+
+/** --jobs: a whole number from 1 to 256. */
+export function parseJobs(text: string): number {
+  if (!/^\d+$/.test(text) || Number(text) < 1 || Number(text) > 256) throw new UsageError(`--jobs ${text}: expected a whole number from 1 to 256`);
+  return Number(text);
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
@@ -112,8 +129,13 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
   const seed = parseSeed(flags.seed);
+  const jobs = parseJobs(flags.jobs);
+  const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
+  if (shard && (!flags.json || flags.markdown)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
-  const report = evaluate(table, {
+  const progress = progressFor(io, Boolean(flags.quiet));
+  let resumedNote = '';
+  const result = await execute(table, {
     target: flags.target,
     drop: flags.drop,
     task: flags.task,
@@ -128,7 +150,24 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     impute: flags.impute,
     final: flags.final,
     timing: flags.timing,
-  });
+  }, {
+    jobs,
+    shard,
+    journal: flags.journal,
+    stopRequested: io.interrupted,
+    progress: (done, total, resumed) => {
+      if (resumed && !resumedNote) {
+        resumedNote = `foldwise: resumed ${resumed} of ${total} tasks from the journal ${flags.journal}\n`;
+        if (!flags.quiet) io.stderr.write(resumedNote);
+      }
+      progress?.update(done, total, resumed);
+    },
+  }).finally(() => progress?.stop());
+  if (result.kind === 'partial') {
+    writeFileAtomic(flags.json!, `${JSON.stringify(result.partial)}\n`, '--json');
+    return EXIT_OK;
+  }
+  const report = result.report;
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
   const md = (): string => renderMarkdown(report, (m) => getMetric(m).higherIsBetter);
   if (flags.json) {
@@ -186,6 +225,10 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
+    .option('--jobs <n>', 'worker threads (default: the available cores)', String(availableParallelism()))
+    .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')
+    .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
+    .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
   addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))
@@ -199,6 +242,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerCompare(prog, io, setCode);
   registerGate(prog, io, setCode);
   registerAudit(prog, io, setCode);
+  registerMerge(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
   prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));

@@ -18,6 +18,7 @@ import type { Target } from '../learners/types.js';
 import { confusionMatrix, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
+import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -142,13 +143,14 @@ export function frameOf(prepared: Prepared): ReportFrame {
 }
 
 /**
- * Pairs each task of the run with its result (in any order). Throws InputError when a result is
+ * Pairs each task of the run (or of the `only` ones) with its result (in any order). Throws InputError when a result is
  * missing or has the wrong length (a journal or shard that does not belong to the run).
  */
-export function recordsOf(prepared: Prepared, results: readonly TaskResult[]): TaskRecord[] {
+export function recordsOf(prepared: Prepared, results: readonly TaskResult[], only?: ReadonlySet<string>): TaskRecord[] {
   const byId = new Map(results.map((r) => [r.id, r]));
   const targets = new Map<number, Target>();
-  return taskList(prepared).map((t) => {
+  const tasks = taskList(prepared).filter((t) => !only || only.has(t.id));
+  return tasks.map((t) => {
     const { train, test } = splitRows(prepared, t.foldIndex);
     const r = byId.get(t.id);
     if (!r) throw new InputError(`the results of task ${t.id} are missing`);
@@ -268,5 +270,5 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
           },
         }),
   };
-  return report;
+  return withComparisons(report);
 }

@@ -105,13 +105,20 @@ export class SplitData {
 
 /**
  * Runs tasks in the given order, fitting each split's preprocessing once for consecutive tasks
- * of the same split. `done` is called after each task (for journals and progress).
+ * of the same split. `done` is called after each task (for journals and progress); when
+ * `stopRequested` returns true, no further task starts.
  */
-export function runTasks(ctx: TaskContext, tasks: readonly TaskSpec[], done?: (r: TaskResult) => void): TaskResult[] {
+export function runTasks(
+  ctx: TaskContext,
+  tasks: readonly TaskSpec[],
+  done?: (r: TaskResult) => void,
+  stopRequested?: () => boolean,
+): TaskResult[] {
   const out: TaskResult[] = [];
   let split: SplitData | undefined;
   let splitOf = NaN;
   for (const t of tasks) {
+    if (stopRequested?.()) break;
     if (t.foldIndex !== splitOf) {
       const { train, test } = splitRows(ctx, t.foldIndex);
       split = new SplitData(ctx.problem, train, test, ctx.impute);

@@ -1,0 +1,83 @@
+/**
+ * Running a whole evaluation the ways the CLI offers: in this thread or on a pool of worker
+ * threads (`jobs`), only one shard of the tasks (`shard`, giving a partial report), resuming
+ * from and appending to a journal (`journal`), with progress callbacks and a stop signal.
+ * Every way gives the same report for the same inputs and seed (timings aside).
+ */
+import { performance } from 'node:perf_hooks';
+import type { Table } from '../data/types.js';
+import { FoldwiseError } from '../errors.js';
+import type { Report } from '../report/types.js';
+import { assembleReport, frameOf, recordsOf } from './evaluate.js';
+import { identityOf } from './identity.js';
+import { openJournal } from './journal.js';
+import { makePartial, type PartialReport } from './partial.js';
+import { runPool } from './pool.js';
+import { prepareRun, type EvaluateOptions } from './prepare.js';
+import { shardTasks, type ShardSpec } from './shard.js';
+import { runTasks, taskList, type TaskResult } from './tasks.js';
+
+/** A run stopped on request (SIGINT): exit code 130, as shells use for an interrupt. */
+export class InterruptedError extends FoldwiseError {
+  constructor(message: string) {
+    super(message, 130);
+  }
+}
+
+export interface ExecOptions {
+  /** worker threads; 1 runs in this thread (default 1) */
+  readonly jobs?: number;
+  readonly shard?: ShardSpec;
+  /** path of the journal to resume from and append to */
+  readonly journal?: string;
+  /** called once before work with the counts, then after every finished task */
+  readonly progress?: (done: number, total: number, resumed: number) => void;
+  /** when it returns true, no new task is started and the run stops with InterruptedError */
+  readonly stopRequested?: () => boolean;
+}
+
+export type ExecResult = { readonly kind: 'report'; readonly report: Report } | { readonly kind: 'partial'; readonly partial: PartialReport };
+
+export async function execute(table: Table, options: EvaluateOptions, exec: ExecOptions = {}): Promise<ExecResult> {
+  const started = performance.now();
+  const prepared = prepareRun(table, options);
+  const all = taskList(prepared);
+  const mine = exec.shard ? shardTasks(all, exec.shard) : all;
+  const identity = identityOf(prepared);
+  const journal = exec.journal ? openJournal(exec.journal, identity, prepared.problem.target.task === 'classification') : undefined;
+  const results = new Map<string, TaskResult>();
+  try {
+    for (const t of mine) {
+      const r = journal?.done.get(t.id);
+      if (r) results.set(t.id, r);
+    }
+    const resumed = results.size;
+    const todo = mine.filter((t) => !results.has(t.id));
+    exec.progress?.(results.size, mine.length, resumed);
+    const done = (r: TaskResult): void => {
+      journal?.append(r);
+      results.set(r.id, r);
+      exec.progress?.(results.size, mine.length, resumed);
+    };
+    const jobs = Math.max(1, Math.floor(exec.jobs ?? 1));
+    if (jobs > 1 && todo.length > 1) {
+      await runPool(table, options, todo, jobs, done, exec.stopRequested);
+    } else {
+      runTasks(prepared, todo, done, exec.stopRequested);
+    }
+    if (results.size < mine.length) {
+      const where = journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : '';
+      throw new InterruptedError(`interrupted${where}`);
+    }
+  } finally {
+    journal?.close();
+  }
+  const ordered = mine.map((t) => results.get(t.id)!);
+  const frame = frameOf(prepared);
+  if (exec.shard) {
+    const records = recordsOf(prepared, ordered, new Set(mine.map((t) => t.id)));
+    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records) };
+  }
+  const totalMs = options.timing === false ? undefined : performance.now() - started;
+  return { kind: 'report', report: assembleReport(frame, recordsOf(prepared, ordered), totalMs) };
+}

@@ -1,0 +1,131 @@
+/**
+ * Partial reports of sharded runs, and `merge`. A part carries the run's identity, the report
+ * frame (everything known before fitting), the ids of every task of the whole run, and the
+ * records of its own tasks (actual and predicted values of each test part). `merge` checks
+ * that all parts belong to one run and that every task is there exactly once, then assembles
+ * the report exactly as a single run would have (byte-identical with --no-timing).
+ */
+import { InputError } from '../errors.js';
+import type { Target } from '../learners/types.js';
+import type { Report } from '../report/types.js';
+import { VERSION } from '../version.js';
+import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
+import { identityDiff, type RunIdentity } from './identity.js';
+import type { ShardSpec } from './shard.js';
+
+export const PARTIAL_FORMAT = 'foldwise-partial/1';
+
+interface RecordJSON {
+  readonly id: string;
+  readonly candidateIndex: number;
+  readonly foldIndex: number;
+  readonly repeat: number;
+  readonly fold: number;
+  readonly trainRows: number;
+  readonly actual: number[];
+  readonly predicted: number[];
+  readonly proba?: number[];
+  readonly fitMs: number;
+  readonly predictMs: number;
+}
+
+export interface PartialReport {
+  readonly schema: typeof PARTIAL_FORMAT;
+  readonly tool: { readonly name: 'foldwise'; readonly version: string };
+  readonly shard: ShardSpec;
+  readonly identity: RunIdentity;
+  readonly frame: ReportFrame;
+  /** every task id of the whole run, in the run's order */
+  readonly tasks: readonly string[];
+  readonly records: readonly RecordJSON[];
+}
+
+export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: ShardSpec, allTasks: readonly string[], records: readonly TaskRecord[]): PartialReport {
+  return {
+    schema: PARTIAL_FORMAT,
+    tool: { name: 'foldwise', version: VERSION },
+    shard,
+    identity,
+    frame,
+    tasks: allTasks,
+    records: records.map((r) => ({
+      id: r.id,
+      candidateIndex: r.candidateIndex,
+      foldIndex: r.foldIndex,
+      repeat: r.repeat,
+      fold: r.fold,
+      trainRows: r.trainRows,
+      actual: Array.from(r.actual.task === 'classification' ? r.actual.codes : r.actual.values),
+      predicted: Array.from(r.predicted),
+      ...(r.proba ? { proba: Array.from(r.proba) } : {}),
+      fitMs: r.fitMs,
+      predictMs: r.predictMs,
+    })),
+  };
+}
+
+function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
+  const classes = frame.data.classes;
+  const actual: Target = classes
+    ? { task: 'classification', codes: Int32Array.from(j.actual), classes }
+    : { task: 'regression', values: Float64Array.from(j.actual) };
+  return {
+    id: j.id,
+    candidateIndex: j.candidateIndex,
+    foldIndex: j.foldIndex,
+    repeat: j.repeat,
+    fold: j.fold,
+    trainRows: j.trainRows,
+    fitMs: j.fitMs,
+    predictMs: j.predictMs,
+    actual,
+    predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(j.predicted),
+    ...(j.proba ? { proba: Float64Array.from(j.proba) } : {}),
+  };
+}
+
+/** Parses a part file's text; names the file in every error. */
+export function parsePartial(text: string, name: string): PartialReport {
+  let j: Partial<PartialReport>;
+  try {
+    j = JSON.parse(text);
+  } catch {
+    throw new InputError(`${name}: not JSON; expected a part written by foldwise eval --shard`);
+  }
+  if (j?.schema !== PARTIAL_FORMAT || !j.identity || !j.frame || !Array.isArray(j.tasks) || !Array.isArray(j.records) || !j.shard) {
+    throw new InputError(`${name}: not a foldwise part (${PARTIAL_FORMAT}); expected a part written by foldwise eval --shard`);
+  }
+  return j as PartialReport;
+}
+
+/** Merges parts into the report of the whole run. `names` label the parts in errors. */
+export function mergeParts(parts: readonly PartialReport[], names: readonly string[], timing: boolean): Report {
+  if (parts.length === 0) throw new InputError('merge: give the part files to merge');
+  const first = parts[0];
+  parts.forEach((p, i) => {
+    const diff = identityDiff(first.identity, p.identity);
+    if (diff.length) throw new InputError(`merge: ${names[i]} belongs to another run than ${names[0]}: it differs in ${diff.join(', ')}`);
+    if (p.shard.count !== first.shard.count) throw new InputError(`merge: ${names[i]} is shard ${p.shard.index}/${p.shard.count}, ${names[0]} is of ${first.shard.count}`);
+  });
+  const seen = new Map<string, string>();
+  const doubled: string[] = [];
+  const records = new Map<string, RecordJSON>();
+  parts.forEach((p, i) => {
+    for (const r of p.records) {
+      if (seen.has(r.id)) doubled.push(`${r.id} (in ${seen.get(r.id)} and ${names[i]})`);
+      else seen.set(r.id, names[i]);
+      records.set(r.id, r);
+    }
+  });
+  const missing = first.tasks.filter((id) => !records.has(id));
+  const unknown = [...records.keys()].filter((id) => !first.tasks.includes(id));
+  const problems = [
+    ...(missing.length ? [`${missing.length} task${missing.length === 1 ? ' is' : 's are'} missing: ${missing.slice(0, 5).join(', ')}${missing.length > 5 ? ', ...' : ''}`] : []),
+    ...(doubled.length ? [`${doubled.length} doubled: ${doubled.slice(0, 5).join(', ')}`] : []),
+    ...(unknown.length ? [`${unknown.length} not of this run: ${unknown.slice(0, 5).join(', ')}`] : []),
+  ];
+  if (problems.length) throw new InputError(`merge: ${problems.join('; ')}; run or add the missing shards`);
+  const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
+  const total = timing ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
+  return assembleReport(first.frame, ordered, total);
+}

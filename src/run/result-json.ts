@@ -1,0 +1,40 @@
+/**
+ * Task results as plain JSON (journals and shard parts) and back. Doubles survive the trip
+ * exactly: JSON.stringify writes the shortest text that parses back to the same double.
+ */
+import { InputError } from '../errors.js';
+import type { TaskResult } from './tasks.js';
+
+export interface TaskResultJSON {
+  readonly id: string;
+  readonly predicted: number[];
+  readonly proba?: number[];
+  readonly fitMs: number;
+  readonly predictMs: number;
+}
+
+export function resultToJSON(r: TaskResult): TaskResultJSON {
+  return {
+    id: r.id,
+    predicted: Array.from(r.predicted),
+    ...(r.proba ? { proba: Array.from(r.proba) } : {}),
+    fitMs: r.fitMs,
+    predictMs: r.predictMs,
+  };
+}
+
+const numbers = (v: unknown): v is number[] => Array.isArray(v) && v.every((x) => typeof x === 'number');
+
+export function resultFromJSON(j: unknown, classification: boolean, where: string): TaskResult {
+  const o = j as Partial<TaskResultJSON> | null;
+  if (!o || typeof o.id !== 'string' || !numbers(o.predicted) || (o.proba !== undefined && !numbers(o.proba))) {
+    throw new InputError(`${where}: not a task result`);
+  }
+  return {
+    id: o.id,
+    predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(o.predicted),
+    ...(o.proba ? { proba: Float64Array.from(o.proba) } : {}),
+    fitMs: Number(o.fitMs) || 0,
+    predictMs: Number(o.predictMs) || 0,
+  };
+}

@@ -1,0 +1,28 @@
+/**
+ * A worker thread of the pool. It prepares the same run as the main thread from the shared
+ * table and the options (deterministic, so its task list is the same), then runs the batches of
+ * task ids it is sent and posts their results back.
+ */
+import { parentPort, workerData } from 'node:worker_threads';
+import { FoldwiseError } from '../errors.js';
+import { prepareRun, type EvaluateOptions } from './prepare.js';
+import { tableFromShared, type SharedTable } from './share.js';
+import { runTasks, taskList } from './tasks.js';
+
+const { table, options } = workerData as { table: SharedTable; options: EvaluateOptions };
+const prepared = prepareRun(tableFromShared(table), options);
+const byId = new Map(taskList(prepared).map((t) => [t.id, t]));
+
+parentPort!.on('message', (ids: string[] | null) => {
+  if (ids === null) {
+    parentPort!.close();
+    return;
+  }
+  try {
+    const results = runTasks(prepared, ids.map((id) => byId.get(id)!));
+    parentPort!.postMessage({ results });
+  } catch (e) {
+    const exitCode = e instanceof FoldwiseError ? e.exitCode : undefined;
+    parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e), ...(exitCode === undefined ? {} : { exitCode }) });
+  }
+});
