@@ -7,6 +7,7 @@
  */
 import { loadCsv } from '../../src/data/load-csv.js';
 import { evaluate } from '../../src/run/evaluate.js';
+import { execute } from '../../src/run/execute.js';
 import { type BenchCase, fixed, median, peakRssMb } from '../case.js';
 import { syntheticProblem } from '../synthetic.js';
 
@@ -47,6 +48,35 @@ export const cases: BenchCase[] = [
           columns: ['total s', 'fit+predict s', 'harness overhead'],
           rows: [[fixed(total / 1000, 2), fixed(fit / 1000, 2), `${fixed((100 * (total - fit)) / total, 1)}%`]],
           notes: [`median of ${totals.length} runs; forest mean accuracy ${fixed(accuracy, 4)}; peak RSS ${fixed(peakRssMb(), 0)} MB; goal: overhead <= 5%`],
+        },
+      ];
+    },
+  },
+  {
+    name: 'eval-jobs',
+    doc: 'the same 10-fold default-forest run on 20,000 x 20 with --jobs 1 and --jobs 2 (goal: speedup >= 1.8x)',
+    async run({ log }) {
+      const text = csvText(20_000, 20);
+      const table = await loadCsv({ text, name: 'bench.csv' });
+      const options = { target: 'label', learners: ['forest'], plan: 'kfold:10', seed: 1, timing: false } as const;
+      const times: number[] = [];
+      const outs: string[] = [];
+      for (const jobs of [1, 2]) {
+        log(`--jobs ${jobs}...`);
+        const t0 = performance.now();
+        const r = await execute(table, options, { jobs });
+        times.push(performance.now() - t0);
+        outs.push(JSON.stringify(r.kind === 'report' ? r.report : null));
+      }
+      return [
+        {
+          title: 'foldwise eval, default forest, kfold:10 on 20,000 x 20, by worker threads',
+          columns: ['--jobs', 'seconds', 'speedup'],
+          rows: [
+            ['1', fixed(times[0] / 1000, 2), '1.00'],
+            ['2', fixed(times[1] / 1000, 2), fixed(times[0] / times[1], 2)],
+          ],
+          notes: [`reports identical: ${outs[0] === outs[1]}; goal: speedup >= 1.8x on 2 cores`],
         },
       ];
     },
