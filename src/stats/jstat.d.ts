@@ -13,9 +13,16 @@ declare module 'jstat' {
     /** P(X <= x) for the normal distribution with the given mean and standard deviation. */
     cdf(x: number, mean: number, sd: number): number;
   }
+  interface JStatChiSquare {
+    /** P(X <= x) for the chi-square distribution with `dof` degrees of freedom. */
+    cdf(x: number, dof: number): number;
+  }
   interface JStat {
     readonly studentt: JStatStudentT;
     readonly normal: JStatNormal;
+    readonly chisquare: JStatChiSquare;
+    /** Pearson's correlation coefficient of two equally long arrays. */
+    corrcoeff(a: readonly number[], b: readonly number[]): number;
   }
   const jStat: JStat;
   export = jStat;

@@ -1,0 +1,79 @@
+/**
+ * `audit(table, options)`: everything in the data that could make a cross-validated score a
+ * lie, found before any learner is trusted. The problem and the intended plan are built
+ * exactly as `eval` builds them (defineProblem, planFor with the run's seed), so duplicate
+ * straddling and the single-feature scores refer to the folds eval would use. Pure: no
+ * printing, no clock, no randomness beyond the plan's seeded generator.
+ */
+import { defineProblem } from '../data/problem.js';
+import type { Table } from '../data/types.js';
+import { parsePlan } from '../plans/index.js';
+import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
+import { VERSION } from '../version.js';
+import { auditContext, checkClusterThreshold } from './audit-context.js';
+import { clusterSuspects, findClusters } from './clusters.js';
+import { profileColumns } from './column-profile.js';
+import { fastChecks, sortSuspects } from './fast-checks.js';
+import { recommendations } from './recommendations.js';
+import { targetProfile } from './target-profile.js';
+import { AUDIT_LIMITS, AUDIT_SCHEMA, type AuditOptions, type AuditReport } from './types.js';
+
+export function audit(table: Table, options: AuditOptions): AuditReport {
+  const seed = checkSeed(options.seed ?? DEFAULT_SEED);
+  const threshold = checkClusterThreshold(options.clusterThreshold ?? AUDIT_LIMITS.clusterThreshold);
+  const problem = defineProblem(table, options);
+  const spec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
+  const ctx = auditContext(problem, spec, options.stratify, seed);
+  const { plan, stratified } = ctx.planned;
+
+  const fast = fastChecks(ctx);
+  const clusters = findClusters(ctx.features, problem.rows.length, fast.unusable, threshold, ctx.warnings);
+  const positionOf = (name: string): number => table.byName.get(name)?.position ?? -1;
+  const suspects = sortSuspects([...fast.suspects, ...clusterSuspects(clusters, threshold)], positionOf);
+  const target = targetProfile(problem, plan);
+
+  const warnings = [...table.warnings, ...plan.warnings];
+  if (problem.excludedRows > 0) {
+    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target ("${problem.targetName}") left out`);
+  }
+  warnings.push(...ctx.warnings);
+  const y = problem.target;
+  return {
+    schema: AUDIT_SCHEMA,
+    tool: { name: 'foldwise', version: VERSION },
+    command: 'audit',
+    data: {
+      path: table.source,
+      sha256: table.fingerprint.sha256,
+      rows: table.rows,
+      columns: table.columns.length,
+      rowsUsed: problem.rows.length,
+      excludedRows: problem.excludedRows,
+      target: problem.targetName,
+      task: problem.task,
+      ...(y.task === 'classification' ? { classes: y.classes } : {}),
+      features: problem.features.map((f) => f.name),
+      dropped: problem.dropped,
+    },
+    plan: {
+      kind: spec.kind,
+      text: ctx.planText,
+      folds: plan.foldsPerRepeat,
+      repeats: plan.repeats,
+      stratified,
+      ...(problem.groupName !== undefined ? { group: problem.groupName } : {}),
+      ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
+      seed,
+    },
+    settings: { clusterThreshold: threshold },
+    columns: profileColumns(table, problem),
+    target,
+    suspects,
+    recommendations: recommendations(suspects, target, spec, stratified),
+    singleFeature: fast.singleFeature,
+    clusters,
+    duplicates: fast.duplicates,
+    missingness: fast.missingness,
+    warnings: [...new Set(warnings)],
+  };
+}

@@ -1,0 +1,68 @@
+/**
+ * Id-like columns: identifiers give a learner row-specific values that do not generalise, and
+ * an id that follows the row order also follows whatever the rows were sorted by.
+ *
+ * A feature is id-like when it has at least AUDIT_LIMITS.minRows present values on the used
+ * rows and at least 95% of them are distinct, and
+ * - it is categorical (texts unique or near unique per row), or
+ * - it is numeric, not a date, every value a whole number, and either monotone in row order
+ *   (at least 95% of steps between consecutive present rows go the same way) or dense (the
+ *   distinct values fill at least half of the range max - min + 1), as running numbers do.
+ * Measured numbers with decimals are never id-like, however unique. Rule of our own.
+ */
+import type { FeatureData } from './feature-data.js';
+import { AUDIT_LIMITS, type Suspect } from './types.js';
+import { dropOptions, pct, q } from './wording.js';
+
+export interface IdLikeEvidence {
+  readonly present: number;
+  readonly distinct: number;
+  /** "text", "monotone" or "dense" */
+  readonly why: 'text' | 'monotone' | 'dense';
+}
+
+export function idLikeEvidence(f: FeatureData, n: number): IdLikeEvidence | null {
+  const present = n - f.missing;
+  if (present < AUDIT_LIMITS.minRows || f.distinct < AUDIT_LIMITS.idShare * present) return null;
+  if (f.kind === 'categorical') return { present, distinct: f.distinct, why: 'text' };
+  if (f.dates) return null;
+  for (const i of f.order) if (!Number.isInteger(f.values[i])) return null;
+  let up = 0;
+  let down = 0;
+  let prev = NaN;
+  for (let i = 0; i < n; i++) {
+    const v = f.values[i];
+    if (Number.isNaN(v)) continue;
+    if (!Number.isNaN(prev)) {
+      if (v > prev) up++;
+      else if (v < prev) down++;
+    }
+    prev = v;
+  }
+  const steps = present - 1;
+  if (up >= AUDIT_LIMITS.idShare * steps || down >= AUDIT_LIMITS.idShare * steps) return { present, distinct: f.distinct, why: 'monotone' };
+  const lo = f.values[f.order[0]];
+  const hi = f.values[f.order[f.order.length - 1]];
+  if (f.distinct >= 0.5 * (hi - lo + 1)) return { present, distinct: f.distinct, why: 'dense' };
+  return null;
+}
+
+export function idLikeSuspects(features: readonly FeatureData[], n: number): Suspect[] {
+  const out: Suspect[] = [];
+  for (const f of features) {
+    const e = idLikeEvidence(f, n);
+    if (!e) continue;
+    const how =
+      e.why === 'text' ? 'texts' : e.why === 'monotone' ? 'whole numbers that run with the row order' : 'whole numbers filling most of their range, like running numbers';
+    out.push({
+      kind: 'id-like',
+      severity: 'warn',
+      columns: [f.name],
+      reasons: [e.why],
+      evidence: `${q(f.name)} has ${e.distinct} distinct values in ${e.present} present rows (${pct(e.distinct / e.present)}), ${how}`,
+      action: `an identifier does not generalise to new rows; leave it out (${dropOptions([f.name])}), or if rows sharing it belong together, pass it with --group`,
+      figures: { distinct: e.distinct, present: e.present },
+    });
+  }
+  return out;
+}
