@@ -50,6 +50,17 @@ export function isoDays(text: string): number {
   if (new Date(ms).toISOString().slice(0, 10) !== text.slice(0, 10) && text.length === 10) return NaN;
   return ms / DAY_MS;
 }
+/** Longest user text quoted whole in a message; longer texts are cut with "...". */
+const QUOTE_MAX = 80;
+
+/**
+ * User text (a cell, a column name, an option value) quoted for a one-line message: JSON string
+ * syntax, so line breaks and control characters are escaped and the message stays one line, and
+ * cut to QUOTE_MAX characters so a 5 MB cell does not make a 5 MB message.
+ */
+export function quoted(text: string): string {
+  return JSON.stringify(text.length > QUOTE_MAX ? `${text.slice(0, QUOTE_MAX - 3)}...` : text);
+}
 const INITIAL_CAPACITY = 1024;
 
 class GrowableCodes {
@@ -76,11 +87,62 @@ interface RawColumn {
   missing: number;
 }
 
-/** Hashes bytes as they pass and decodes them as strict UTF-8 (fails on the first bad byte). */
+/** Count of "\n" bytes in `chunk[from, to)`. */
+function newlinesIn(chunk: Buffer, from: number, to: number): number {
+  let count = 0;
+  for (let i = chunk.indexOf(10, from); i >= 0 && i < to; i = chunk.indexOf(10, i + 1)) count++;
+  return count;
+}
+
+/** Length of the UTF-8 sequence a lead byte starts (Unicode 15, table 3-7), 0 if it starts none. */
+function sequenceLength(b: number): number {
+  return b < 0x80 ? 1 : b >= 0xc2 && b <= 0xdf ? 2 : b >= 0xe0 && b <= 0xef ? 3 : b >= 0xf0 && b <= 0xf4 ? 4 : 0;
+}
+
+/**
+ * Offset of the first byte of `bytes` that cannot be part of well-formed UTF-8 (Unicode 15,
+ * table 3-7: no overlong forms, surrogates or values beyond U+10FFFF), or -1 when every
+ * sequence is well formed (the last one may be cut short by the end of `bytes`).
+ */
+export function firstBadUtf8(bytes: Uint8Array): number {
+  for (let i = 0; i < bytes.length; ) {
+    const b = bytes[i];
+    const len = sequenceLength(b);
+    if (len === 0) return i;
+    for (let j = 1; j < len; j++) {
+      if (i + j >= bytes.length) return -1;
+      const c = bytes[i + j];
+      const lo = j === 1 && b === 0xe0 ? 0xa0 : j === 1 && b === 0xf0 ? 0x90 : 0x80;
+      const hi = j === 1 && b === 0xed ? 0x9f : j === 1 && b === 0xf4 ? 0x8f : 0xbf;
+      if (c < lo || c > hi) return i;
+    }
+    i += len;
+  }
+  return -1;
+}
+
+/** The bytes at the end of `chunk` that begin a character the chunk does not finish. */
+function unfinishedTail(chunk: Buffer): Buffer {
+  for (let back = 1; back <= Math.min(3, chunk.length); back++) {
+    const b = chunk[chunk.length - back];
+    if ((b & 0xc0) === 0x80) continue;
+    return sequenceLength(b) > back ? chunk.subarray(chunk.length - back) : chunk.subarray(chunk.length);
+  }
+  return chunk.subarray(chunk.length);
+}
+
+/**
+ * Hashes bytes as they pass and decodes them as strict UTF-8; fails on the first NUL byte or
+ * bad byte, naming its byte offset and line.
+ */
 class HashingDecoder extends Transform {
   readonly hash = createHash('sha256');
   private readonly decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
   bytes = 0;
+  /** "\n" bytes in the chunks passed so far */
+  private newlines = 0;
+  /** the start of a character left unfinished by the previous chunk */
+  private carry: Buffer = Buffer.alloc(0);
   constructor(private readonly sourceName: string) {
     super({ readableObjectMode: true });
   }
@@ -88,18 +150,28 @@ class HashingDecoder extends Transform {
     this.hash.update(chunk);
     const nul = chunk.indexOf(0);
     if (nul >= 0) {
-      done(new InputError(`${this.sourceName}: byte ${this.bytes + nul} is a NUL byte; this looks like a binary file, not a CSV text file`));
+      const line = this.newlines + newlinesIn(chunk, 0, nul) + 1;
+      done(
+        new InputError(
+          `${this.sourceName}: byte ${this.bytes + nul} is a NUL byte (line ${line}); this looks like a binary file, not a CSV text file; give a CSV saved as UTF-8 text`,
+        ),
+      );
       return;
     }
-    const start = this.bytes;
-    this.bytes += chunk.length;
     let text: string;
     try {
       text = this.decoder.decode(chunk, { stream: true });
     } catch {
-      done(new InputError(`${this.sourceName}: is not valid UTF-8 (a bad byte within bytes ${start}-${this.bytes - 1}); save the file as UTF-8`));
+      // the carry bytes (no line breaks among them) come right before the chunk
+      const found = firstBadUtf8(Buffer.concat([this.carry, chunk]));
+      const at = found < 0 ? this.carry.length + chunk.length - 1 : found;
+      const line = this.newlines + newlinesIn(chunk, 0, Math.max(0, at - this.carry.length)) + 1;
+      done(new InputError(`${this.sourceName}: is not valid UTF-8 (line ${line}, byte ${this.bytes - this.carry.length + at}); save the file as UTF-8`));
       return;
     }
+    this.bytes += chunk.length;
+    this.newlines += newlinesIn(chunk, 0, chunk.length);
+    this.carry = Buffer.from(unfinishedTail(chunk.length >= 4 ? chunk : Buffer.concat([this.carry, chunk])));
     if (text.length) this.push(text);
     done();
   }
@@ -109,7 +181,7 @@ class HashingDecoder extends Transform {
       if (tail.length) this.push(tail);
       done();
     } catch {
-      done(new InputError(`${this.sourceName}: is not valid UTF-8 (the file ends inside a character); save the file as UTF-8`));
+      done(new InputError(`${this.sourceName}: is not valid UTF-8 (line ${this.newlines + 1}: the file ends inside a character); save the file as UTF-8`));
     }
   }
 }
@@ -139,7 +211,7 @@ function fileError(name: string, e: unknown): InputError {
 function checkOptions(options: LoadOptions): { delimiter: string; missing: Set<string> } {
   const delimiter = options.delimiter ?? ',';
   if ([...delimiter].length !== 1 || delimiter === '"' || delimiter === '\n' || delimiter === '\r') {
-    throw new InputError(`--delimiter "${delimiter}": expected one character other than a quote or a line break (use "\\t" for tab)`);
+    throw new InputError(`--delimiter ${quoted(delimiter)}: expected one character other than a quote or a line break (use "\\t" for tab)`);
   }
   return { delimiter, missing: new Set((options.missing ?? DEFAULT_MISSING).map((t) => t.trim())) };
 }
@@ -236,7 +308,7 @@ export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Pro
 
   const forced = new Set(options.categorical ?? []);
   for (const f of forced) {
-    if (!raw.some((c) => c.name === f)) throw new InputError(`--categorical "${f}": no such column in ${name}`);
+    if (!raw.some((c) => c.name === f)) throw new InputError(`--categorical ${quoted(f)}: no such column in ${name}`);
   }
   const warnings: string[] = [];
   const lineOf = lines.view();
@@ -265,7 +337,7 @@ function checkHeader(name: string, header: readonly string[]): void {
     if (col.trim() === '') throw new InputError(`${name}: column ${i + 1} of the header has no name; give every column a name`);
     const before = seen.get(col);
     if (before !== undefined) {
-      throw new InputError(`${name}: column name "${col}" appears twice in the header (columns ${before + 1} and ${i + 1}); rename one`);
+      throw new InputError(`${name}: column name ${quoted(col)} appears twice in the header (columns ${before + 1} and ${i + 1}); rename one`);
     }
     seen.set(col, i);
   });
@@ -295,7 +367,7 @@ function finishColumn(
         const v = Number(t);
         if (!Number.isFinite(v)) {
           throw new InputError(
-            `${name}: line ${firstLineWith(codes, k, lineOf)}, column "${c.name}": "${t}" is too large for a double; fix the value or list it with --missing`,
+            `${name}: line ${firstLineWith(codes, k, lineOf)}, column ${quoted(c.name)}: ${quoted(t)} is too large for a double; fix the value or list it with --missing`,
           );
         }
         if (Number.isInteger(v) && Math.abs(v) > Number.MAX_SAFE_INTEGER) bigIntegers = true;
@@ -306,7 +378,7 @@ function finishColumn(
     }
     const nonMissing = codes.length - c.missing;
     if (textual.length === 0 && nonMissing > 0) {
-      if (bigIntegers) warnings.push(`column "${c.name}" has integers beyond 2^53; they are read as the nearest double`);
+      if (bigIntegers) warnings.push(`column ${quoted(c.name)} has integers beyond 2^53; they are read as the nearest double`);
       const out = new Float64Array(codes.length);
       for (let i = 0; i < codes.length; i++) out[i] = codes[i] < 0 ? NaN : values[codes[i]];
       return { kind: 'numeric', name: c.name, position, values: out, missing: c.missing } satisfies NumericColumn;
@@ -315,7 +387,7 @@ function finishColumn(
       const inf = textual.find((k) => INFINITE_WORD.test(c.levels[k].trim()));
       if (inf !== undefined && textual.every((k) => INFINITE_WORD.test(c.levels[k].trim()))) {
         throw new InputError(
-          `${name}: line ${firstLineWith(codes, inf, lineOf)}, column "${c.name}": "${c.levels[inf]}" is not a finite number; fix it or list it with --missing`,
+          `${name}: line ${firstLineWith(codes, inf, lineOf)}, column ${quoted(c.name)}: ${quoted(c.levels[inf])} is not a finite number; fix it or list it with --missing`,
         );
       }
       let textRows = 0;
@@ -325,7 +397,7 @@ function finishColumn(
       if (textual.length <= 3 && textRows <= 0.1 * nonMissing) {
         const k = textual[0];
         warnings.push(
-          `column "${c.name}" is numeric but for ${textRows} cell${textRows === 1 ? '' : 's'} such as "${c.levels[k]}" (line ${firstLineWith(codes, k, lineOf)}): read as categorical; if that text means missing, add it with --missing`,
+          `column ${quoted(c.name)} is numeric but for ${textRows} cell${textRows === 1 ? '' : 's'} such as ${quoted(c.levels[k])} (line ${firstLineWith(codes, k, lineOf)}): read as categorical; if that text means missing, add it with --missing`,
         );
       }
     }

@@ -5,6 +5,7 @@
  */
 import { closeNames, InputError, UsageError } from '../errors.js';
 import type { Target, Task } from '../learners/types.js';
+import { quoted } from './load-csv.js';
 import type { Column, Table } from './types.js';
 
 /** An integer target with at most this many distinct values is taken as classification. */
@@ -42,7 +43,7 @@ function columnOf(table: Table, name: string, option: string): Column {
   const col = table.byName.get(name);
   if (!col) {
     const hint = closeNames(name, table.columns.map((c) => c.name));
-    throw new UsageError(`${option} "${name}": no such column in ${table.source}${hint ? `; ${hint}` : ''}`);
+    throw new UsageError(`${option} ${quoted(name)}: no such column in ${table.source}${hint ? `; ${hint}` : ''}`);
   }
   return col;
 }
@@ -79,7 +80,7 @@ function classificationTarget(table: Table, col: Column, rows: Int32Array): Targ
   }
   if (names.length < 2) {
     throw new InputError(
-      `${table.source}: target "${col.name}" has only one class ("${names[0]}") in the usable rows; classification needs at least two`,
+      `${table.source}: target ${quoted(col.name)} has only one class (${quoted(names[0])}) in the usable rows; classification needs at least two`,
     );
   }
   const index = new Map(names.map((n, k) => [n, k]));
@@ -91,9 +92,9 @@ function classificationTarget(table: Table, col: Column, rows: Int32Array): Targ
 function regressionTarget(table: Table, col: Column, rows: Int32Array): Target {
   if (col.kind !== 'numeric') {
     const r = rows.find((row) => col.codes[row] >= 0 && !Number.isFinite(Number(col.levels[col.codes[row]])));
-    const at = r === undefined ? '' : ` (line ${table.lines[r]}: "${col.levels[col.codes[r]]}")`;
+    const at = r === undefined ? '' : ` (line ${table.lines[r]}: ${quoted(col.levels[col.codes[r]])})`;
     throw new InputError(
-      `${table.source}: target "${col.name}" is not numeric${at}; regression needs numbers (use --task classification for labels)`,
+      `${table.source}: target ${quoted(col.name)} is not numeric${at}; regression needs numbers (use --task classification for labels)`,
     );
   }
   return { task: 'regression', values: Float64Array.from(rows, (r) => col.values[r]) };
@@ -102,14 +103,14 @@ function regressionTarget(table: Table, col: Column, rows: Int32Array): Target {
 function orderValues(table: Table, col: Column, rows: Int32Array): Float64Array {
   if (col.kind !== 'numeric') {
     const r = rows.find((row) => col.codes[row] >= 0) ?? rows[0];
-    const text = col.codes[r] < 0 ? 'missing' : `"${col.levels[col.codes[r]]}"`;
+    const text = col.codes[r] < 0 ? 'missing' : quoted(col.levels[col.codes[r]]);
     throw new InputError(
-      `${table.source}: line ${table.lines[r]}: --order column "${col.name}" is ${text}; order values must be numbers or ISO dates (YYYY-MM-DD)`,
+      `${table.source}: line ${table.lines[r]}: --order column ${quoted(col.name)} is ${text}; order values must be numbers or ISO dates (YYYY-MM-DD)`,
     );
   }
   const out = Float64Array.from(rows, (r) => col.values[r]);
   const bad = out.findIndex((v) => Number.isNaN(v));
-  if (bad >= 0) throw new InputError(`${table.source}: line ${table.lines[rows[bad]]}: --order column "${col.name}" is missing; every row needs an order value`);
+  if (bad >= 0) throw new InputError(`${table.source}: line ${table.lines[rows[bad]]}: --order column ${quoted(col.name)} is missing; every row needs an order value`);
   return out;
 }
 
@@ -119,18 +120,18 @@ export function defineProblem(table: Table, options: ProblemOptions): Problem {
   const drop = options.drop ?? [];
   for (const d of drop) {
     columnOf(table, d, '--drop');
-    if (d === options.target) throw new UsageError(`--drop "${d}": that is the target column; drop other columns`);
+    if (d === options.target) throw new UsageError(`--drop ${quoted(d)}: that is the target column; drop other columns`);
   }
   const groupCol = options.group === undefined ? undefined : columnOf(table, options.group, '--group');
   const orderCol = options.order === undefined ? undefined : columnOf(table, options.order, '--order');
   for (const [opt, col] of [['--group', groupCol], ['--order', orderCol]] as const) {
-    if (col === targetCol) throw new UsageError(`${opt} "${col.name}": that is the target column; choose another column`);
+    if (col === targetCol) throw new UsageError(`${opt} ${quoted(col.name)}: that is the target column; choose another column`);
   }
 
   const used: number[] = [];
   for (let r = 0; r < table.rows; r++) if (present(targetCol, r)) used.push(r);
   const rows = Int32Array.from(used);
-  if (rows.length === 0) throw new InputError(`${table.source}: target "${targetCol.name}" is missing in every row`);
+  if (rows.length === 0) throw new InputError(`${table.source}: target ${quoted(targetCol.name)} is missing in every row`);
   const task = options.task ?? inferTask(targetCol);
   const target = task === 'classification' ? classificationTarget(table, targetCol, rows) : regressionTarget(table, targetCol, rows);
 
