@@ -4,7 +4,9 @@
  * place that touches `process`.
  */
 import { Command, CommanderError, Option } from 'commander';
+import { realpathSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
+import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
@@ -23,6 +25,7 @@ import { registerMerge } from './merge.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
+import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { runSplit } from './split.js';
@@ -124,8 +127,30 @@ export function parseJobs(text: string): number {
   return Number(text);
 }
 
+/** Refuses outputs that would overwrite the input or each other. */
+export function checkOutputs(data: string, outputs: readonly (readonly [string, string | undefined])[]): void {
+  const real = (p: string): string => {
+    try {
+      return realpathSync(p);
+    } catch {
+      return resolve(p);
+    }
+  };
+  const input = data === '-' ? undefined : real(data);
+  const seen = new Map<string, string>();
+  for (const [option, path] of outputs) {
+    if (!path || path === '-') continue;
+    const r = real(path);
+    if (r === input) throw new UsageError(`${option} ${path}: is the input file; give another name`);
+    const before = seen.get(r);
+    if (before) throw new UsageError(`${before} and ${option} ${path}: the same file; give two names`);
+    seen.set(r, `${option} ${path}`);
+  }
+}
+
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
   if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--journal', flags.journal]]);
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
   const seed = parseSeed(flags.seed);
@@ -168,7 +193,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     return EXIT_OK;
   }
   const report = result.report;
-  for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
+  for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   const md = (): string => renderMarkdown(report, (m) => getMetric(m).higherIsBetter);
   if (flags.json) {
     if (flags.json === '-') io.stdout.write(renderJson(report));
@@ -209,7 +234,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .configureOutput({
       writeOut: (s) => io.stdout.write(s),
       writeErr: (s) => io.stderr.write(s),
-      outputError: (s, write) => write(`foldwise: ${s.replace(/^error: /, '').trim()}\n`),
+      outputError: (s, write) => write(`foldwise: ${s.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}\n`),
     })
     .showSuggestionAfterError(true);
 
@@ -242,6 +267,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerCompare(prog, io, setCode);
   registerGate(prog, io, setCode);
   registerAudit(prog, io, setCode);
+  registerRender(prog, io, setCode);
   registerMerge(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
@@ -252,9 +278,13 @@ function program(io: Io, setCode: (code: number) => void): Command {
 /** Runs the CLI on `argv` (without the node and script paths) and returns the exit code. */
 export async function run(argv: readonly string[], io: Io): Promise<number> {
   let code = EXIT_OK;
-  const verbose = argv.includes('--verbose');
+  let verbose = false;
   try {
-    await program(io, (c) => (code = c)).parseAsync([...argv], { from: 'user' });
+    const prog = program(io, (c) => (code = c));
+    prog.hook('preAction', (_this, action) => {
+      verbose = Boolean(action.opts().verbose);
+    });
+    await prog.parseAsync([...argv], { from: 'user' });
     return code;
   } catch (e) {
     if (e instanceof CommanderError) {
@@ -262,7 +292,7 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
       return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
     }
     if (e instanceof FoldwiseError) {
-      io.stderr.write(`foldwise: ${e.message}\n`);
+      io.stderr.write(`foldwise: ${e.message.replace(/\r?\n|\r/g, ' ')}\n`);
       if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
       return e.exitCode;
     }

@@ -6,7 +6,7 @@ import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { splitTable } from '../run/split.js';
-import { loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io } from './run.js';
+import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io } from './run.js';
 
 interface SplitFlags extends DataFlags {
   plan: string;
@@ -25,6 +25,7 @@ async function readAll(stream: Readable): Promise<Buffer> {
 export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise<number> {
   if (!flags.out && !flags.assign) throw new UsageError('split: give --out DIR for part files, --assign FILE for the assignment, or both');
   const seed = parseSeed(flags.seed);
+  checkOutputs(data, [['--assign', flags.assign]]);
   if (flags.assign) checkWritable(flags.assign, '--assign');
   let table;
   let text: string;

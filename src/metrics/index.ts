@@ -103,7 +103,7 @@ export function getMetric(name: string): Metric {
   const metric = METRICS.get(name as MetricName);
   if (metric !== undefined) return metric;
   const hint = closeNames(name, METRIC_NAMES);
-  throw new UsageError(`unknown metric ${JSON.stringify(name)}; known: ${METRIC_NAMES.join(', ')}${hint ? `; ${hint}` : ''}`);
+  throw new UsageError(`--metric ${JSON.stringify(name)}: unknown metric; known: ${METRIC_NAMES.join(', ')}${hint ? `; ${hint}` : ''}`);
 }
 
 /** The metrics reported when the user names none. */

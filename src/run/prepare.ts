@@ -5,6 +5,7 @@
  */
 import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
+import { quoted } from '../data/load-csv.js';
 import { UsageError } from '../errors.js';
 import { defaultLearnerSpecs, formatSpec, getLearner, parseLearnerSpec, resolveParams } from '../learners/index.js';
 import { defaultMetrics, getMetric } from '../metrics/index.js';
@@ -93,7 +94,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);
   const warnings: string[] = [...table.warnings, ...plan.warnings];
   if (problem.excludedRows > 0) {
-    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target ("${problem.targetName}") left out`);
+    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
   }
   if (planSpec.kind === 'loo') {
     warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');

@@ -159,7 +159,7 @@ describe('usage errors exit 2 with one line', () => {
     [['eval', penguins, '--target', 'Species', '--drop', 'nope'], /--drop "nope": no such column/],
     [['eval', penguins, '--target', 'Species', '--learner', 'nope'], /--learner "nope": unknown learner/],
     [['eval', penguins, '--target', 'Species', '--metric', 'rmse'], /--metric rmse: a regression metric, but the task is classification/],
-    [['eval', penguins, '--target', 'Species', '--metric', 'acuracy'], /unknown metric "acuracy"/],
+    [['eval', penguins, '--target', 'Species', '--metric', 'acuracy'], /--metric "acuracy": unknown metric; known: /],
     [['eval', penguins, '--target', 'Species', '--plan', 'kfold:1'], /--plan/],
     [['eval', penguins, '--target', 'Species', '--plan', 'kfold:400'], /400/],
     [['eval', penguins, '--target', 'Species', '--seed', '-1'], /--seed/],

@@ -250,8 +250,6 @@ const cases: Case[] = [
     input: csvText({ header: ['--verbose', 'b', 'y'], rows: small.rows }),
     args: ['--target', 'y', '--drop', '--verbose', '--plan', 'kfold:3', '--learner', 'knm'],
     expect: /^--learner "knm": unknown learner; did you mean "knn"\?/,
-    pending:
-      'src/cli/run.ts run() (line 255): `const verbose = argv.includes("--verbose")` also matches an option VALUE; take it from the parsed options instead (e.g. a preAction hook reading actionCommand.opts().verbose)',
   },
 
   {
@@ -265,8 +263,6 @@ const cases: Case[] = [
     input: csvText({ header: ['a', 'b', 'y\nz'], rows: withCell(small, 3, 2, '').rows }),
     args: ['--target', 'y\nz', '--plan', 'kfold:3', '--learner', 'knn:k=1', '--no-timing', '--jobs', '1'],
     expect: (o) => worksLike(o, (r) => expect(r.data.excludedRows).toBe(1)),
-    pending:
-      'src/run/prepare.ts, the "rows with a missing target" warning (line 96): `("${problem.targetName}")` puts the raw name in the message; write `(${quoted(problem.targetName)})` with quoted() from src/data/load-csv.ts',
   },
 
   // ---- the target
@@ -411,7 +407,6 @@ const cases: Case[] = [
     input: smallCsv,
     args: [...RUN, '--metric', 'acuracy'],
     expect: /^--metric "acuracy": unknown metric.*did you mean "accuracy"\?/,
-    pending: 'src/metrics/index.ts getMetric(): the message starts `unknown metric "acuracy"` and does not name the option; start it with `--metric "acuracy": unknown metric; known: ...`',
   },
   { name: 'a metric of the other task', input: smallCsv, args: [...RUN, '--metric', 'rmse'], expect: /^--metric rmse: a regression metric, but the task is classification$/ },
   { name: 'learner spec without a value', input: smallCsv, args: [...RUN, '--learner', 'knn:k'], expect: /^--learner "knn:k": "k" is not key=value$/ },
@@ -494,8 +489,6 @@ const cases: Case[] = [
     outputs: false,
     argv: (path) => ['eval', path, ...RUN, '--json', path],
     expect: /^--json .*data\.csv: is the input file; give another name$/,
-    pending:
-      'src/cli/run.ts runEval(): writing a report over the data destroys the input; before loading, refuse --json/--markdown (and split --assign) whose realpath is the data path (realpathSync of both when they exist): `${option} ${path}: is the input file; give another name`',
   },
   {
     name: '--json and --markdown naming the same file',
@@ -503,7 +496,6 @@ const cases: Case[] = [
     outputs: false,
     argv: (path) => ['eval', path, ...RUN, '--json', join(path, '..', 'out', 'r.txt'), '--markdown', join(path, '..', 'out', 'r.txt')],
     expect: /^--json .* and --markdown .*: the same file; give two names$/,
-    pending: 'src/cli/run.ts runEval(): the Markdown report silently replaces the JSON one; refuse equal paths: `--json ${a} and --markdown ${b}: the same file; give two names`',
   },
   {
     name: '--json and --markdown both to standard output',
@@ -530,14 +522,12 @@ const cases: Case[] = [
     input: smallCsv,
     args: [...RUN, '--lerner', 'knn'],
     expect: /^unknown option '--lerner' \(Did you mean --learner\?\)$/,
-    pending: "src/cli/run.ts program() outputError (line 212): commander's message has the suggestion on a second line; in outputError join the lines: `s.replace(/^error: /, '').trim().replace(/\\s*\\n\\s*/g, ' ')`",
   },
   {
     name: 'unknown command',
     input: smallCsv,
     argv: (path) => ['evl', path, '--target', 'y'],
     expect: /^unknown command 'evl' \(Did you mean eval\?\)$/,
-    pending: 'src/cli/run.ts program(): as for unknown options, join the lines of commander messages in outputError',
   },
 ];
 

@@ -52,7 +52,7 @@ describe('metric registry', () => {
       err = e;
     }
     expect(err).toBeInstanceOf(UsageError);
-    expect((err as Error).message).toBe(`unknown metric "acuracy"; known: ${known}; did you mean "accuracy"?`);
+    expect((err as Error).message).toBe(`--metric "acuracy": unknown metric; known: ${known}; did you mean "accuracy"?`);
     // no close name: the message ends with the known list
     expect(() => getMetric('zzzzzzzzzzzzzzzz')).toThrow(new RegExp(`known: ${known}$`));
     expect(() => getMetric('__proto__')).toThrow(UsageError);
