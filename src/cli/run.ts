@@ -25,7 +25,6 @@ import { registerMerge } from './merge.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
-import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { runSplit } from './split.js';
@@ -267,7 +266,6 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerCompare(prog, io, setCode);
   registerGate(prog, io, setCode);
   registerAudit(prog, io, setCode);
-  registerRender(prog, io, setCode);
   registerMerge(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
