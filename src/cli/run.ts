@@ -118,6 +118,7 @@ interface EvalFlags extends DataFlags {
   shard?: string;
   journal?: string;
   quiet?: boolean;
+  audit: boolean;
 }
 
 /** --jobs: a whole number from 1 to 256. */
@@ -174,6 +175,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     impute: flags.impute,
     final: flags.final,
     timing: flags.timing,
+    audit: flags.audit,
   }, {
     jobs,
     shard,
@@ -253,6 +255,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')
     .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
     .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')
+    .option('--no-audit', 'skip the quick data audit that runs before evaluating')
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
   addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))

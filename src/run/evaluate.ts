@@ -20,7 +20,7 @@ import type { Metric } from '../metrics/types.js';
 import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
-import { prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
+import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
 export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -176,7 +176,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
 /** Evaluates learners on a loaded table, in this thread. Pure apart from reading the clock. */
 export function evaluate(table: Table, options: EvaluateOptions): Report {
   const started = performance.now();
-  const prepared = prepareRun(table, options);
+  const prepared = withAudit(prepareRun(table, options), options);
   const results = runTasks(prepared, taskList(prepared));
   return assembleReport(frameOf(prepared), recordsOf(prepared, results), options.timing === false ? undefined : performance.now() - started);
 }

@@ -13,7 +13,7 @@ import { identityOf } from './identity.js';
 import { openJournal } from './journal.js';
 import { makePartial, type PartialReport } from './partial.js';
 import { runPool } from './pool.js';
-import { prepareRun, type EvaluateOptions } from './prepare.js';
+import { prepareRun, withAudit, type EvaluateOptions } from './prepare.js';
 import { shardTasks, type ShardSpec } from './shard.js';
 import { runTasks, taskList, type TaskResult } from './tasks.js';
 
@@ -40,7 +40,7 @@ export type ExecResult = { readonly kind: 'report'; readonly report: Report } | 
 
 export async function execute(table: Table, options: EvaluateOptions, exec: ExecOptions = {}): Promise<ExecResult> {
   const started = performance.now();
-  const prepared = prepareRun(table, options);
+  const prepared = withAudit(prepareRun(table, options), options);
   const all = taskList(prepared);
   const mine = exec.shard ? shardTasks(all, exec.shard) : all;
   const identity = identityOf(prepared);

@@ -13,6 +13,7 @@ import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import type { PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
+import { quickAudit } from '../audit/quick-audit.js';
 import { planFor } from './plan-for.js';
 import type { Candidate, TaskContext } from './tasks.js';
 
@@ -37,6 +38,8 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly final?: boolean;
   /** include wall-clock timings (default true) */
   readonly timing?: boolean;
+  /** run the quick data audit first and add its findings to the warnings (default true) */
+  readonly audit?: boolean;
 }
 
 export interface Prepared extends TaskContext {
@@ -80,6 +83,22 @@ function resolveMetrics(problem: Problem, names: readonly string[] | undefined):
     if (!out.includes(m)) out.push(m);
   }
   return out;
+}
+
+/**
+ * Adds the quick audit's findings (leakage, duplicates straddling folds, id-like columns...) to
+ * the warnings, unless `options.audit` is false. Run once, in the thread that writes the
+ * report (workers do not need it).
+ */
+export function withAudit(prepared: Prepared, options: EvaluateOptions): Prepared {
+  if (options.audit === false) return prepared;
+  const findings = quickAudit(prepared.problem, {
+    plan: prepared.planSpec,
+    stratify: options.stratify,
+    seed: prepared.seed,
+    planned: { plan: prepared.plan, stratified: prepared.stratified },
+  });
+  return findings.length ? { ...prepared, warnings: [...prepared.warnings, ...findings] } : prepared;
 }
 
 /** Validates the options against the table and builds the plan; fits nothing. */
