@@ -21,7 +21,7 @@ const FEATURES = ['--drop', 'Island', '--drop', 'Sex'];
 
 describe('foldwise eval on the Palmer penguins file (vega-datasets; Gorman, Williams & Fraser 2014)', () => {
   it('reports 10-fold stratified scores that validate against the schema, with knn far above baseline', async () => {
-    const r = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--json', '-', '--no-timing']);
+    const r = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--json', '-', '--no-timing', '--no-audit']);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     const report = JSON.parse(r.stdout) as Report;
@@ -139,6 +139,18 @@ describe('foldwise eval on the Palmer penguins file (vega-datasets; Gorman, Will
     // two rows have no body mass: forward plans need an order value in every row
     expect(f.code).toBe(2);
     expect(f.stderr).toMatch(/--order column "Body Mass \(g\)" is missing/);
+  });
+});
+
+describe('the quick audit before eval', () => {
+  it('warns about the id column of the bundled example, and --no-audit turns it off', async () => {
+    const args = ['eval', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--learner', 'knn', '--plan', 'kfold:3', '--json', '-', '--no-timing', '--jobs', '1'];
+    const on = await cli(args);
+    expect(on.code).toBe(0);
+    expect(on.stderr).toMatch(/warning: audit: id-like: "lot_id"/);
+    expect((JSON.parse(on.stdout) as Report).warnings.join(' ')).toMatch(/id-like: "lot_id"/);
+    const off = await cli([...args, '--no-audit']);
+    expect(off.stderr).not.toMatch(/audit:/);
   });
 });
 
