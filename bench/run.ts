@@ -9,6 +9,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/forest.js')).cases,
   ...(await import('./cases/knn.js')).cases,
   ...(await import('./cases/eval.js')).cases,
+  ...(await import('./cases/honesty.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

@@ -14,6 +14,7 @@ const code = await run(process.argv.slice(2), {
   stderr: process.stderr,
   stdin: process.stdin,
   env: process.env,
+  cwd: process.cwd(),
   interrupted: () => interrupted,
 });
 process.exitCode = code;

@@ -25,6 +25,7 @@ import { registerMerge } from './merge.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
+import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { runSplit } from './split.js';
@@ -34,6 +35,8 @@ export interface Io {
   readonly stderr: { write(text: string): unknown };
   readonly stdin?: Readable;
   readonly env?: Readonly<Record<string, string | undefined>>;
+  /** the working directory, which relative module: learner paths are resolved against */
+  readonly cwd?: string;
   /** true once the user asked to stop (SIGINT); the run then stops cleanly */
   readonly interrupted?: () => boolean;
 }
@@ -181,6 +184,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     shard,
     journal: flags.journal,
     stopRequested: io.interrupted,
+    baseDir: io.cwd ?? resolve('.'),
     progress: (done, total, resumed) => {
       if (resumed && !resumedNote) {
         resumedNote = `foldwise: resumed ${resumed} of ${total} tasks from the journal ${flags.journal}\n`;
@@ -269,6 +273,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerCompare(prog, io, setCode);
   registerGate(prog, io, setCode);
   registerAudit(prog, io, setCode);
+  registerRender(prog, io, setCode);
   registerMerge(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));

@@ -1,5 +1,12 @@
 /**
- * Learner specs as written on the command line: `NAME` or `NAME:key=value,key=value`.
+ * Learner specs as written on the command line:
+ * - built-in: `NAME` or `NAME:key=value,key=value` (NAME lower-case letters, digits, '-');
+ * - an ES module: `module:PATH` or `module:PATH;key=value,key=value`, PATH explicit (starting with
+ *   `./`, `../` or `/`; never a bare package name), options after the first ';';
+ * - reserved for external programs: `command:NAME` or `command:NAME;key=value,...` (parsed, but
+ *   no such learner exists yet, so `getLearner` refuses it with a clear message).
+ * The learner name of a module or command spec is everything before the ';' (`module:./x.js`),
+ * and that is the name `getLearner` resolves once the module is loaded (loadExternalLearners).
  * Every option is checked against the learner's declared ParamSpec before any fit, so a typo
  * fails at once with a message naming the option and its limit.
  */
@@ -14,28 +21,54 @@ export interface LearnerSpec {
   readonly options: readonly (readonly [string, string])[];
 }
 
-/** Splits `NAME:key=value,...` into a name and raw options; checks the shape only. */
+/** The prefixes of learners from outside foldwise. */
+export const EXTERNAL_KINDS = ['module', 'command'] as const;
+export type ExternalKind = (typeof EXTERNAL_KINDS)[number];
+
+/** 'module' or 'command' for a learner name such as `module:./x.js`, else undefined. */
+export function externalKind(name: string): ExternalKind | undefined {
+  return EXTERNAL_KINDS.find((k) => name.startsWith(`${k}:`));
+}
+
+function parseOptions(text: string, rest: string, sep: string): [string, string][] {
+  if (rest.trim() === '') throw new UsageError(`--learner "${text}": nothing after "${sep}"; write NAME alone or NAME${sep}key=value`);
+  const options: [string, string][] = [];
+  for (const part of rest.split(',')) {
+    const eq = part.indexOf('=');
+    const key = eq < 0 ? part.trim() : part.slice(0, eq).trim();
+    if (eq < 0 || key === '' || part.slice(eq + 1).trim() === '') {
+      throw new UsageError(`--learner "${text}": "${part}" is not key=value`);
+    }
+    if (options.some(([k]) => k === key)) throw new UsageError(`--learner "${text}": option "${key}" is given twice`);
+    options.push([key, part.slice(eq + 1).trim()]);
+  }
+  return options;
+}
+
+function parseExternal(text: string, t: string, kind: ExternalKind): LearnerSpec {
+  const semi = t.indexOf(';');
+  const head = semi < 0 ? t : t.slice(0, semi);
+  const target = head.slice(kind.length + 1);
+  if (kind === 'module' && !/^(\.\.?\/|\/)/.test(target)) {
+    throw new UsageError(`--learner "${text}": expected module:PATH with an explicit path starting with ./, ../ or /`);
+  }
+  if (kind === 'command' && !/^[a-z][a-z0-9-]*$/.test(target)) {
+    throw new UsageError(`--learner "${text}": expected command:NAME with a lower-case NAME`);
+  }
+  return { text: t, name: head, options: semi < 0 ? [] : parseOptions(text, t.slice(semi + 1), ';') };
+}
+
+/** Splits `NAME:key=value,...` (or `module:PATH;...`, `command:NAME;...`) into a name and raw options; checks the shape only. */
 export function parseLearnerSpec(text: string): LearnerSpec {
   const t = text.trim();
+  const kind = externalKind(t);
+  if (kind) return parseExternal(text, t, kind);
   const colon = t.indexOf(':');
   const name = colon < 0 ? t : t.slice(0, colon);
   if (!/^[a-z][a-z0-9-]*$/.test(name)) {
     throw new UsageError(`--learner "${text}": expected NAME or NAME:key=value,key=value with a lower-case NAME`);
   }
-  const options: [string, string][] = [];
-  if (colon >= 0) {
-    const rest = t.slice(colon + 1);
-    if (rest.trim() === '') throw new UsageError(`--learner "${text}": nothing after ":"; write NAME alone or NAME:key=value`);
-    for (const part of rest.split(',')) {
-      const eq = part.indexOf('=');
-      const key = eq < 0 ? part.trim() : part.slice(0, eq).trim();
-      if (eq < 0 || key === '' || part.slice(eq + 1).trim() === '') {
-        throw new UsageError(`--learner "${text}": "${part}" is not key=value`);
-      }
-      if (options.some(([k]) => k === key)) throw new UsageError(`--learner "${text}": option "${key}" is given twice`);
-      options.push([key, part.slice(eq + 1).trim()]);
-    }
-  }
+  const options = colon >= 0 ? parseOptions(text, t.slice(colon + 1), ':') : [];
   return { text: t, name, options };
 }
 
@@ -95,5 +128,5 @@ export function resolveParams(learner: Learner, spec: LearnerSpec, task: Task): 
 /** Canonical text of a learner with resolved params: options that differ from the defaults, in ParamSpec order. */
 export function formatSpec(learner: Learner, params: Params): string {
   const parts = learner.params.filter((p) => params[p.name] !== p.default).map((p) => `${p.name}=${params[p.name]}`);
-  return parts.length ? `${learner.name}:${parts.join(',')}` : learner.name;
+  return parts.length ? `${learner.name}${externalKind(learner.name) ? ';' : ':'}${parts.join(',')}` : learner.name;
 }

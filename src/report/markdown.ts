@@ -53,6 +53,45 @@ function describe(report: Report): string[] {
   ];
 }
 
+const signedNum = (v: number): string => (v > 0 ? `+${num(v)}` : num(v) === '-0.0000' ? num(0) : num(v));
+const pText = (p: number | null): string => (p === null ? '–' : p < 0.0001 ? '< 0.0001' : p.toFixed(4));
+
+/**
+ * The paired comparisons (src/compare/within-report.ts) as one compact table: difference =
+ * learner minus reference on the same folds, its corrected interval, corrected t with its
+ * two-sided p, the Wilcoxon p and the learner's wins/ties/losses over folds. Empty without them.
+ */
+function comparisonSection(report: Report): string[] {
+  const c = report.comparisons;
+  if (!c?.pairs.length) return [];
+  const rows = c.pairs.map((e) => [
+    cell(e.learner),
+    `${cell(e.reference)}${e.against.includes('best') ? ' (best)' : ''}`,
+    signedNum(e.diff),
+    e.ci95 ? `${signedNum(e.ci95[0])} to ${signedNum(e.ci95[1])}` : '–',
+    e.t === null ? (e.p === 0 ? (e.diff > 0 ? '∞' : '-∞') : '–') : e.t.toFixed(2),
+    pText(e.p),
+    pText(e.wilcoxon.p),
+    `${e.wins}/${e.ties}/${e.losses}`,
+  ]);
+  const counts = c.pairs.map((e) => e.folds);
+  const lo = Math.min(...counts);
+  const hi = Math.max(...counts);
+  const folds = lo === hi ? `${hi} paired folds` : `${lo} to ${hi} paired folds (a fold with an undefined score is left out)`;
+  return [
+    `## ${cell(c.metric)}: paired comparisons on the same folds`,
+    '',
+    table(
+      ['learner', 'vs', 'difference', '95% interval (corrected)', 't', 'p', 'Wilcoxon p', 'wins/ties/losses'],
+      ['l', 'l', 'r', 'r', 'r', 'r', 'r', 'r'],
+      rows,
+    ),
+    '',
+    `_difference = learner minus reference over ${folds} (${cell(c.metric)}: ${c.higherIsBetter ? 'higher' : 'lower'} is better); interval, t and p use the Nadeau-Bengio correction; the Wilcoxon test treats folds as independent, so its p is too small and only describes._`,
+    '',
+  ];
+}
+
 /** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
 export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
   const head = report.metrics[0];
@@ -70,6 +109,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
     ),
     '',
   );
+  out.push(...comparisonSection(report));
 
   if (report.metrics.length > 1) {
     out.push('## All metrics: mean over folds (pooled out-of-fold in brackets)', '');

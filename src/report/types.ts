@@ -3,6 +3,7 @@
  * shape; tests validate every report they make against it. A score that is undefined for a fold
  * (for example ROC AUC on a fold with one class) is null.
  */
+import type { ReportComparisons } from '../compare/types.js';
 import type { Params, Task } from '../learners/types.js';
 
 export interface ScoreSummary {
@@ -77,6 +78,8 @@ export interface Report {
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];
   readonly learners: readonly LearnerReport[];
+  /** paired comparisons of the learners on the headline metric (src/compare/within-report.ts); absent with one learner */
+  readonly comparisons?: ReportComparisons;
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */
   readonly timing?: {
     readonly totalMs: number;

@@ -18,6 +18,7 @@ import type { Target } from '../learners/types.js';
 import { confusionMatrix, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
+import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -269,5 +270,5 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
           },
         }),
   };
-  return report;
+  return withComparisons(report);
 }

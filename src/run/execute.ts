@@ -7,6 +7,7 @@
 import { performance } from 'node:perf_hooks';
 import type { Table } from '../data/types.js';
 import { FoldwiseError } from '../errors.js';
+import { loadExternalLearners } from '../learners/index.js';
 import type { Report } from '../report/types.js';
 import { assembleReport, frameOf, recordsOf } from './evaluate.js';
 import { identityOf } from './identity.js';
@@ -34,12 +35,15 @@ export interface ExecOptions {
   readonly progress?: (done: number, total: number, resumed: number) => void;
   /** when it returns true, no new task is started and the run stops with InterruptedError */
   readonly stopRequested?: () => boolean;
+  /** absolute folder that relative `module:` learner paths are resolved against */
+  readonly baseDir?: string;
 }
 
 export type ExecResult = { readonly kind: 'report'; readonly report: Report } | { readonly kind: 'partial'; readonly partial: PartialReport };
 
 export async function execute(table: Table, options: EvaluateOptions, exec: ExecOptions = {}): Promise<ExecResult> {
   const started = performance.now();
+  await loadExternalLearners(options.learners ?? [], exec.baseDir ?? '/');
   const prepared = withAudit(prepareRun(table, options), options);
   const all = taskList(prepared);
   const mine = exec.shard ? shardTasks(all, exec.shard) : all;
@@ -61,7 +65,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
     };
     const jobs = Math.max(1, Math.floor(exec.jobs ?? 1));
     if (jobs > 1 && todo.length > 1) {
-      await runPool(table, options, todo, jobs, done, exec.stopRequested);
+      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/');
     } else {
       runTasks(prepared, todo, done, exec.stopRequested);
     }

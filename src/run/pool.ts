@@ -42,6 +42,7 @@ export async function runPool(
   jobs: number,
   done?: (r: TaskResult) => void,
   stopRequested?: () => boolean,
+  baseDir = '/',
 ): Promise<TaskResult[]> {
   const queue = batches(tasks);
   const results: TaskResult[] = [];
@@ -63,7 +64,7 @@ export async function runPool(
         w.postMessage(batch);
       };
       for (let i = 0; i < count; i++) {
-        const w = new Worker(workerUrl(), { workerData: { table: shared, options } });
+        const w = new Worker(workerUrl(), { workerData: { table: shared, options, baseDir } });
         workers.push(w);
         running++;
         w.on('message', (msg: { results?: TaskResult[]; error?: string; exitCode?: number }) => {

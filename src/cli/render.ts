@@ -1,0 +1,81 @@
+/**
+ * `foldwise render REPORT.json --html OUT.html`: turns a JSON file written by foldwise into one
+ * self-contained HTML page (src/report/html): an eval report (format foldwise-report/1, read
+ * and validated as compare and gate read it) or a gate verdict (format foldwise-gate/1,
+ * validated against schema/gate.schema.json). `--html -` writes the page to standard output.
+ * Exit codes: 0 written, 2 bad input or usage.
+ */
+import { Ajv, type ValidateFunction } from 'ajv';
+import type { Command } from 'commander';
+import { readFileSync } from 'node:fs';
+import { readReport, schemaPath } from '../compare/read-report.js';
+import type { GateVerdict } from '../compare/types.js';
+import { EXIT_OK, InputError } from '../errors.js';
+import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { renderEvalHtml, renderGateHtml } from '../report/html/index.js';
+import { REPORT_SCHEMA } from '../version.js';
+import type { Io } from './run.js';
+
+const GATE_SCHEMA = 'foldwise-gate/1';
+
+interface RenderFlags {
+  html: string;
+}
+
+let gateValidator: ValidateFunction | undefined;
+function validateGate(): ValidateFunction {
+  gateValidator ??= new Ajv({ allErrors: false, strict: true, allowUnionTypes: true }).compile(JSON.parse(readFileSync(schemaPath('gate.schema.json'), 'utf8')) as object);
+  return gateValidator;
+}
+
+const oneLine = (s: string, max: number): string => {
+  const t = s.replace(/\s+/g, ' ').trim();
+  return t.length > max ? `${t.slice(0, max)}…` : t;
+};
+
+/** The HTML page of the foldwise JSON file at `path`. */
+export function renderFile(path: string): string {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    throw new InputError(`render ${path}: cannot be read (${(e as NodeJS.ErrnoException).code ?? 'error'}); give a JSON file written by foldwise eval --json or foldwise gate --json`);
+  }
+  let value: unknown;
+  try {
+    value = JSON.parse(text.replace(/^\uFEFF/, ''));
+  } catch (e) {
+    throw new InputError(`render ${path}: not JSON (${oneLine((e as Error).message, 100)}); give a file written by foldwise eval --json or foldwise gate --json`);
+  }
+  const schema = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as { schema?: unknown }).schema : undefined;
+  if (schema === REPORT_SCHEMA) return renderEvalHtml(readReport(path, 'render').report);
+  if (schema === GATE_SCHEMA) {
+    const validate = validateGate();
+    if (!validate(value)) {
+      const err = validate.errors?.[0];
+      throw new InputError(`render ${path}: not a valid ${GATE_SCHEMA} verdict (at ${oneLine(err?.instancePath || '/', 60)}: ${oneLine(err?.message ?? 'invalid', 80)})`);
+    }
+    return renderGateHtml(value as GateVerdict);
+  }
+  throw new InputError(
+    `render ${path}: not a file foldwise can render (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}; expected "${REPORT_SCHEMA}" from eval --json or "${GATE_SCHEMA}" from gate --json)`,
+  );
+}
+
+async function runRender(path: string, flags: RenderFlags, io: Io): Promise<number> {
+  if (flags.html !== '-') checkWritable(flags.html, '--html');
+  const html = renderFile(path);
+  if (flags.html === '-') io.stdout.write(html);
+  else writeFileAtomic(flags.html, html, '--html');
+  return EXIT_OK;
+}
+
+export function registerRender(prog: Command, io: Io, setCode: (code: number) => void): void {
+  prog
+    .command('render')
+    .description('write a self-contained HTML page with charts of an eval report or a gate verdict')
+    .argument('<report>', 'JSON file written by foldwise eval --json or foldwise gate --json')
+    .requiredOption('--html <file>', 'the HTML file to write, or - for standard output')
+    .option('--verbose', 'print stack traces of errors')
+    .action(async (path: string, flags: RenderFlags) => setCode(await runRender(path, flags, io)));
+}

@@ -1,0 +1,141 @@
+/**
+ * The gate on two eval reports: the baseline (committed) and the current run.
+ *
+ * Steps, each refusing with exit code 2 (InputError / UsageError) when it cannot go on:
+ * 1. The reports must measure the same thing (match-reports.ts): same data.sha256, rowsUsed,
+ *    target, task, metric set, group and order. A difference in plan.text, plan.seed or
+ *    plan.stratified only means other folds: the unpaired rule is used, and labelled.
+ * 2. The metric (--metric, default the baseline's headline) and the learner: --learner SPEC in
+ *    both reports, or by default the baseline report's best learner on that metric, leaving out
+ *    the baseline learner unless it is the only one; --current-learner SPEC names a different
+ *    learner in the current report (e.g. after an option change).
+ * 3. Every fold of both learners must have a score of the metric: a report with any null fold
+ *    score (a failed fold, or a metric undefined on a fold) is not comparable, since dropping
+ *    folds on one side would bias the comparison.
+ * 4. Same folds (every (repeat, fold) on both sides with equal sizes): the paired rule;
+ *    otherwise the unpaired rule (gate-rule.ts). At least 2 folds per run.
+ * 5. --absolute-min X: also fail when the current mean is worse than X in the metric's better
+ *    direction (below X when higher is better, above X when lower is better).
+ * The verdict is "fail" when the rule finds a regression or the floor is not met.
+ */
+import { UsageError, InputError } from '../errors.js';
+import { getMetric } from '../metrics/index.js';
+import type { LearnerReport } from '../report/types.js';
+import { foldScore, pairFolds } from './pair-folds.js';
+import { describeDifferences, NotComparableError, reportDifferences, versionWarning } from './match-reports.js';
+import type { LoadedReport } from './read-report.js';
+import { baselineOf, bestBy, findLearner } from './select.js';
+import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest } from './gate-rule.js';
+import type { GateVerdict } from './types.js';
+
+export const GATE_SCHEMA = 'foldwise-gate/1';
+export const DEFAULT_MAX_DROP = 0;
+export const DEFAULT_ALPHA = 0.05;
+
+export interface GateOptions {
+  readonly metric?: string;
+  readonly learner?: string;
+  readonly currentLearner?: string;
+  readonly maxDrop?: number;
+  readonly alpha?: number;
+  readonly absoluteMin?: number;
+}
+
+/** Every fold score of the metric, or an InputError naming the file and the folds without one. */
+function allScores(side: LoadedReport, learner: LearnerReport, metric: string): number[] {
+  const missing = learner.folds.filter((f) => foldScore(f, metric) === null);
+  if (missing.length) {
+    const list = missing.slice(0, 3).map((f) => `repeat ${f.repeat + 1} fold ${f.fold + 1}`).join(', ');
+    throw new InputError(
+      `gate: ${side.path}: ${learner.spec} has no ${metric} score in ${missing.length} of ${learner.folds.length} folds (${list}${missing.length > 3 ? ', …' : ''}); a report with failed or undefined folds is not comparable`,
+    );
+  }
+  return learner.folds.map((f) => foldScore(f, metric) as number);
+}
+
+function meanRows(l: LearnerReport): { testRows: number; trainRows: number } {
+  const n = l.folds.length;
+  return { testRows: l.folds.reduce((s, f) => s + f.testRows, 0) / n, trainRows: l.folds.reduce((s, f) => s + f.trainRows, 0) / n };
+}
+
+export function gateReports(base: LoadedReport, cur: LoadedReport, options: GateOptions = {}): GateVerdict {
+  const maxDrop = options.maxDrop ?? DEFAULT_MAX_DROP;
+  const alpha = options.alpha ?? DEFAULT_ALPHA;
+  checkGateRuleOptions({ higherIsBetter: true, maxDrop, alpha });
+  if (options.absoluteMin !== undefined && !Number.isFinite(options.absoluteMin)) {
+    throw new UsageError(`--absolute-min ${options.absoluteMin}: expected a finite number, in the metric's units`);
+  }
+  const b = base.report;
+  const c = cur.report;
+  const differences = reportDifferences(b, c);
+  if (differences.some((d) => d.kind === 'data')) throw new NotComparableError('gate', differences);
+
+  const metric = options.metric ?? b.metrics[0];
+  if (!b.metrics.includes(metric)) {
+    throw new UsageError(`--metric ${metric}: the reports do not score it (they score ${b.metrics.join(', ')})`);
+  }
+  const higherIsBetter = getMetric(metric).higherIsBetter;
+
+  let bl: LearnerReport;
+  if (options.learner !== undefined) bl = findLearner(b, options.learner, '--learner', `the baseline report ${base.path}`);
+  else {
+    const baseLearner = baselineOf(b);
+    const pick = bestBy(b, metric, higherIsBetter, (l) => l !== baseLearner) ?? bestBy(b, metric, higherIsBetter);
+    if (!pick) throw new InputError(`gate: ${base.path}: no learner has a ${metric} score`);
+    bl = pick;
+  }
+  const cl = findLearner(c, options.currentLearner ?? bl.spec, options.currentLearner !== undefined ? '--current-learner' : '--learner', `the current report ${cur.path}`);
+
+  const bs = allScores(base, bl, metric);
+  const cs = allScores(cur, cl, metric);
+  const warnings: string[] = [];
+  const vw = versionWarning(b, c);
+  if (vw) warnings.push(vw);
+  const ruleOptions = { higherIsBetter, maxDrop, alpha };
+
+  let test: GateTest;
+  let unpairedBecause: string[] = differences.map((d) => describeDifferences([d]));
+  if (differences.length === 0) {
+    const paired = pairFolds(bl, cl, metric);
+    if (paired.unmatched === 0 && !paired.sizeMismatch && paired.correction) {
+      test = pairedGateTest(paired.a, paired.b, paired.correction, ruleOptions);
+    } else {
+      const why = paired.sizeMismatch
+        ? `fold sizes (repeat ${paired.sizeMismatch.key.repeat + 1} fold ${paired.sizeMismatch.key.fold + 1}: train/test ${paired.sizeMismatch.a} vs ${paired.sizeMismatch.b})`
+        : `fold lists (${paired.unmatched} folds on one side only)`;
+      unpairedBecause = [`${why}, although the plans match`];
+      test = unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
+    }
+  } else {
+    test = unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
+  }
+
+  const floorFailed =
+    options.absoluteMin !== undefined && (higherIsBetter ? test.currentMean < options.absoluteMin : test.currentMean > options.absoluteMin);
+  const reasons: ('regression' | 'floor')[] = [];
+  if (test.regression) reasons.push('regression');
+  if (floorFailed) reasons.push('floor');
+  return {
+    schema: GATE_SCHEMA,
+    verdict: reasons.length ? 'fail' : 'pass',
+    reasons,
+    improvement: test.improvement,
+    metric,
+    higherIsBetter,
+    baseline: { path: base.path, learner: bl.spec, folds: test.baselineFolds, mean: test.baselineMean },
+    current: { path: cur.path, learner: cl.spec, folds: test.currentFolds, mean: test.currentMean },
+    rule: test.rule,
+    unpairedBecause: test.rule === 'paired' ? [] : unpairedBecause,
+    change: test.change,
+    ci95: test.ci95,
+    drop: test.drop,
+    dropBound: test.dropBound,
+    maxDrop,
+    alpha,
+    t: test.t,
+    df: test.df,
+    p: test.p,
+    absoluteMin: options.absoluteMin ?? null,
+    warnings,
+  };
+}

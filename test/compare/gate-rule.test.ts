@@ -1,0 +1,128 @@
+import jStat from 'jstat';
+import { describe, expect, it } from 'vitest';
+import { pairedGateTest, unpairedGateTest } from '../../src/compare/gate-rule.js';
+import { InputError, UsageError } from '../../src/errors.js';
+
+const FIVE_FOLD = { testRows: 20, trainRows: 80 }; // testRows/trainRows = 1/4
+const higher = (alpha: number, maxDrop = 0) => ({ higherIsBetter: true, alpha, maxDrop });
+
+describe('pairedGateTest: H0 "drop <= max-drop", one-sided corrected t (Nadeau & Bengio 2003)', () => {
+  // Hand derivation: baseline b and current c = b - d on 5 folds, drop d_j = b_j - c_j:
+  //   d = 0.03 0.01 0.02 0.04 0.00, mean 0.02, s_d^2 = 0.00025 (deviations 1 -1 0 2 -2 hundredths)
+  //   SE = sqrt((1/5 + 1/4) * 0.00025) = sqrt(0.0001125) = 0.0106066, df = 4
+  //   max-drop 0:     t = 0.02 / 0.0106066 = 1.885618
+  //   max-drop 0.005: t = 0.015 / 0.0106066 = 1.414214
+  //   NIST t table (e-Handbook 1.3.6.7.2): t_{4,0.95} = 2.132, t_{4,0.90} = 1.533
+  //   -> at alpha 0.05 no rejection (pass); at alpha 0.10 rejection (fail) for max-drop 0 but
+  //      not for max-drop 0.005; the one-sided 90% bound of the drop is 0.02 - 1.533 * 0.0106066
+  //      = 0.003740. (The uncorrected t, 0.02 / sqrt(0.00025/5) = 2.828, would fail at 0.05.)
+  const b = [0.8, 0.82, 0.78, 0.84, 0.81];
+  const d = [0.03, 0.01, 0.02, 0.04, 0];
+  const c = b.map((x, i) => x - d[i]);
+  const se = Math.sqrt(0.0001125);
+
+  it('passes at alpha 0.05 and fails at alpha 0.10, as the hand derivation says', () => {
+    const at05 = pairedGateTest(b, c, FIVE_FOLD, higher(0.05));
+    expect(at05.rule).toBe('paired');
+    expect(Math.abs(at05.drop - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(at05.change + 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(at05.t! - 1.885618)).toBeLessThan(1e-5);
+    expect(at05.df).toBe(4);
+    expect(at05.regression).toBe(false);
+    // one-sided p from jstat's Student t: P(T_4 >= 1.885618)
+    expect(Math.abs(at05.p - (1 - jStat.studentt.cdf(1.885618, 4)))).toBeLessThan(1e-6);
+    const at10 = pairedGateTest(b, c, FIVE_FOLD, higher(0.1));
+    expect(at10.regression).toBe(true);
+    expect(Math.abs(at10.dropBound - (0.02 - 1.533 * se))).toBeLessThan(2e-4);
+    expect(at10.improvement).toBe(false);
+  });
+
+  it('tests the drop against max-drop, not against zero', () => {
+    const r = pairedGateTest(b, c, FIVE_FOLD, higher(0.1, 0.005));
+    expect(Math.abs(r.t! - 1.414214)).toBeLessThan(1e-5);
+    expect(r.regression).toBe(false);
+    // p is P(T_4 >= t) at the shifted statistic (jstat)
+    expect(Math.abs(r.p - (1 - jStat.studentt.cdf(1.414214, 4)))).toBeLessThan(1e-6);
+    // the bound does not depend on max-drop; the decision is "bound > max-drop"
+    expect(Math.abs(r.dropBound - pairedGateTest(b, c, FIVE_FOLD, higher(0.1)).dropBound)).toBeLessThan(1e-12);
+  });
+
+  it('reads the drop in the better direction for lower-is-better metrics', () => {
+    const up = b.map((x, i) => x + d[i]); // an error metric that rose: worse
+    const r = pairedGateTest(b, up, FIVE_FOLD, { higherIsBetter: false, alpha: 0.1, maxDrop: 0 });
+    expect(Math.abs(r.drop - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.change - 0.02)).toBeLessThan(1e-12);
+    expect(r.regression).toBe(true);
+  });
+
+  it('reports an improvement by the same one-sided test on the gain', () => {
+    const r = pairedGateTest(c, b, FIVE_FOLD, higher(0.1));
+    expect(Math.abs(r.drop + 0.02)).toBeLessThan(1e-12);
+    expect(r.regression).toBe(false);
+    expect(r.improvement).toBe(true);
+    expect(pairedGateTest(c, b, FIVE_FOLD, higher(0.05)).improvement).toBe(false);
+  });
+
+  it('with zero spread fails exactly when the known drop exceeds max-drop', () => {
+    const base = [0.8, 0.8, 0.8];
+    const cur = [0.7, 0.7, 0.7];
+    const fail = pairedGateTest(base, cur, FIVE_FOLD, higher(0.05));
+    expect(fail).toMatchObject({ regression: true, t: null, p: 0 });
+    const pass = pairedGateTest(base, cur, FIVE_FOLD, higher(0.05, 0.2));
+    expect(pass).toMatchObject({ regression: false, t: null, p: 1 });
+    const same = pairedGateTest(base, base, FIVE_FOLD, higher(0.05));
+    expect(same).toMatchObject({ regression: false, improvement: false, drop: 0, change: 0 });
+  });
+
+  it('refuses bad options and too few folds', () => {
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, higher(0.5))).toThrow(UsageError);
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, higher(0))).toThrow('--alpha 0');
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, higher(0.05, -0.01))).toThrow('--max-drop -0.01');
+    expect(() => pairedGateTest([0.8], [0.7], FIVE_FOLD, higher(0.05))).toThrow(InputError);
+  });
+});
+
+describe('unpairedGateTest: Welch test with a Nadeau-Bengio corrected variance on each side', () => {
+  it('matches the hand derivation with equal variances (Welch df = 2(J-1))', () => {
+    // b = 0.80 0.82 0.78 0.84 0.81 (mean 0.81), c = b - 0.02 (mean 0.79); deviations in
+    // hundredths -1 1 -3 3 0, squares sum 20 -> s^2 = 0.0005 on both sides
+    // V = (1/5 + 1/4) * 0.0005 = 0.000225 each; SE = sqrt(0.00045) = 0.0212132
+    // Welch-Satterthwaite df (NIST e-Handbook 1.3.5.3) = 0.00045^2 / (2 * 0.000225^2 / 4) = 8
+    // t = 0.02 / 0.0212132 = 0.942809 < t_{8,0.95} = 1.860 (NIST t table): pass
+    const b = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const c = [0.78, 0.8, 0.76, 0.82, 0.79];
+    const r = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05));
+    expect(r.rule).toBe('unpaired');
+    expect(Math.abs(r.drop - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.df - 8)).toBeLessThan(1e-9);
+    expect(Math.abs(r.t! - 0.942809)).toBeLessThan(1e-5);
+    expect(r.regression).toBe(false);
+    // one-sided p and the 95% interval from jstat's Student t with 8 df
+    expect(Math.abs(r.p - (1 - jStat.studentt.cdf(0.942809, 8)))).toBeLessThan(1e-6);
+    const half = jStat.studentt.inv(0.975, 8) * Math.sqrt(0.00045);
+    expect(Math.abs(r.ci95[0] - (-0.02 - half))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95[1] - (-0.02 + half))).toBeLessThan(1e-9);
+  });
+
+  it('matches the hand derivation with unequal variances (df = 100/17)', () => {
+    // c = 0.77 0.81 0.73 0.85 0.79 (mean 0.79): deviations -2 2 -6 6 0 hundredths, s^2 = 0.0080/4 = 0.002
+    // V_b = 0.000225, V_c = 0.45 * 0.002 = 0.0009, sum 0.001125
+    // df = 0.001125^2 / ((0.000225^2 + 0.0009^2) / 4) = 1.265625e-6 / 2.1515625e-7 = 100/17
+    // t = 0.02 / sqrt(0.001125) = 0.596285
+    const b = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const c = [0.77, 0.81, 0.73, 0.85, 0.79];
+    const r = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05));
+    expect(Math.abs(r.df - 100 / 17)).toBeLessThan(1e-9);
+    expect(Math.abs(r.t! - 0.596285)).toBeLessThan(1e-5);
+    expect(Math.abs(r.p - (1 - jStat.studentt.cdf(0.596285, 100 / 17)))).toBeLessThan(1e-6);
+  });
+
+  it('fails on a large drop and handles zero spread on both sides', () => {
+    const b = [0.9, 0.91, 0.89, 0.9, 0.92];
+    const c = [0.6, 0.62, 0.58, 0.61, 0.6];
+    expect(unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05)).regression).toBe(true);
+    expect(unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, 0.5)).regression).toBe(false);
+    const flat = unpairedGateTest([0.8, 0.8], FIVE_FOLD, [0.7, 0.7], FIVE_FOLD, higher(0.05));
+    expect(flat).toMatchObject({ regression: true, t: null, p: 0 });
+  });
+});

@@ -1,0 +1,92 @@
+import jStat from 'jstat';
+import { describe, expect, it } from 'vitest';
+import { pairedStats, directionOf } from '../../src/compare/paired-stats.js';
+import { InputError } from '../../src/errors.js';
+
+// 5-fold plan: each model trains on 4/5 of the rows and is tested on 1/5, testRows/trainRows = 1/4
+const FIVE_FOLD = { testRows: 20, trainRows: 80 };
+
+describe('pairedStats: one learner against a reference on the same folds', () => {
+  // Hand derivation (5 folds), d_j = learner_j - reference_j:
+  //   d = 0.03 0.01 0.02 0.04 0.00, mean 0.02; deviations in hundredths 1 -1 0 2 -2, squares
+  //   sum 10 -> s_d^2 = 0.0010 / 4 = 0.00025
+  //   Nadeau-Bengio variance (1/5 + 1/4) s_d^2 = 0.45 * 0.00025 = 0.0001125, SE = 0.0106066
+  //   t = 0.02 / 0.0106066 = 1.885618, df = 4
+  //   NIST t table (e-Handbook 1.3.6.7.2): t_{4,0.95} = 2.132, t_{4,0.975} = 2.776, so the
+  //   two-sided p lies between 0.10 and 0.20; interval 0.02 +/- 2.776 * 0.0106066 = [-0.00944, 0.04944]
+  //   (the uncorrected paired t, 0.02 / sqrt(0.00025/5) = 2.828, would pass 2.776)
+  //   Wilcoxon: the zero is dropped, n = 4, all positive: T+ = 1+2+3+4 = 10, exact two-sided
+  //   p = 2 * (1/2)^4 = 0.125 (Wilcoxon 1945; only one sign pattern of 4 ranks gives T+ = 10)
+  const reference = [0.8, 0.82, 0.78, 0.84, 0.81];
+  const d = [0.03, 0.01, 0.02, 0.04, 0];
+  const learner = reference.map((r, i) => r + d[i]);
+
+  it('matches the hand-derived corrected t, interval, Wilcoxon figures and fold counts', () => {
+    const s = pairedStats(learner, reference, FIVE_FOLD, true);
+    expect(s.folds).toBe(5);
+    expect(Math.abs(s.diff - 0.02)).toBeLessThan(1e-12);
+    expect(s.direction).toBe('better');
+    expect(s.df).toBe(4);
+    expect(Math.abs(s.t! - 1.885618)).toBeLessThan(1e-5);
+    expect(s.p!).toBeGreaterThan(0.1);
+    expect(s.p!).toBeLessThan(0.2);
+    const half = 2.776 * Math.sqrt(0.0001125);
+    expect(Math.abs(s.ci95![0] - (0.02 - half))).toBeLessThan(1e-4);
+    expect(Math.abs(s.ci95![1] - (0.02 + half))).toBeLessThan(1e-4);
+    expect(s.wilcoxon).toMatchObject({ n: 4, tPlus: 10, tMinus: 0, method: 'exact' });
+    expect(Math.abs(s.wilcoxon.p - 0.125)).toBeLessThan(1e-12);
+    expect([s.wins, s.ties, s.losses]).toEqual([4, 1, 0]);
+    expect(Math.abs(s.learnerMean - 0.83)).toBeLessThan(1e-12);
+    expect(Math.abs(s.referenceMean - 0.81)).toBeLessThan(1e-12);
+    expect([s.testRows, s.trainRows]).toEqual([20, 80]);
+  });
+
+  it("gives the two-sided p of jstat's Student t at the hand-derived t", () => {
+    const s = pairedStats(learner, reference, FIVE_FOLD, true);
+    // jstat (npm), the reference t distribution: p = 2 P(T_4 <= -1.885618)
+    expect(Math.abs(s.p! - 2 * jStat.studentt.cdf(-1.885618, 4))).toBeLessThan(1e-6);
+  });
+
+  it('keeps diff in the metric units and flips only direction and wins for a lower-is-better metric', () => {
+    const s = pairedStats(learner, reference, FIVE_FOLD, false);
+    expect(Math.abs(s.diff - 0.02)).toBeLessThan(1e-12);
+    expect(s.direction).toBe('worse');
+    expect([s.wins, s.ties, s.losses]).toEqual([0, 1, 4]);
+    expect(Math.abs(s.t! - 1.885618)).toBeLessThan(1e-5);
+  });
+
+  it('reproduces Hollander & Wolfe Example 3.1 with learner = x, reference = y: T+ = 40, exact p = 0.0391', () => {
+    // Hollander & Wolfe, Nonparametric Statistical Methods, Example 3.1 (Hamilton depression
+    // scale, first and second visit): T+ = 40, exact two-sided p = 0.0391 (book value)
+    const x = [1.83, 0.5, 1.62, 2.48, 1.68, 1.88, 1.55, 3.06, 1.3];
+    const y = [0.878, 0.647, 0.598, 2.05, 1.06, 1.29, 1.06, 3.14, 1.29];
+    const s = pairedStats(x, y, { testRows: 1, trainRows: 8 }, true);
+    expect(s.wilcoxon.tPlus).toBe(40);
+    expect(s.wilcoxon.tMinus).toBe(5);
+    expect(Math.abs(s.wilcoxon.p - 0.0391)).toBeLessThan(5e-5);
+    // signs of x - y (computed by hand): 7 positive, 2 negative (0.5 - 0.647, 3.06 - 3.14)
+    expect([s.wins, s.ties, s.losses]).toEqual([7, 0, 2]);
+  });
+
+  it('reports no t, df, p or interval for a single fold, and null t with p = 0 when every difference is the same', () => {
+    const one = pairedStats([0.9], [0.8], FIVE_FOLD, true);
+    expect(one.ci95).toBeNull();
+    expect(one.t).toBeNull();
+    expect(one.df).toBeNull();
+    expect(one.p).toBeNull();
+    expect(Math.abs(one.diff - 0.1)).toBeLessThan(1e-12);
+    const same = pairedStats([0.75, 0.5, 0.25], [0.5, 0.25, 0], FIVE_FOLD, true);
+    expect(same.t).toBeNull();
+    expect(same.p).toBe(0);
+    expect(same.ci95).toEqual([0.25, 0.25]);
+    const equal = pairedStats([0.5, 0.25], [0.5, 0.25], FIVE_FOLD, true);
+    expect(equal).toMatchObject({ diff: 0, direction: 'equal', t: 0, p: 1, ties: 2 });
+  });
+
+  it('refuses series that do not pair up or are empty', () => {
+    expect(() => pairedStats([1, 2], [1], FIVE_FOLD, true)).toThrow(InputError);
+    expect(() => pairedStats([], [], FIVE_FOLD, true)).toThrow('need at least 1 paired score');
+    expect(directionOf(-0.1, false)).toBe('better');
+    expect(directionOf(0, true)).toBe('equal');
+  });
+});

@@ -1,0 +1,46 @@
+/**
+ * Safety of the HTML report: column names, class labels and the file path are data, and data
+ * must never become markup. A CSV whose headers and labels hold <script>, quotes, & and </svg>
+ * (and attempts to open event-handler attributes) goes through eval and render in-process; the
+ * page must contain no executable markup: no <script, no on...= attribute in any tag, no
+ * javascript: anywhere, and exactly as many </svg> as <svg> openings. The hostile text itself
+ * must still be on the page, escaped (HTML Living Standard 13.1.4; OWASP XSS Prevention Cheat
+ * Sheet rules 1-2). The rows are seeded synthetic data for this check only.
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { esc } from '../../src/report/html/escape.js';
+import type { Report } from '../../src/report/types.js';
+import { cli } from '../helpers/cli.js';
+import { tempFolder } from '../helpers/tmp.js';
+import { expectNoExecutableMarkup, HOSTILE_CLASSES, HOSTILE_FEATURES, HOSTILE_GROUP, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
+
+describe('hostile column names, class labels and file name', async () => {
+  const tmp = tempFolder();
+  const data = tmp.file('data<b>&"x.csv', hostileCsv());
+  const json = join(tmp.dir, 'r.json');
+  const html = join(tmp.dir, 'r.html');
+  const e = await cli(['eval', data, '--target', HOSTILE_TARGET, '--group', HOSTILE_GROUP, '--learner', 'knn', '--plan', 'kfold:4', '--no-timing', '--quiet', '--jobs', '1', '--json', json]);
+  const r = await cli(['render', json, '--html', html]);
+  const page = r.code === 0 ? readFileSync(html, 'utf8') : '';
+  const report = e.code === 0 ? (JSON.parse(readFileSync(json, 'utf8')) as Report) : undefined;
+
+  it('runs eval and render on such data', () => {
+    expect(e.code).toBe(0);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(report!.data.features).toEqual(HOSTILE_FEATURES);
+    expect(new Set(report!.data.classes)).toEqual(new Set(HOSTILE_CLASSES));
+  });
+
+  it('writes no executable markup', () => {
+    expectNoExecutableMarkup(page);
+  });
+
+  it('still shows every hostile text, escaped', () => {
+    for (const t of [...HOSTILE_CLASSES, HOSTILE_TARGET, HOSTILE_GROUP, 'data<b>&"x.csv']) expect(page).toContain(esc(t));
+    for (const t of report!.data.features) expect(page).toContain(esc(t));
+    expect(report!.data.features.length).toBe(4);
+  });
+});
