@@ -5,7 +5,7 @@
 // written out in README.md beside this file; the constants below are the same rules.
 //
 // Plain Node ESM, no dependencies. Randomness comes from mulberry32 (a small public-domain
-// 32-bit generator by Tommy Ettinger) with a fixed seed, so every run writes the same bytes.
+// 32-bit generator by Tommy Ettinger, from memory) with a fixed seed, so every run writes the same bytes.
 //
 // Usage: node examples/packhouse/generate.mjs   (prints class and missing-value counts)
 
@@ -72,15 +72,15 @@ const clamp = (x, lo, hi) => Math.min(hi, Math.max(lo, x));
 // eye for that orchard's lots). "Fennick Hill, Lower" carries a comma on purpose, so the file
 // has quoted fields.
 const ORCHARDS = [
-  { name: 'Hollow Creek', share: 18, firmShift: 2.0, spotRate: 1.0, leniency: 1.0 },
+  { name: 'Hollow Creek', share: 18, firmShift: 1.5, spotRate: 1.1, leniency: 1.0 },
   { name: 'Marl Ridge', share: 14, firmShift: 0.5, spotRate: 1.2, leniency: -0.5 },
-  { name: "Tanner's Bend", share: 12, firmShift: -1.0, spotRate: 1.6, leniency: 0.5 },
+  { name: "Tanner's Bend", share: 12, firmShift: -1.0, spotRate: 1.4, leniency: 0.5 },
   { name: 'Fennick Hill, Lower', share: 11, firmShift: 0.0, spotRate: 1.3, leniency: 0.0 },
-  { name: 'Low Copse', share: 10, firmShift: -2.5, spotRate: 1.9, leniency: -1.0 },
-  { name: 'Stillwater Rows', share: 9, firmShift: 2.5, spotRate: 0.9, leniency: 0.0 },
-  { name: 'Grayling Flats', share: 8, firmShift: -0.5, spotRate: 1.4, leniency: 1.5 },
-  { name: 'Ashcombe Terrace', share: 7, firmShift: 1.0, spotRate: 1.1, leniency: -1.5 },
-  { name: 'Pellworth', share: 6, firmShift: -1.5, spotRate: 1.7, leniency: 0.5 },
+  { name: 'Low Copse', share: 10, firmShift: -1.5, spotRate: 1.6, leniency: -1.0 },
+  { name: 'Stillwater Rows', share: 9, firmShift: 1.5, spotRate: 1.0, leniency: 0.0 },
+  { name: 'Grayling Flats', share: 8, firmShift: -0.5, spotRate: 1.3, leniency: 1.5 },
+  { name: 'Ashcombe Terrace', share: 7, firmShift: 1.0, spotRate: 1.2, leniency: -1.5 },
+  { name: 'Pellworth', share: 6, firmShift: -1.0, spotRate: 1.5, leniency: 0.5 },
   { name: 'North Wicket', share: 5, firmShift: 0.0, spotRate: 1.3, leniency: -0.5 },
 ];
 
@@ -94,9 +94,12 @@ const VARIETIES = [
 ];
 
 // Season: 2023-08-21 to 2023-10-29 (70 days). Picking is busiest mid-season.
-const SEASON_START = Date.UTC(2023, 7, 21);
 const SEASON_DAYS = 70;
-const DAY_MS = 86400000;
+const SEASON_MONTHS = [
+  { month: '2023-08', from: 21, days: 31 },
+  { month: '2023-09', from: 1, days: 30 },
+  { month: '2023-10', from: 1, days: 31 },
+];
 
 // ---------------------------------------------------------------- grading rules
 
@@ -104,7 +107,7 @@ const DAY_MS = 86400000;
 // which carry measurement error. So the rules below are sharp on the actual values but blurred
 // on the readings, and no model can be perfect. Orchards also differ slightly in how strictly
 // their lots are graded (a shift of the firmness cut, in newtons).
-const READ_SD = { firmness: 2, brix: 0.25, blush: 4, weight: 1 };
+const READ_SD = { firmness: 1.5, brix: 0.2, blush: 3, weight: 1 };
 const REJECT_SPOTS = 7; // this many blemishes or more: reject
 const REJECT_FIRMNESS_N = 44; // softer than this: reject
 const HIDDEN_DEFECT_RATE = 0.012; // bruise or puncture no sensor sees: reject
@@ -131,8 +134,15 @@ function gradeOf(fruit, orchard) {
 
 // ---------------------------------------------------------------- rows
 
+/** ISO date of a day of the season, by plain calendar arithmetic (no clock involved). */
 function isoDate(dayIndex) {
-  return new Date(SEASON_START + dayIndex * DAY_MS).toISOString().slice(0, 10);
+  let left = dayIndex;
+  for (const m of SEASON_MONTHS) {
+    const inMonth = m.days - m.from + 1;
+    if (left < inMonth) return `${m.month}-${String(m.from + left).padStart(2, '0')}`;
+    left -= inMonth;
+  }
+  throw new Error(`day ${dayIndex} is past the season`);
 }
 
 /** Day of the season: a hump-shaped draw (mean of two uniforms) over 0..SEASON_DAYS-1. */
@@ -150,7 +160,7 @@ function makeLot() {
   // Diameter follows the cube root of weight (a near-sphere of fixed density), plus noise.
   const diameter = 12.6 * Math.cbrt(weight) + normal(0, 1.3);
   // Later picks are softer, sweeter and more blushed; spots rise a little late in the season.
-  const firmness = clamp(normal(variety.firmness - 7 * t + orchard.firmShift, 8), 25, 95);
+  const firmness = clamp(normal(variety.firmness - 10 * t + orchard.firmShift, 8), 25, 95);
   const brix = clamp(normal(variety.brix + 0.9 * t, 1.2), 8, 19);
   const blush = clamp(normal(variety.blush + 8 * t, 15), 0, 100);
   const spots = poisson(orchard.spotRate * (0.8 + 0.5 * t));

@@ -20,7 +20,8 @@ describe('the foldwise executable', () => {
     const tmp = tempFolder();
     const out = join(tmp.dir, 'r.json');
     const r = run(['eval', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--drop', 'lot_id', '--learner', 'knn', '--plan', 'kfold:3', '--json', out, '--no-timing']);
-    expect(r.stderr).toBe('');
+    // only warnings (the quick audit notes the orchard column, for example), no error lines
+    expect(r.stderr.split('\n').filter(Boolean).every((l) => l.startsWith('foldwise: warning: '))).toBe(true);
     expect(r.status).toBe(0);
     const report = JSON.parse(readFileSync(out, 'utf8'));
     expect(report.learners.map((l: { spec: string }) => l.spec)).toEqual(['baseline', 'knn']);
