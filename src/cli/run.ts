@@ -17,6 +17,7 @@ import { getMetric, METRICS } from '../metrics/index.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { renderJson } from '../report/json.js';
+import { renderEvalHtml } from '../report/html/index.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { execute } from '../run/execute.js';
@@ -122,6 +123,7 @@ interface EvalFlags extends DataFlags {
   journal?: string;
   quiet?: boolean;
   audit: boolean;
+  html?: string;
 }
 
 /** --jobs: a whole number from 1 to 256. */
@@ -152,14 +154,17 @@ export function checkOutputs(data: string, outputs: readonly (readonly [string, 
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
-  if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--journal', flags.journal]]);
+  if ([flags.json, flags.markdown, flags.html].filter((f) => f === '-').length > 1) {
+    throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
+  }
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]]);
+  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
   const seed = parseSeed(flags.seed);
   const jobs = parseJobs(flags.jobs);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
-  if (shard && (!flags.json || flags.markdown)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
+  if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
   const progress = progressFor(io, Boolean(flags.quiet));
   let resumedNote = '';
@@ -208,7 +213,12 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     if (flags.markdown === '-') io.stdout.write(md());
     else writeFileAtomic(flags.markdown, md(), '--markdown');
   }
-  if (!flags.json && !flags.markdown) io.stdout.write(md());
+  if (flags.html) {
+    const page = renderEvalHtml(report);
+    if (flags.html === '-') io.stdout.write(page);
+    else writeFileAtomic(flags.html, page, '--html');
+  }
+  if (!flags.json && !flags.markdown && !flags.html) io.stdout.write(md());
   return EXIT_OK;
 }
 
@@ -254,6 +264,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--final', 'also score the holdout part of a holdout plan, once')
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
+    .option('--html <file>', 'write a self-contained HTML page with charts to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
     .option('--jobs <n>', 'worker threads (default: the available cores)', String(availableParallelism()))
     .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')

@@ -142,6 +142,21 @@ describe('foldwise eval on the Palmer penguins file (vega-datasets; Gorman, Will
   });
 });
 
+describe('eval --html', () => {
+  it('writes the same page that foldwise render makes from the JSON report', async () => {
+    const json = join(tmp.dir, 'h.json');
+    const html = join(tmp.dir, 'h.html');
+    const r = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--json', json, '--html', html, '--no-timing', '--jobs', '1']);
+    expect(r.code).toBe(0);
+    const page = readFileSync(html, 'utf8');
+    expect(page).toMatch(/^<!DOCTYPE html>/i);
+    expect(page).toMatch(/<svg/);
+    const again = join(tmp.dir, 'h2.html');
+    expect((await cli(['render', json, '--html', again])).code).toBe(0);
+    expect(readFileSync(again, 'utf8')).toBe(page);
+  });
+});
+
 describe('the quick audit before eval', () => {
   it('warns about the id column of the bundled example, and --no-audit turns it off', async () => {
     const args = ['eval', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--learner', 'knn', '--plan', 'kfold:3', '--json', '-', '--no-timing', '--jobs', '1'];
