@@ -67,7 +67,16 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
     if (jobs > 1 && todo.length > 1) {
       await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/');
     } else {
-      runTasks(prepared, todo, done, exec.stopRequested);
+      // one split at a time, yielding to the event loop in between so that a SIGINT handler
+      // (which only runs when the loop gets control) can ask the run to stop
+      for (let i = 0; i < todo.length; ) {
+        let j = i;
+        while (j < todo.length && todo[j].foldIndex === todo[i].foldIndex) j++;
+        if (exec.stopRequested?.()) break;
+        runTasks(prepared, todo.slice(i, j), done, exec.stopRequested);
+        await new Promise<void>((resolve) => setImmediate(resolve));
+        i = j;
+      }
     }
     if (results.size < mine.length) {
       const where = journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : '';

@@ -114,6 +114,28 @@ describe('journal', () => {
     expect(new Set(ids).size).toBe(30);
   });
 
+  it('stops cleanly on SIGINT, keeps the journal, says how to resume (exit 130)', async () => {
+    const journal = join(tmp.dir, 'int.journal');
+    const args = ['eval', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--drop', 'lot_id', '--learner', 'forest:trees=30', '--plan', 'kfold:10', '--jobs', '1', '--no-timing', '--quiet'];
+    const child = spawn(process.execPath, [BIN, ...args, '--journal', journal, '--json', join(tmp.dir, 'int.json')], { stdio: ['ignore', 'ignore', 'pipe'] });
+    let stderr = '';
+    child.stderr!.on('data', (d) => (stderr += d));
+    const timer = setInterval(() => {
+      if (lines(journal) >= 3) {
+        child.kill('SIGINT');
+        clearInterval(timer);
+      }
+    }, 5);
+    const code = await new Promise<number | null>((r) => child.on('exit', (c) => r(c)));
+    clearInterval(timer);
+    expect(code).toBe(130);
+    expect(stderr).toMatch(/foldwise: interrupted; \d+ of 20 tasks are in the journal .*int\.journal: rerun the same command to resume/);
+    expect(existsSync(join(tmp.dir, 'int.json'))).toBe(false);
+    const resumed = await cli([...args, '--journal', journal, '--json', '-']);
+    expect(resumed.code).toBe(0);
+    expect(resumed.stdout).toBe((await cli([...args, '--json', '-'])).stdout);
+  });
+
   it('refuses the journal of another run with what differs', async () => {
     const journal = join(tmp.dir, 'other.journal');
     expect((await cli([...base, '--journal', journal, '--json', '-'])).code).toBe(0);
