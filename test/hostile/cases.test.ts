@@ -502,7 +502,7 @@ const cases: Case[] = [
     input: smallCsv,
     outputs: false,
     args: [...RUN, '--json', '-', '--markdown', '-'],
-    expect: /^--json - and --markdown -: only one of them can go to standard output$/,
+    expect: /^--json -, --markdown - and --html -: only one of them can go to standard output$/,
   },
   {
     name: '--json - writes the report to standard output only',
