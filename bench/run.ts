@@ -10,6 +10,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/knn.js')).cases,
   ...(await import('./cases/eval.js')).cases,
   ...(await import('./cases/honesty.js')).cases,
+  ...(await import('./cases/tune.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

@@ -26,6 +26,7 @@ import { registerMerge } from './merge.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
+import { registerTune } from './tune.js';
 import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
@@ -284,6 +285,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerCompare(prog, io, setCode);
   registerGate(prog, io, setCode);
   registerAudit(prog, io, setCode);
+  registerTune(prog, io, setCode);
   registerRender(prog, io, setCode);
   registerMerge(prog, io, setCode);
 

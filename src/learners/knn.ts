@@ -119,6 +119,81 @@ function weightsOf(dist2: Float64Array, base: number, k: number, mode: Weights, 
   }
 }
 
+/** One neighbour list as `nearest` makes it: `stride` neighbours per query, nearest first. */
+export interface NeighbourList {
+  readonly index: Int32Array;
+  readonly dist2: Float64Array;
+  /** neighbours kept per query (the k given to `nearest`) */
+  readonly stride: number;
+  /** number of queries */
+  readonly rows: number;
+}
+
+/**
+ * Predictions of the knn model with `k` neighbours and `weights`, made from a neighbour list
+ * found once for a larger k (the search in `foldwise tune` scores every k of a grid and both
+ * weightings from one list). The list of the K nearest is sorted by (distance, training row),
+ * so its first k entries are exactly the list `nearest` gives for k; the votes, the 1/d weights
+ * with the distance-0 rule and the tie rule below are those of the model's predict and
+ * predictProba, step for step, so the results are identical (test/search/knn-shared.test.ts).
+ *
+ * `y` holds the training targets as the model stores them (class codes as doubles, or values);
+ * `trainRows` the number of training rows (k is capped at it, as in the model); `classes` is 0
+ * for regression. Needs min(k, trainRows) <= list.stride.
+ */
+export function predictFromNeighbours(
+  list: NeighbourList,
+  y: Float64Array,
+  trainRows: number,
+  classes: number,
+  k: number,
+  weights: (typeof KNN_WEIGHTS)[number],
+): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
+  const kk = Math.min(k, trainRows);
+  if (!(kk >= 1 && kk <= list.stride)) {
+    throw new InputError(`knn: ${k} neighbours asked from a list of ${list.stride} per query`);
+  }
+  const { index, dist2, stride, rows } = list;
+  const w = new Float64Array(kk);
+  if (classes === 0) {
+    const out = new Float64Array(rows);
+    for (let i = 0; i < rows; i++) {
+      weightsOf(dist2, i * stride, kk, weights, w);
+      let s = 0;
+      let ws = 0;
+      for (let j = 0; j < kk; j++) {
+        s += w[j] * y[index[i * stride + j]];
+        ws += w[j];
+      }
+      out[i] = s / ws;
+    }
+    return { predicted: out };
+  }
+  const C = classes;
+  const v = new Float64Array(rows * C);
+  for (let i = 0; i < rows; i++) {
+    weightsOf(dist2, i * stride, kk, weights, w);
+    for (let j = 0; j < kk; j++) v[i * C + y[index[i * stride + j]]] += w[j];
+  }
+  const predicted = new Int32Array(rows);
+  for (let i = 0; i < rows; i++) {
+    let top = -Infinity;
+    for (let c = 0; c < C; c++) if (v[i * C + c] > top) top = v[i * C + c];
+    let best = -1;
+    for (let j = 0; j < kk && best < 0; j++) {
+      const c = y[index[i * stride + j]];
+      if (v[i * C + c] === top) best = c;
+    }
+    predicted[i] = best;
+  }
+  for (let i = 0; i < rows; i++) {
+    let s = 0;
+    for (let c = 0; c < C; c++) s += v[i * C + c];
+    for (let c = 0; c < C; c++) v[i * C + c] /= s;
+  }
+  return { predicted, proba: v };
+}
+
 interface KnnState {
   readonly k: number;
   readonly weights: Weights;

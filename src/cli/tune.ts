@@ -1,0 +1,128 @@
+/**
+ * `foldwise tune DATA --target COL [--learner SPEC ...]`: hyperparameter search with nested
+ * selection (src/search/tune.ts). The search space is counted and checked against the candidate
+ * limit before the data is read, and the count is printed on standard error up front. The
+ * report goes to standard output as Markdown (default) and/or as JSON.
+ *
+ * Loader options, --seed, --impute, --no-stratify, --json, --markdown and --no-timing are those
+ * of eval; exit codes too: 0 done, 2 bad input or usage.
+ */
+import { type Command, Option } from 'commander';
+import { loadCsv } from '../data/load-csv.js';
+import { EXIT_OK, UsageError } from '../errors.js';
+import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
+import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { renderTuneMarkdown } from '../report/tune-markdown.js';
+import { DEFAULT_SEED } from '../run/prepare.js';
+import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
+import { PICK_RULES, type PickRule } from '../search/pick.js';
+import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tune } from '../search/tune.js';
+import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf } from './run.js';
+
+interface TuneFlags extends DataFlags {
+  plan: string;
+  inner: string;
+  stratify: boolean;
+  learner?: string[];
+  metric?: string[];
+  pick: PickRule;
+  sample?: string;
+  maxCandidates?: string;
+  holdout?: string;
+  seed: string;
+  impute: Impute;
+  json?: string;
+  markdown?: string;
+  timing: boolean;
+}
+
+const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
+
+/** A whole-number option from 1 to MAX_CANDIDATES_LIMIT. */
+export function parseCount(text: string, option: string): number {
+  if (!/^\d+$/.test(text.trim()) || Number(text) < 1 || Number(text) > MAX_CANDIDATES_LIMIT) {
+    throw new UsageError(`${option} ${text}: expected a whole number from 1 to ${MAX_CANDIDATES_LIMIT}`);
+  }
+  return Number(text);
+}
+
+/** --holdout F: a decimal fraction above 0 and below 1. */
+export function parseHoldout(text: string): number {
+  const t = text.trim();
+  const v = /^(?:\d+\.?\d*|\.\d+)$/.test(t) ? Number(t) : NaN;
+  if (!(v > 0 && v < 1)) throw new UsageError(`--holdout ${text}: expected a fraction above 0 and below 1 (such as 0.2)`);
+  return v;
+}
+
+async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> {
+  if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown]]);
+  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
+  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  const seed = parseSeed(flags.seed);
+  const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
+  const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
+  const holdout = flags.holdout === undefined ? undefined : parseHoldout(flags.holdout);
+  const specs = flags.learner?.length ? flags.learner : DEFAULT_SEARCH;
+
+  // count the candidates before reading any data
+  const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
+  const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
+  io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
+
+  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  const report = tune(table, {
+    target: flags.target,
+    drop: flags.drop,
+    task: flags.task,
+    group: flags.group,
+    order: flags.order,
+    plan: flags.plan,
+    inner: flags.inner,
+    stratify: flags.stratify,
+    learners: specs,
+    metrics: flags.metric,
+    pick: flags.pick,
+    sample,
+    maxCandidates,
+    holdout,
+    seed,
+    impute: flags.impute,
+    timing: flags.timing,
+  });
+  for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
+  const json = (): string => `${JSON.stringify(report, null, 2)}\n`;
+  if (flags.json) {
+    if (flags.json === '-') io.stdout.write(json());
+    else writeFileAtomic(flags.json, json(), '--json');
+  }
+  if (flags.markdown) {
+    if (flags.markdown === '-') io.stdout.write(renderTuneMarkdown(report));
+    else writeFileAtomic(flags.markdown, renderTuneMarkdown(report), '--markdown');
+  }
+  if (!flags.json && !flags.markdown) io.stdout.write(renderTuneMarkdown(report));
+  return EXIT_OK;
+}
+
+export function registerTune(prog: Command, io: Io, setCode: (code: number) => void): void {
+  addDataOptions(
+    prog
+      .command('tune')
+      .description('search learner options with nested cross-validation: an honest outer estimate, and the candidate to deploy'),
+  )
+    .option('--plan <plan>', 'outer resampling plan (as for eval)', DEFAULT_OUTER_PLAN)
+    .option('--inner <plan>', 'inner plan, run on each outer fold\'s training rows (as for eval)', DEFAULT_INNER_PLAN)
+    .option('--no-stratify', 'do not stratify classification plans by class')
+    .option('--learner <spec>', 'search space NAME:key=A|B|C,key=FROM..TO+STEP or FROM..TO*FACTOR (repeatable; see foldwise learners)', collect)
+    .option('--metric <name>', 'metric to report (repeatable; the first is the headline and decides the pick)', collect)
+    .addOption(new Option('--pick <rule>', 'best inner mean, or the simplest within one standard error of it').choices(PICK_RULES).default('best'))
+    .option('--sample <n>', 'random search: try n candidates drawn from the space (seeded)')
+    .option('--max-candidates <n>', `most candidates a search may try (default ${DEFAULT_MAX_CANDIDATES})`)
+    .option('--holdout <fraction>', 'set this share of the rows aside before any selection and score the recommendation on it once')
+    .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
+    .addOption(new Option('--impute <how>', 'numeric imputation, fitted on training rows').choices(IMPUTE_CHOICES).default('median'))
+    .option('--json <file>', 'write the JSON report to a file, or - for standard output')
+    .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
+    .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
+    .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));
+}

@@ -1,0 +1,51 @@
+/**
+ * Predictions and their scores, as the search uses them: one prediction per candidate and split,
+ * scored by a metric exactly as `eval` scores a fold (an undefined or non-finite score is null;
+ * a probability metric is null for a model without probabilities).
+ */
+import type { Target } from '../learners/types.js';
+import type { Metric } from '../metrics/types.js';
+
+export interface Prediction {
+  readonly predicted: Int32Array | Float64Array;
+  readonly proba?: Float64Array;
+}
+
+export function scoreOf(metric: Metric, actual: Target, pred: Prediction): number | null {
+  let v: number;
+  if (metric.task === 'classification') {
+    if (actual.task !== 'classification') return null;
+    if (metric.needsProba && !pred.proba) return null;
+    v = metric.fn({ actual: actual.codes, predicted: pred.predicted as Int32Array, classes: actual.classes.length, proba: pred.proba });
+  } else {
+    if (actual.task !== 'regression') return null;
+    v = metric.fn({ actual: actual.values, predicted: pred.predicted as Float64Array });
+  }
+  return Number.isFinite(v) ? v : null;
+}
+
+/** Concatenates predictions in order (for pooled scores). */
+export function concatPredictions(parts: readonly Prediction[], classes: number): Prediction {
+  const n = parts.reduce((s, p) => s + p.predicted.length, 0);
+  const predicted = parts[0].predicted instanceof Int32Array ? new Int32Array(n) : new Float64Array(n);
+  const withProba = parts.every((p) => p.proba);
+  const proba = withProba ? new Float64Array(n * classes) : undefined;
+  let at = 0;
+  for (const p of parts) {
+    predicted.set(p.predicted as never, at);
+    if (proba) proba.set(p.proba!, at * classes);
+    at += p.predicted.length;
+  }
+  return proba ? { predicted, proba } : { predicted };
+}
+
+/** The targets of `idx` rows, concatenated over parts. */
+export function concatTargets(parts: readonly Target[]): Target {
+  const first = parts[0];
+  if (first.task === 'classification') {
+    const all = parts.flatMap((p) => (p.task === 'classification' ? Array.from(p.codes) : []));
+    return { task: 'classification', codes: Int32Array.from(all), classes: first.classes };
+  }
+  const all = parts.flatMap((p) => (p.task === 'regression' ? Array.from(p.values) : []));
+  return { task: 'regression', values: Float64Array.from(all) };
+}

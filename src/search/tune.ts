@@ -1,0 +1,374 @@
+/**
+ * `tune`: hyperparameter search with nested selection (the core of `foldwise tune`).
+ *
+ * Choosing options by the same cross-validation that reports the score is optimistic: the best
+ * of many noisy means is biased upwards (Varma & Simon 2006, "Bias in error estimation when
+ * using cross-validation for model selection", BMC Bioinformatics 7:91, free at
+ * https://doi.org/10.1186/1471-2105-7-91; Cawley & Talbot 2010, JMLR 11:2079-2107). So:
+ *
+ * 1. Optional holdout (--holdout F, or the holdout part of a holdout outer plan): set aside
+ *    before anything else and touched once, at the end.
+ * 2. Outer plan (default kfold:5) over the search rows. For each outer fold, the inner plan
+ *    (default kfold:3) is built on the outer training rows only; every candidate is scored by
+ *    it on the headline metric; the rule (best or one-se, pick.ts) picks one; that candidate is
+ *    refitted on the outer training rows and scored on the outer test rows with every metric.
+ *    The outer scores, summarised as in `eval` (summarize: mean, median, sd, min, max,
+ *    quartiles, Nadeau-Bengio corrected interval), are the estimate to quote.
+ * 3. Recommendation: the inner plan run on all search rows, the same rule: the candidate to
+ *    deploy. Its inner mean is the non-nested, optimistic figure and is labelled so.
+ * 4. The holdout, if any, is scored once by the recommendation fitted on all search rows.
+ *
+ * Shared work (fold-work.ts): preprocessing once per split, one neighbour search per split for
+ * all kNN candidates, one forest per split for candidates that differ only in tree count.
+ *
+ * Randomness, all from the run's seed: outer plan deriveSeed(seed, "plan") (so with no holdout
+ * the outer folds are eval's folds for the same seed), holdout deriveSeed(seed, "holdout"),
+ * inner plans deriveSeed(seed, "inner", repeat, fold) per outer fold and
+ * deriveSeed(seed, "inner", "all") for the recommendation, sampling deriveSeed(seed, "sample"),
+ * fits deriveSeed(seed, "fit", stage..., learner) where the stage names the split.
+ */
+import { performance } from 'node:perf_hooks';
+import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
+import type { Table } from '../data/types.js';
+import { quoted } from '../data/load-csv.js';
+import { InputError, UsageError } from '../errors.js';
+import type { Target } from '../learners/types.js';
+import { defaultMetrics, getMetric } from '../metrics/index.js';
+import type { Metric } from '../metrics/types.js';
+import { formatPlan, parsePlan } from '../plans/index.js';
+import type { BuiltPlan, PlanSpec } from '../plans/types.js';
+import type { Impute } from '../prep/fold-prep.js';
+import type { ScoreSummary } from '../report/types.js';
+import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../report/tune-types.js';
+import { checkSeed, DEFAULT_SEED } from '../run/prepare.js';
+import { createRng, deriveSeed } from '../run/rng.js';
+import { SplitData, subsetTarget } from '../run/tasks.js';
+import { summarize } from '../stats/index.js';
+import { VERSION } from '../version.js';
+import { describeRanks } from './complexity.js';
+import { edgeWarnings } from './edges.js';
+import { newWorkCount, predictAll, type WorkCount } from './fold-work.js';
+import { splitHoldout } from './holdout-split.js';
+import { type InnerStat, innerStat, type Pick, PICK_RULES, pickCandidate, type PickRule } from './pick.js';
+import { allRows, planOver, type SubsetPlan } from './plan-over.js';
+import { concatPredictions, concatTargets, type Prediction, scoreOf } from './predictions.js';
+import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
+
+export const TUNE_SCHEMA = 'foldwise-tune/1';
+export const DEFAULT_OUTER_PLAN = 'kfold:5';
+export const DEFAULT_INNER_PLAN = 'kfold:3';
+/** The search when no --learner is given: kNN over seven k values and both weightings. */
+export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,weights=uniform|distance'];
+
+export interface TuneOptions extends ProblemOptions {
+  /** search specs with lists and ranges, such as "knn:k=1..21+2" (default DEFAULT_SEARCH) */
+  readonly learners?: readonly string[];
+  /** outer plan text or spec (default kfold:5) */
+  readonly plan?: string | PlanSpec;
+  /** inner plan text or spec (default kfold:3) */
+  readonly inner?: string | PlanSpec;
+  /** stratify classification plans by class (default true) */
+  readonly stratify?: boolean;
+  /** metric names, headline first; the headline decides the selection */
+  readonly metrics?: readonly string[];
+  readonly pick?: PickRule;
+  /** random search: number of candidates to draw */
+  readonly sample?: number;
+  /** candidate limit (default 200) */
+  readonly maxCandidates?: number;
+  /** fraction of rows set aside as a final holdout */
+  readonly holdout?: number;
+  readonly seed?: number;
+  readonly impute?: Impute;
+  /** include wall-clock timings (default true) */
+  readonly timing?: boolean;
+}
+
+function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
+  const list = names?.length ? names : defaultMetrics(problem.task);
+  const out: Metric[] = [];
+  for (const name of list) {
+    const m = getMetric(name);
+    if (m.task !== problem.task) throw new UsageError(`--metric ${name}: a ${m.task} metric, but the task is ${problem.task}`);
+    if (!out.includes(m)) out.push(m);
+  }
+  return out;
+}
+
+/** Rethrows a plan error of the inner plan under the --inner option's name. */
+function asInner(e: unknown, where: string): never {
+  if (e instanceof InputError || e instanceof UsageError) {
+    const msg = `${e.message.replace(/^--plan /, '--inner ')}${where}`;
+    throw e instanceof InputError ? new InputError(msg) : new UsageError(msg);
+  }
+  throw e;
+}
+
+function parseInner(inner: string | PlanSpec | undefined): PlanSpec {
+  let spec: PlanSpec;
+  try {
+    spec = typeof inner === 'object' ? inner : parsePlan(inner ?? DEFAULT_INNER_PLAN);
+  } catch (e) {
+    asInner(e, '');
+  }
+  if (spec.kind === 'holdout' && spec.holdout > 0) {
+    throw new UsageError(`--inner ${formatPlan(spec)}: an inner plan has no use for a holdout part; write holdout:A/B/0, or use --holdout F to keep rows out of the whole search`);
+  }
+  return spec;
+}
+
+function innerPlan(problem: Problem, spec: PlanSpec, rows: Int32Array, stratify: boolean | undefined, seed: number, where: string): SubsetPlan {
+  try {
+    return planOver(problem, spec, rows, stratify, createRng(seed));
+  } catch (e) {
+    asInner(e, ` (inner plan on ${where}, ${rows.length} rows)`);
+  }
+}
+
+function label(f: { repeat: number; fold: number }, repeats: number): string {
+  return repeats > 1 ? `outer fold ${f.repeat + 1}.${f.fold + 1}` : `outer fold ${f.fold + 1}`;
+}
+
+/** Scores every candidate by the inner plan on the headline metric; returns one InnerStat per candidate. */
+function innerSearch(
+  problem: Problem,
+  plan: BuiltPlan,
+  candidates: readonly SearchCandidate[],
+  head: Metric,
+  impute: Impute,
+  seedOf: (repeat: number, fold: number) => number,
+  work: WorkCount,
+): InnerStat[] {
+  const y = problem.target;
+  const scores = candidates.map(() => [] as (number | null)[]);
+  for (const f of plan.folds) {
+    const split = new SplitData(problem, f.train, f.test, impute);
+    const yTest = subsetTarget(y, f.test);
+    const preds = predictAll(split, y, candidates, seedOf(f.repeat, f.fold), work);
+    preds.forEach((p, i) => scores[i].push(scoreOf(head, yTest, p)));
+  }
+  return scores.map((s) => innerStat(s));
+}
+
+function scoresOf(metrics: readonly Metric[], actual: Target, pred: Prediction): Record<string, number | null> {
+  const out: Record<string, number | null> = {};
+  for (const m of metrics) out[m.name] = scoreOf(m, actual, pred);
+  return out;
+}
+
+function meanOf(values: readonly number[]): number {
+  return values.reduce((s, v) => s + v, 0) / values.length;
+}
+
+function checkPick(p: Pick, head: Metric, where: string): void {
+  if (p.pick < 0) {
+    throw new InputError(`${head.name} is undefined in every inner fold of ${where} for every candidate; choose another --metric or a plan with larger folds`);
+  }
+}
+
+/** Runs the nested search on a loaded table. Pure apart from reading the clock for timings. */
+export function tune(table: Table, options: TuneOptions): TuneReport {
+  const started = performance.now();
+  const seed = checkSeed(options.seed ?? DEFAULT_SEED);
+  const rule = options.pick ?? 'best';
+  if (!PICK_RULES.includes(rule)) throw new UsageError(`--pick ${rule}: expected one of ${PICK_RULES.join(', ')}`);
+  const problem = defineProblem(table, options);
+  const outerSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_OUTER_PLAN);
+  const innerSpec = parseInner(options.inner);
+  const metrics = resolveMetrics(problem, options.metrics);
+  const head = metrics[0];
+  const specs = options.learners?.length ? options.learners : DEFAULT_SEARCH;
+  const space = parseSearchSpace(specs);
+  const { candidates, plan: search } = searchCandidates(space, problem.task, { sample: options.sample, maxCandidates: options.maxCandidates }, seed);
+  const impute = options.impute ?? 'median';
+  const y = problem.target;
+  const n = problem.rows.length;
+  const warnings: string[] = [...table.warnings, ...search.warnings];
+  if (problem.excludedRows > 0) {
+    warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
+  }
+
+  // 1. the holdout, then the outer plan over the rows left
+  let searchRows = allRows(n);
+  let holdoutRows: Int32Array | undefined;
+  let holdoutFrom: 'option' | 'plan' | undefined;
+  let outer: SubsetPlan;
+  const outerRng = createRng(deriveSeed(seed, 'plan'));
+  if (options.holdout !== undefined) {
+    if (outerSpec.kind === 'holdout' && outerSpec.holdout > 0) {
+      throw new UsageError(`--holdout ${options.holdout}: the plan ${formatPlan(outerSpec)} already sets a holdout part aside; use one or the other`);
+    }
+    const split = splitHoldout(problem, options.holdout, outerSpec, options.stratify, seed);
+    searchRows = split.search;
+    holdoutRows = split.holdout;
+    holdoutFrom = 'option';
+    outer = planOver(problem, outerSpec, searchRows, options.stratify, outerRng);
+  } else {
+    outer = planOver(problem, outerSpec, searchRows, options.stratify, outerRng);
+    if (outer.plan.holdout) {
+      const f0 = outer.plan.folds[0];
+      searchRows = Int32Array.from([...f0.train, ...f0.test]).sort();
+      holdoutRows = outer.plan.holdout.length ? outer.plan.holdout : undefined;
+      holdoutFrom = holdoutRows ? 'plan' : undefined;
+    }
+  }
+  warnings.push(...outer.plan.warnings);
+  if (outerSpec.kind === 'forward' && innerSpec.kind !== 'forward') {
+    warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
+  }
+  if (outerSpec.kind === 'loo') warnings.push('leave-one-out outer plan: each outer fold scores one row, so per-fold spread is degenerate; read the pooled scores');
+
+  // 2. nested selection, outer fold by outer fold
+  const work = newWorkCount();
+  const perFold: InnerStat[][] = [];
+  const outerFolds: TuneOuterFold[] = [];
+  const outerPreds: Prediction[] = [];
+  const outerActual: Target[] = [];
+  const repeats = outer.plan.repeats;
+  let fellBack = false;
+  for (const f of outer.plan.folds) {
+    const where = label(f, repeats);
+    const inner = innerPlan(problem, innerSpec, f.train, options.stratify, deriveSeed(seed, 'inner', f.repeat, f.fold), `the training rows of ${where}`);
+    for (const w of inner.plan.warnings) warnings.push(`inner plan on ${where}: ${w}`);
+    const stats = innerSearch(problem, inner.plan, candidates, head, impute, (r, k) => deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold, 'inner', r, k), work);
+    const p = pickCandidate(candidates, stats, rule, head.higherIsBetter);
+    checkPick(p, head, where);
+    fellBack ||= p.fellBack;
+    perFold.push(stats);
+    const chosen = candidates[p.pick];
+    const split = new SplitData(problem, f.train, f.test, impute);
+    const pred = predictAll(split, y, [chosen], deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold), work)[0];
+    const yTest = subsetTarget(y, f.test);
+    outerPreds.push(pred);
+    outerActual.push(yTest);
+    outerFolds.push({
+      repeat: f.repeat,
+      fold: f.fold,
+      trainRows: f.train.length,
+      testRows: f.test.length,
+      innerFolds: inner.plan.folds.length,
+      pick: chosen.id,
+      pickSpec: chosen.spec,
+      best: candidates[p.best].id,
+      innerMean: stats[p.pick].mean!,
+      innerSd: stats[p.pick].sd,
+      scores: scoresOf(metrics, yTest, pred),
+    });
+  }
+
+  // 3. the recommendation: the same search on all search rows
+  const allInner = innerPlan(problem, innerSpec, searchRows, options.stratify, deriveSeed(seed, 'inner', 'all'), 'all search rows');
+  for (const w of allInner.plan.warnings) warnings.push(`inner plan on all search rows: ${w}`);
+  const allStats = innerSearch(problem, allInner.plan, candidates, head, impute, (r, k) => deriveSeed(seed, 'fit', 'all', 'inner', r, k), work);
+  const final = pickCandidate(candidates, allStats, rule, head.higherIsBetter);
+  checkPick(final, head, 'all search rows');
+  fellBack ||= final.fellBack;
+  if (fellBack) warnings.push('--pick one-se: an inner plan gave fewer than two scores, so there was no standard error and the best candidate was taken');
+  const rec = candidates[final.pick];
+  warnings.push(...edgeWarnings(rec, candidates, 'the recommended'));
+  const undefinedFor = allStats.filter((s) => s.mean === null).length;
+  if (undefinedFor > 0) warnings.push(`${head.name} is undefined in every inner fold for ${undefinedFor} of ${candidates.length} candidates; they were never picked`);
+
+  // 4. the holdout, scored once
+  let holdout: TuneReport['holdout'];
+  if (holdoutRows) {
+    const split = new SplitData(problem, searchRows, holdoutRows, impute);
+    const pred = predictAll(split, y, [rec], deriveSeed(seed, 'fit', 'all'), work)[0];
+    holdout = { trainRows: searchRows.length, testRows: holdoutRows.length, spec: rec.spec, scores: scoresOf(metrics, subsetTarget(y, holdoutRows), pred) };
+  }
+
+  // summaries of the outer scores, as eval summarises fold scores
+  const trainMean = meanOf(outerFolds.map((f) => f.trainRows));
+  const testMean = meanOf(outerFolds.map((f) => f.testRows));
+  const summary: Record<string, ScoreSummary | null> = {};
+  const pooled: Record<string, number | null> = {};
+  const classes = y.task === 'classification' ? y.classes.length : 0;
+  const pooledPred = concatPredictions(outerPreds, classes);
+  const pooledActual = concatTargets(outerActual);
+  for (const m of metrics) {
+    const values = outerFolds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
+    const missing = outerFolds.length - values.length;
+    if (missing > 0 && missing < outerFolds.length) warnings.push(`outer estimate: ${m.name} is undefined in ${missing} of ${outerFolds.length} outer folds; its summary uses the other folds`);
+    if (m.needsProba && !pooledPred.proba) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
+    summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
+    pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
+  }
+
+  // stability of the picks over the outer folds
+  const wins = new Map<number, number>();
+  for (const f of outerFolds) wins.set(f.pick, (wins.get(f.pick) ?? 0) + 1);
+  const winners: TuneWinner[] = [...wins]
+    .map(([id, folds]) => ({ id, spec: candidates[id].spec, folds }))
+    .sort((a, b) => b.folds - a.folds || a.id - b.id);
+
+  const tuneCandidates: TuneCandidate[] = candidates.map((c, i) => ({
+    id: c.id,
+    name: c.learner.name,
+    spec: c.spec,
+    params: { ...c.params },
+    inner: perFold.map((s) => s[i]),
+    all: allStats[i],
+    wins: wins.get(c.id) ?? 0,
+  }));
+  const learnersSearched = [...new Set(candidates.map((c) => c.learner))];
+
+  const report: TuneReport = {
+    schema: TUNE_SCHEMA,
+    tool: { name: 'foldwise', version: VERSION },
+    command: 'tune',
+    data: {
+      path: table.source,
+      sha256: table.fingerprint.sha256,
+      rows: table.rows,
+      columns: table.columns.length,
+      rowsUsed: n,
+      excludedRows: problem.excludedRows,
+      target: problem.targetName,
+      task: problem.task,
+      ...(y.task === 'classification' ? { classes: y.classes } : {}),
+      features: problem.features.map((f) => f.name),
+      dropped: problem.dropped,
+    },
+    plan: {
+      outer: { kind: outerSpec.kind, text: formatPlan(outerSpec), folds: outer.plan.foldsPerRepeat, repeats: outer.plan.repeats, stratified: outer.stratified },
+      inner: { kind: innerSpec.kind, text: formatPlan(innerSpec), folds: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified },
+      ...(problem.groupName !== undefined ? { group: problem.groupName } : {}),
+      ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
+      seed,
+      searchRows: searchRows.length,
+      ...(holdoutRows && holdoutFrom
+        ? { holdout: { rows: holdoutRows.length, from: holdoutFrom, ...(holdoutFrom === 'option' ? { fraction: options.holdout } : {}) } }
+        : {}),
+    },
+    settings: { impute },
+    metrics: metrics.map((m) => m.name),
+    selection: { metric: head.name, higherIsBetter: head.higherIsBetter, rule, complexity: learnersSearched.map((l) => describeRanks(l)) },
+    search: {
+      specs: [...specs],
+      gridSize: search.gridSize,
+      tried: candidates.length,
+      sampled: search.sampled,
+      limit: search.limit,
+      fits: work.fits,
+      plainLoopFits: work.plainFits,
+    },
+    candidates: tuneCandidates,
+    outer: { folds: outerFolds, summary, pooled },
+    stability: { distinct: winners.length, winners, topShare: winners[0].folds / outerFolds.length },
+    recommendation: {
+      id: rec.id,
+      spec: rec.spec,
+      params: { ...rec.params },
+      innerMean: allStats[final.pick].mean!,
+      innerSd: allStats[final.pick].sd,
+      best: candidates[final.best].id,
+      bestSpec: candidates[final.best].spec,
+      bestInnerMean: allStats[final.best].mean!,
+      matchesTopWinner: winners[0].id === rec.id,
+    },
+    ...(holdout ? { holdout } : {}),
+    warnings: [...new Set(warnings)],
+    ...(options.timing === false ? {} : { timing: { totalMs: performance.now() - started, fitMs: work.fitMs, predictMs: work.predictMs } }),
+  };
+  return report;
+}

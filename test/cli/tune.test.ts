@@ -1,0 +1,123 @@
+import { Ajv } from 'ajv';
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import type { TuneReport } from '../../src/report/tune-types.js';
+import { cli } from '../helpers/cli.js';
+import { penguinsCsv } from '../helpers/penguins.js';
+import { tempFolder } from '../helpers/tmp.js';
+
+const schema = JSON.parse(readFileSync(new URL('../../schema/tune.schema.json', import.meta.url), 'utf8'));
+const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
+function expectValid(report: unknown): void {
+  const ok = validate(report);
+  expect(validate.errors ?? []).toEqual([]);
+  expect(ok).toBe(true);
+}
+
+// The Palmer penguins file shipped by vega-datasets (CC0; Gorman, Williams & Fraser 2014).
+const tmp = tempFolder();
+const penguins = tmp.file('penguins.csv', penguinsCsv());
+const ARGS = ['tune', penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--no-timing'];
+
+describe('foldwise tune', () => {
+  it('prints the candidate count up front and a schema-valid JSON report', async () => {
+    const r = await cli([...ARGS, '--learner', 'knn:k=1|5|15,weights=uniform|distance', '--json', '-']);
+    expect(r.code).toBe(0);
+    expect(r.stderr.split('\n')[0]).toBe('foldwise: tune: 6 candidates in a grid of 6; outer kfold:5, inner kfold:3');
+    const report = JSON.parse(r.stdout) as TuneReport;
+    expectValid(report);
+    expect(report.command).toBe('tune');
+    expect(report.candidates.length).toBe(6);
+    expect(report.timing).toBeUndefined();
+  });
+
+  it('writes Markdown with the outer estimate first and the grid sorted by inner mean, the pick marked', async () => {
+    const md = join(tmp.dir, 'tune.md');
+    const js = join(tmp.dir, 'tune.json');
+    const r = await cli([...ARGS, '--learner', 'knn:k=1..21+4', '--pick', 'one-se', '--markdown', md, '--json', js, '--seed', '5']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('');
+    const text = readFileSync(md, 'utf8');
+    const report = JSON.parse(readFileSync(js, 'utf8')) as TuneReport;
+    expectValid(report);
+    const at = (s: string) => text.indexOf(s);
+    expect(at('## Outer estimate (nested: quote this)')).toBeGreaterThan(0);
+    expect(at('## Outer estimate')).toBeLessThan(at('## Recommendation (deploy this)'));
+    expect(at('## Recommendation')).toBeLessThan(at('## Grid:'));
+    const grid = text.slice(at('## Grid:')).split('\n').filter((l) => l.startsWith('| '));
+    const body = grid.slice(2, 2 + report.candidates.length);
+    expect(body.length).toBe(6);
+    // sorted: inner means never increase down the table
+    const means = body.map((l) => Number(l.split('|')[3]));
+    for (let i = 1; i < means.length; i++) expect(means[i]).toBeLessThanOrEqual(means[i - 1]);
+    // exactly one row carries the recommendation mark, and it is the recommended spec in bold
+    const marked = body.filter((l) => l.startsWith('| → |'));
+    expect(marked.length).toBe(1);
+    expect(marked[0]).toContain(`**${report.recommendation.spec}**`);
+  });
+
+  it('gives the same report for the same seed (byte for byte without timings)', async () => {
+    const a = await cli([...ARGS, '--learner', 'knn:k=3|9', '--json', '-', '--seed', '11']);
+    const b = await cli([...ARGS, '--learner', 'knn:k=3|9', '--json', '-', '--seed', '11']);
+    expect(a.code).toBe(0);
+    expect(a.stdout).toBe(b.stdout);
+  });
+
+  it('runs a random search and a holdout from the command line', async () => {
+    const r = await cli([...ARGS, '--learner', 'knn:k=1..80', '--sample', '5', '--holdout', '0.25', '--json', '-']);
+    expect(r.code).toBe(0);
+    expect(r.stderr.split('\n')[0]).toBe('foldwise: tune: 5 candidates sampled from a grid of 80; outer kfold:5, inner kfold:3');
+    const report = JSON.parse(r.stdout) as TuneReport;
+    expectValid(report);
+    expect(report.search).toMatchObject({ gridSize: 80, tried: 5, sampled: true });
+    expect(report.holdout?.testRows).toBe(86);
+  });
+
+  it('refuses a grid over the limit before reading data, unless --max-candidates raises it', async () => {
+    const r = await cli([...ARGS, '--learner', 'knn:k=1..300']);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toBe('foldwise: the grid has 300 candidates, more than the limit of 200; narrow it, use --sample N, or raise --max-candidates\n');
+    const ok = await cli([...ARGS, '--learner', 'knn:k=1..300', '--max-candidates', '300', '--plan', 'holdout:0.5/0.5/0', '--inner', 'holdout:0.5/0.5/0', '--json', '-']);
+    expect(ok.code).toBe(0);
+    expect((JSON.parse(ok.stdout) as TuneReport).candidates.length).toBe(300);
+  });
+
+  it('prints the count before the data is read', async () => {
+    const r = await cli(['tune', join(tmp.dir, 'missing.csv'), '--target', 'y', '--learner', 'knn:k=1|2']);
+    expect(r.code).toBe(2);
+    const lines = r.stderr.trim().split('\n');
+    expect(lines.length).toBe(2);
+    expect(lines[0]).toBe('foldwise: tune: 2 candidates in a grid of 2; outer kfold:5, inner kfold:3');
+    expect(lines[1].startsWith('foldwise: ')).toBe(true);
+  });
+
+  const bad: [string, string[], RegExp][] = [
+    ['an unknown option', ['--learner', 'knn:kk=1|2'], /^foldwise: --learner knn:kk=1\|2: unknown option "kk" for knn; did you mean "k"\?/],
+    ['a bad range', ['--learner', 'knn:k=9..1'], /^foldwise: --learner knn:k=9..1: k=9..1: the range ends below its start$/],
+    ['a bad --sample', ['--sample', 'ten'], /^foldwise: --sample ten: expected a whole number from 1 to 100000$/],
+    ['a bad --max-candidates', ['--max-candidates', '0'], /^foldwise: --max-candidates 0: expected a whole number from 1 to 100000$/],
+    ['a bad --holdout', ['--holdout', '1.5'], /^foldwise: --holdout 1.5: expected a fraction above 0 and below 1 \(such as 0.2\)$/],
+    ['a bad --pick', ['--pick', 'worst'], /^foldwise: option '--pick <rule>' argument 'worst' is invalid/],
+    ['an inner plan with a holdout part', ['--inner', 'holdout:0.6/0.2/0.2'], /^foldwise: --inner holdout:0.6\/0.2\/0.2: an inner plan has no use for a holdout part/],
+    ['a bad inner plan', ['--inner', 'kfold:x'], /^foldwise: --inner /],
+    ['both reports on standard output', ['--json', '-', '--markdown', '-'], /^foldwise: --json - and --markdown -: only one of them can go to standard output$/],
+  ];
+  for (const [what, extra, message] of bad) {
+    it(`exits 2 with one line for ${what}`, async () => {
+      const r = await cli([...ARGS, ...extra]);
+      expect(r.code).toBe(2);
+      const lines = r.stderr.trim().split('\n').filter((l) => !l.startsWith('foldwise: tune: '));
+      expect(lines.length).toBe(1);
+      expect(lines[0]).toMatch(message);
+      expect(r.stdout).toBe('');
+    });
+  }
+
+  it('does not write a report file when the run fails', async () => {
+    const out = join(tmp.dir, 'never.json');
+    const r = await cli([...ARGS, '--learner', 'knn:k=1..300', '--json', out]);
+    expect(r.code).toBe(2);
+    expect(existsSync(out)).toBe(false);
+  });
+});
