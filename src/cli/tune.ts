@@ -34,6 +34,7 @@ interface TuneFlags extends DataFlags {
   json?: string;
   markdown?: string;
   timing: boolean;
+  audit: boolean;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -89,6 +90,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     seed,
     impute: flags.impute,
     timing: flags.timing,
+    audit: flags.audit,
   });
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   const json = (): string => `${JSON.stringify(report, null, 2)}\n`;
@@ -124,5 +126,6 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
+    .option('--no-audit', 'skip the quick data audit that runs before the search')
     .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));
 }

@@ -27,6 +27,7 @@
  * deriveSeed(seed, "inner", "all") for the recommendation, sampling deriveSeed(seed, "sample"),
  * fits deriveSeed(seed, "fit", stage..., learner) where the stage names the split.
  */
+import { quickAudit } from '../audit/quick-audit.js';
 import { performance } from 'node:perf_hooks';
 import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
@@ -61,6 +62,8 @@ export const DEFAULT_INNER_PLAN = 'kfold:3';
 export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,weights=uniform|distance'];
 
 export interface TuneOptions extends ProblemOptions {
+  /** run the quick data audit first and add its findings to the warnings (default true) */
+  readonly audit?: boolean;
   /** search specs with lists and ranges, such as "knn:k=1..21+2" (default DEFAULT_SEARCH) */
   readonly learners?: readonly string[];
   /** outer plan text or spec (default kfold:5) */
@@ -213,6 +216,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     }
   }
   warnings.push(...outer.plan.warnings);
+  if (options.audit !== false) warnings.push(...quickAudit(problem, { plan: outerSpec, stratify: options.stratify, seed }));
   if (outerSpec.kind === 'forward' && innerSpec.kind !== 'forward') {
     warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
   }

@@ -121,3 +121,15 @@ describe('foldwise tune', () => {
     expect(existsSync(out)).toBe(false);
   });
 });
+
+describe('the quick audit before tune', () => {
+  it('reports the id column of the bundled example as a warning, and --no-audit turns it off', async () => {
+    const args = ['tune', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--learner', 'knn:k=3|9', '--plan', 'kfold:3', '--json', '-', '--no-timing'];
+    const on = await cli(args);
+    expect(on.code).toBe(0);
+    expect((JSON.parse(on.stdout) as { warnings: string[] }).warnings.join(' ')).toMatch(/audit: id-like: "lot_id"/);
+    const off = await cli([...args, '--no-audit']);
+    expect(off.code).toBe(0);
+    expect((JSON.parse(off.stdout) as { warnings: string[] }).warnings.join(' ')).not.toMatch(/audit:/);
+  });
+});
