@@ -166,8 +166,9 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   const jobs = parseJobs(flags.jobs);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
-  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
   const progress = progressFor(io, Boolean(flags.quiet));
+  const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   const result = await execute(table, {
     target: flags.target,
@@ -196,7 +197,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
         resumedNote = `foldwise: resumed ${resumed} of ${total} tasks from the journal ${flags.journal}\n`;
         if (!flags.quiet) io.stderr.write(resumedNote);
       }
-      progress?.update(done, total, resumed);
+      progress?.tasks(done, total);
     },
   }).finally(() => progress?.stop());
   if (result.kind === 'partial') {

@@ -25,6 +25,8 @@ export interface LoadOptions {
   readonly missing?: readonly string[];
   /** columns read as categorical even when every value is a number */
   readonly categorical?: readonly string[];
+  /** called as bytes are read: bytes so far and the total (undefined when unknown, as for stdin) */
+  readonly onProgress?: (bytes: number, total: number | undefined) => void;
 }
 
 /** Where the CSV comes from: a file path, an already open byte stream (stdin), or text. */
@@ -186,8 +188,11 @@ class HashingDecoder extends Transform {
   }
 }
 
-async function openSource(source: CsvSource): Promise<{ stream: Readable; name: string }> {
-  if ('text' in source) return { stream: Readable.from([Buffer.from(source.text, 'utf8')]), name: source.name };
+async function openSource(source: CsvSource): Promise<{ stream: Readable; name: string; size?: number }> {
+  if ('text' in source) {
+    const bytes = Buffer.from(source.text, 'utf8');
+    return { stream: Readable.from([bytes]), name: source.name, size: bytes.length };
+  }
   if ('stream' in source) return { stream: source.stream, name: source.name };
   const name = source.path;
   let info;
@@ -197,7 +202,7 @@ async function openSource(source: CsvSource): Promise<{ stream: Readable; name: 
     throw fileError(name, e);
   }
   if (info.isDirectory()) throw new InputError(`${name}: is a directory, not a CSV file; give the path of a file`);
-  return { stream: createReadStream(name), name };
+  return { stream: createReadStream(name), name, size: info.size };
 }
 
 function fileError(name: string, e: unknown): InputError {
@@ -219,8 +224,13 @@ function checkOptions(options: LoadOptions): { delimiter: string; missing: Set<s
 /** Loads a CSV into a Table. Throws InputError naming the file, line or column on bad input. */
 export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Promise<Table> {
   const { delimiter, missing } = checkOptions(options);
-  const { stream, name } = await openSource(source);
+  const { stream, name, size } = await openSource(source);
   const decoder = new HashingDecoder(name);
+  if (options.onProgress) {
+    const report = options.onProgress;
+    let read = 0;
+    stream.on('data', (chunk: Buffer | string) => report((read += chunk.length), size));
+  }
   const raw: RawColumn[] = [];
   const lines = new GrowableCodes();
   let header: string[] | null = null;

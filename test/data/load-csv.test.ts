@@ -112,6 +112,16 @@ describe('loadCsv', () => {
     await expect(loadCsv({ path: tmp.dir })).rejects.toThrow(/is a directory, not a CSV file/);
   });
 
+  it('reports loading progress up to the file size', async () => {
+    const tmp = tempFolder();
+    const csv = `a,b\n${Array.from({ length: 20000 }, (_, i) => `${i},${i % 3}`).join('\n')}\n`;
+    const path = tmp.file('big.csv', csv);
+    const seen: [number, number | undefined][] = [];
+    await loadCsv({ path }, { onProgress: (b, t) => seen.push([b, t]) });
+    expect(seen.length).toBeGreaterThan(0);
+    expect(seen[seen.length - 1]).toEqual([Buffer.byteLength(csv), Buffer.byteLength(csv)]);
+  });
+
   it('honours --delimiter, --missing and --categorical', async () => {
     const t = await loadCsv(text('a;b\n1;-\n2;3\n'), { delimiter: ';', missing: ['', '-'], categorical: ['a'] });
     expect(t.byName.get('a')!.kind).toBe('categorical');
