@@ -8,7 +8,9 @@
  * of eval; exit codes too: 0 done, 2 bad input or usage.
  */
 import { type Command, Option } from 'commander';
+import { resolve } from 'node:path';
 import { loadCsv } from '../data/load-csv.js';
+import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
@@ -66,6 +68,8 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const holdout = flags.holdout === undefined ? undefined : parseHoldout(flags.holdout);
   const specs = flags.learner?.length ? flags.learner : DEFAULT_SEARCH;
 
+  // module: learners must be registered before the search space is read
+  await loadExternalLearners(specs.map((s) => s.split(';')[0]), io.cwd ?? resolve('.'));
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;

@@ -133,3 +133,13 @@ describe('the quick audit before tune', () => {
     expect((JSON.parse(off.stdout) as { warnings: string[] }).warnings.join(' ')).not.toMatch(/audit:/);
   });
 });
+
+describe('tune with a module: learner', () => {
+  it('loads the module before reading the search space (examples/external/centroid-learner.mjs)', async () => {
+    const r = await cli(['tune', penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--learner', 'module:./examples/external/centroid-learner.mjs', '--plan', 'kfold:3', '--json', '-', '--no-timing', '--no-audit']);
+    expect(r.stderr).toMatch(/1 candidate/);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as TuneReport;
+    expect(JSON.stringify(report)).toMatch(/centroid-learner/);
+  });
+});
