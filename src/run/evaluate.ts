@@ -22,57 +22,10 @@ import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
+import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
 export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
-
-interface Prediction {
-  readonly predicted: Int32Array | Float64Array;
-  readonly proba?: Float64Array;
-}
-
-function score(metric: Metric, actual: Target, pred: Prediction): number | null {
-  let v: number;
-  if (metric.task === 'classification') {
-    if (actual.task !== 'classification') return null;
-    if (metric.needsProba && !pred.proba) return null;
-    v = metric.fn({ actual: actual.codes, predicted: pred.predicted as Int32Array, classes: actual.classes.length, proba: pred.proba });
-  } else {
-    if (actual.task !== 'regression') return null;
-    v = metric.fn({ actual: actual.values, predicted: pred.predicted as Float64Array });
-  }
-  return Number.isFinite(v) ? v : null;
-}
-
-/** Concatenates fold predictions in fold order (for pooled metrics). */
-function concatPredictions(parts: readonly Prediction[], classes: number): Prediction {
-  const n = parts.reduce((s, p) => s + p.predicted.length, 0);
-  const first = parts[0].predicted;
-  const predicted = first instanceof Int32Array ? new Int32Array(n) : new Float64Array(n);
-  const withProba = parts.every((p) => p.proba);
-  const proba = withProba ? new Float64Array(n * classes) : undefined;
-  let at = 0;
-  for (const p of parts) {
-    predicted.set(p.predicted as never, at);
-    if (proba) proba.set(p.proba!, at * classes);
-    at += p.predicted.length;
-  }
-  return { predicted, proba };
-}
-
-function concatTargets(parts: readonly Target[]): Target {
-  const first = parts[0];
-  if (first.task === 'classification') {
-    const codes = new Int32Array(parts.reduce((s, p) => s + (p.task === 'classification' ? p.codes.length : 0), 0));
-    let at = 0;
-    for (const p of parts) if (p.task === 'classification') (codes.set(p.codes, at), (at += p.codes.length));
-    return { task: 'classification', codes, classes: first.classes };
-  }
-  const values = new Float64Array(parts.reduce((s, p) => s + (p.task === 'regression' ? p.values.length : 0), 0));
-  let at = 0;
-  for (const p of parts) if (p.task === 'regression') (values.set(p.values, at), (at += p.values.length));
-  return { task: 'regression', values };
-}
 
 function meanOf(values: readonly number[]): number {
   return values.reduce((s, v) => s + v, 0) / values.length;
@@ -203,7 +156,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     l.times.fitMs += r.fitMs;
     l.times.predictMs += r.predictMs;
     const scores: Record<string, number | null> = {};
-    for (const m of metrics) scores[m.name] = score(m, r.actual, r);
+    for (const m of metrics) scores[m.name] = scoreOf(m, r.actual, r);
     const testRows = r.predicted.length;
     if (r.foldIndex < 0) {
       l.final = { trainRows: r.trainRows, testRows, scores };
@@ -233,7 +186,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${folds.length} folds; its summary uses the other folds`);
       }
       summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
-      pooled[m.name] = score(m, pooledActual, pooledPred);
+      pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
     }
     const final = perLearner[li].final;
     const report: LearnerReport = {

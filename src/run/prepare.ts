@@ -74,7 +74,8 @@ function resolveCandidates(problem: Problem, options: EvaluateOptions): Candidat
   return list;
 }
 
-function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
+/** The metrics by name (default: the task's list), checked against the task, headline first. */
+export function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
   const list = names?.length ? names : defaultMetrics(problem.task);
   const out: Metric[] = [];
   for (const name of list) {

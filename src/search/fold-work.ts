@@ -27,7 +27,7 @@ import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../learners/kn
 import type { Learner, Params, Target } from '../learners/types.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { type SplitData, subsetTarget } from '../run/tasks.js';
-import type { Prediction } from './predictions.js';
+import type { Prediction } from '../run/scoring.js';
 import type { SearchCandidate } from './space.js';
 
 /** Counts of the work done, against what a plain loop over candidates would do. */

@@ -41,7 +41,7 @@ import type { BuiltPlan, PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
 import type { ScoreSummary } from '../report/types.js';
 import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../report/tune-types.js';
-import { checkSeed, DEFAULT_SEED } from '../run/prepare.js';
+import { checkSeed, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
@@ -52,7 +52,7 @@ import { newWorkCount, predictAll, type WorkCount } from './fold-work.js';
 import { splitHoldout } from './holdout-split.js';
 import { type InnerStat, innerStat, type Pick, PICK_RULES, pickCandidate, type PickRule } from './pick.js';
 import { allRows, planOver, type SubsetPlan } from './plan-over.js';
-import { concatPredictions, concatTargets, type Prediction, scoreOf } from './predictions.js';
+import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../run/scoring.js';
 import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
 
 export const TUNE_SCHEMA = 'foldwise-tune/1';
@@ -87,16 +87,6 @@ export interface TuneOptions extends ProblemOptions {
   readonly timing?: boolean;
 }
 
-function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
-  const list = names?.length ? names : defaultMetrics(problem.task);
-  const out: Metric[] = [];
-  for (const name of list) {
-    const m = getMetric(name);
-    if (m.task !== problem.task) throw new UsageError(`--metric ${name}: a ${m.task} metric, but the task is ${problem.task}`);
-    if (!out.includes(m)) out.push(m);
-  }
-  return out;
-}
 
 /** Rethrows a plan error of the inner plan under the --inner option's name. */
 function asInner(e: unknown, where: string): never {

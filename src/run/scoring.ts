@@ -1,7 +1,7 @@
 /**
- * Predictions and their scores, as the search uses them: one prediction per candidate and split,
- * scored by a metric exactly as `eval` scores a fold (an undefined or non-finite score is null;
- * a probability metric is null for a model without probabilities).
+ * Predictions and their scores, shared by eval and tune: a metric on one test part (an undefined
+ * or non-finite score is null; a probability metric is null for a model without probabilities),
+ * and the concatenations that pooled out-of-fold scores are computed on.
  */
 import type { Target } from '../learners/types.js';
 import type { Metric } from '../metrics/types.js';
@@ -39,13 +39,17 @@ export function concatPredictions(parts: readonly Prediction[], classes: number)
   return proba ? { predicted, proba } : { predicted };
 }
 
-/** The targets of `idx` rows, concatenated over parts. */
+/** Targets concatenated over parts, in order. */
 export function concatTargets(parts: readonly Target[]): Target {
   const first = parts[0];
   if (first.task === 'classification') {
-    const all = parts.flatMap((p) => (p.task === 'classification' ? Array.from(p.codes) : []));
-    return { task: 'classification', codes: Int32Array.from(all), classes: first.classes };
+    const codes = new Int32Array(parts.reduce((s, p) => s + (p.task === 'classification' ? p.codes.length : 0), 0));
+    let at = 0;
+    for (const p of parts) if (p.task === 'classification') (codes.set(p.codes, at), (at += p.codes.length));
+    return { task: 'classification', codes, classes: first.classes };
   }
-  const all = parts.flatMap((p) => (p.task === 'regression' ? Array.from(p.values) : []));
-  return { task: 'regression', values: Float64Array.from(all) };
+  const values = new Float64Array(parts.reduce((s, p) => s + (p.task === 'regression' ? p.values.length : 0), 0));
+  let at = 0;
+  for (const p of parts) if (p.task === 'regression') (values.set(p.values, at), (at += p.values.length));
+  return { task: 'regression', values };
 }
