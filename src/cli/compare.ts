@@ -10,9 +10,11 @@ import { compareReports } from '../compare/compare-reports.js';
 import { readReport } from '../compare/read-report.js';
 import { renderCompareMarkdown } from '../compare/render.js';
 import { EXIT_OK } from '../errors.js';
+import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import type { Io } from './run.js';
 
 interface CompareFlags {
+  json?: string;
   metric?: string;
   learner?: string[];
   verbose?: boolean;
@@ -21,11 +23,17 @@ interface CompareFlags {
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
 function runCompare(firstPath: string, secondPath: string, flags: CompareFlags, io: Io): number {
+  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   const first = readReport(firstPath, 'compare');
   const second = readReport(secondPath, 'compare');
   const result = compareReports(first, second, { metric: flags.metric, learners: flags.learner });
   for (const w of result.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
-  io.stdout.write(renderCompareMarkdown(result));
+  if (flags.json) {
+    const text = `${JSON.stringify({ schema: 'foldwise-compare/1', ...result }, null, 2)}\n`;
+    if (flags.json === '-') io.stdout.write(text);
+    else writeFileAtomic(flags.json, text, '--json');
+  }
+  if (flags.json !== '-') io.stdout.write(renderCompareMarkdown(result));
   return EXIT_OK;
 }
 
@@ -37,6 +45,7 @@ export function registerCompare(prog: Command, io: Io, setCode: (code: number) =
     .argument('<second>', 'the second JSON report; differences are second minus first')
     .option('--metric <name>', 'the metric to compare (default: the first report\'s headline)')
     .option('--learner <spec>', 'a learner spec present in both reports (repeatable; default: every spec in both)', collect)
+    .option('--json <file>', 'also write the comparison as JSON (schema/compare.schema.json) to a file, or - for standard output instead of Markdown')
     .option('--verbose', 'print stack traces of errors')
     .action((first: string, second: string, flags: CompareFlags) => setCode(runCompare(first, second, flags, io)));
 }

@@ -144,3 +144,30 @@ it('keeps the reports it reads unchanged', async () => {
   await cli(['compare', a, again]);
   expect(readFileSync(a, 'utf8')).toBe(before);
 });
+
+describe('foldwise compare --json', () => {
+  it('writes the comparison as JSON that validates against schema/compare.schema.json', async () => {
+    const { Ajv } = await import('ajv');
+    const schema = JSON.parse(readFileSync(new URL('../../schema/compare.schema.json', import.meta.url), 'utf8'));
+    const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
+    const { a, noFlipper } = await reports();
+    const r = await cli(['compare', a, noFlipper, '--learner', 'knn', '--json', '-']);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout);
+    expect(validate.errors ?? []).toEqual([]);
+    expect(validate(out)).toBe(true);
+    expect(out.schema).toBe('foldwise-compare/1');
+    expect(out.rows.length).toBe(1);
+    // diff = mean over folds of (second minus first), recomputed with simple-statistics
+    const first = (JSON.parse(readFileSync(a, 'utf8')) as Report).learners.find((l) => l.spec === 'knn')!;
+    const second = (JSON.parse(readFileSync(noFlipper, 'utf8')) as Report).learners.find((l) => l.spec === 'knn')!;
+    expect(first.folds.length).toBe(10);
+    const diffs = first.folds.map((f, i) => second.folds[i].scores.accuracy! - f.scores.accuracy!);
+    expect(Math.abs(out.rows[0].stats.diff - mean(diffs))).toBeLessThan(1e-12);
+    const file = join(tmp.dir, 'cmp.json');
+    const w = await cli(['compare', a, noFlipper, '--learner', 'knn', '--json', file]);
+    expect(w.code).toBe(0);
+    expect(w.stdout).toContain('# foldwise compare');
+    expect(JSON.parse(readFileSync(file, 'utf8'))).toEqual(out);
+  });
+});
