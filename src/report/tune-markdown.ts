@@ -69,6 +69,15 @@ export function renderTuneMarkdown(r: TuneReport): string {
     '',
   );
 
+  const cmp = r.comparisons?.pairs[0];
+  if (cmp) {
+    const ci = cmp.ci95 ? `${num(cmp.ci95[0])} to ${num(cmp.ci95[1])}` : '–';
+    out.push(
+      `Tuned against the baseline on the same outer folds (${head}, tuned minus baseline, paired): ${num(cmp.diff)} (95% corrected interval ${ci}), corrected t ${cmp.t === null ? '–' : cmp.t.toFixed(2)}, p ${num(cmp.p)}; won ${cmp.wins}, tied ${cmp.ties}, lost ${cmp.losses} of ${cmp.folds} folds.`,
+      '',
+    );
+  }
+
   const rec = r.recommendation;
   const top = r.stability.winners[0];
   const folds = r.outer.folds.length;

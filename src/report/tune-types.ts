@@ -9,6 +9,7 @@
  *   search rows: the best of many inner means, optimistic by construction (Varma & Simon 2006,
  *   BMC Bioinformatics 7:91). The recommended candidate is the one to deploy, not its score.
  */
+import type { ReportComparisons } from '../compare/types.js';
 import type { Params, Task } from '../learners/types.js';
 import type { ScoreSummary } from './types.js';
 
@@ -165,6 +166,11 @@ export interface TuneReport {
     readonly spec: string;
     readonly scores: Readonly<Record<string, number | null>>;
   };
+  /**
+   * the tuned outer estimate ("tuned": each outer fold's pick) against the baseline fitted on the
+   * same outer folds, on the headline metric, with the statistics of eval's comparisons
+   */
+  readonly comparisons?: ReportComparisons;
   readonly warnings: readonly string[];
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */
   readonly timing?: {

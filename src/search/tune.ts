@@ -28,6 +28,10 @@
  * fits deriveSeed(seed, "fit", stage..., learner) where the stage names the split.
  */
 import { quickAudit } from '../audit/quick-audit.js';
+import { pairedStats } from '../compare/paired-stats.js';
+import type { ReportComparisons } from '../compare/types.js';
+import { COMPARISON_LEVEL } from '../compare/within-report.js';
+import { baseline } from '../learners/baseline.js';
 import { performance } from 'node:perf_hooks';
 import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
@@ -216,6 +220,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
   const work = newWorkCount();
   const perFold: InnerStat[][] = [];
   const outerFolds: TuneOuterFold[] = [];
+  const baselineScores: (number | null)[] = [];
   const outerPreds: Prediction[] = [];
   const outerActual: Target[] = [];
   const repeats = outer.plan.repeats;
@@ -235,6 +240,10 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     const yTest = subsetTarget(y, f.test);
     outerPreds.push(pred);
     outerActual.push(yTest);
+    // the baseline on the same outer split, for the paired comparison of the tuned estimate
+    const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), {}, { rng: createRng(0), seed: 0 });
+    const bTest = split.matrix('test', false);
+    baselineScores.push(scoreOf(head, yTest, { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) }));
     outerFolds.push({
       repeat: f.repeat,
       fold: f.fold,
@@ -287,6 +296,24 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
     pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
   }
+
+  // the tuned estimate against the baseline on the same outer folds (as eval compares learners)
+  const paired = outerFolds.map((f, i) => [f.scores[head.name], baselineScores[i]] as const).filter((p): p is readonly [number, number] => p[0] !== null && p[1] !== null);
+  const comparisons: ReportComparisons | undefined = paired.length
+    ? {
+        metric: head.name,
+        higherIsBetter: head.higherIsBetter,
+        level: COMPARISON_LEVEL,
+        pairs: [
+          {
+            learner: 'tuned',
+            reference: 'baseline',
+            against: ['baseline'],
+            ...pairedStats(paired.map((p) => p[0]), paired.map((p) => p[1]), { testRows: testMean, trainRows: trainMean }, head.higherIsBetter, outerFolds.length - paired.length),
+          },
+        ],
+      }
+    : undefined;
 
   // stability of the picks over the outer folds
   const wins = new Map<number, number>();
@@ -361,6 +388,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
       matchesTopWinner: winners[0].id === rec.id,
     },
     ...(holdout ? { holdout } : {}),
+    ...(comparisons ? { comparisons } : {}),
     warnings: [...new Set(warnings)],
     ...(options.timing === false ? {} : { timing: { totalMs: performance.now() - started, fitMs: work.fitMs, predictMs: work.predictMs } }),
   };

@@ -3,6 +3,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { TuneReport } from '../../src/report/tune-types.js';
+import type { Report } from '../../src/report/types.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
@@ -141,5 +142,24 @@ describe('tune with a module: learner', () => {
     expect(r.code).toBe(0);
     const report = JSON.parse(r.stdout) as TuneReport;
     expect(JSON.stringify(report)).toMatch(/centroid-learner/);
+  });
+});
+
+describe('tune compares the tuned estimate with the baseline', () => {
+  it('pairs outer folds with the baseline fitted on them; its mean equals eval\'s baseline on the same plan and seed', async () => {
+    const r = await cli([...ARGS, '--learner', 'knn:k=3|9', '--plan', 'kfold:5', '--json', '-', '--no-audit']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout) as TuneReport;
+    expect(validate(report)).toBe(true);
+    const c = report.comparisons!.pairs[0];
+    expect(c).toMatchObject({ learner: 'tuned', reference: 'baseline', folds: 5 });
+    expect(Math.abs(c.learnerMean - report.outer.summary.accuracy!.mean)).toBeLessThan(1e-12);
+    // without a holdout, tune's outer folds are eval's folds for the same plan and seed
+    const e = await cli(['eval', penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--learner', 'knn', '--plan', 'kfold:5', '--json', '-', '--no-timing', '--no-audit', '--jobs', '1']);
+    const evalBaseline = (JSON.parse(e.stdout) as Report).learners[0];
+    expect(evalBaseline.spec).toBe('baseline');
+    expect(Math.abs(c.referenceMean - evalBaseline.summary.accuracy!.mean)).toBeLessThan(1e-12);
+    expect(c.direction).toBe('better');
+    expect(r.stdout.length).toBeGreaterThan(0);
   });
 });
