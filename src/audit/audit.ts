@@ -5,7 +5,7 @@
  * straddling and the single-feature scores refer to the folds eval would use. Pure: no
  * printing, no clock, no randomness beyond the plan's seeded generator.
  */
-import { defineProblem } from '../data/problem.js';
+import { dataSection, defineProblem } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { parsePlan } from '../plans/index.js';
 import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
@@ -42,19 +42,7 @@ export function audit(table: Table, options: AuditOptions): AuditReport {
     schema: AUDIT_SCHEMA,
     tool: { name: 'foldwise', version: VERSION },
     command: 'audit',
-    data: {
-      path: table.source,
-      sha256: table.fingerprint.sha256,
-      rows: table.rows,
-      columns: table.columns.length,
-      rowsUsed: problem.rows.length,
-      excludedRows: problem.excludedRows,
-      target: problem.targetName,
-      task: problem.task,
-      ...(y.task === 'classification' ? { classes: y.classes } : {}),
-      features: problem.features.map((f) => f.name),
-      dropped: problem.dropped,
-    },
+    data: dataSection(problem),
     plan: {
       kind: spec.kind,
       text: ctx.planText,

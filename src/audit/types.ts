@@ -4,6 +4,7 @@
  * missingness, unused group or time structure), with the evidence and what to do about it.
  * Its JSON Schema is schema/audit.schema.json (format `foldwise-audit/1`).
  */
+import type { DataSection } from '../report/types.js';
 import type { ProblemOptions } from '../data/problem.js';
 import type { Task } from '../learners/types.js';
 import type { PlanSpec } from '../plans/types.js';
@@ -212,19 +213,7 @@ export interface AuditReport {
   readonly schema: typeof AUDIT_SCHEMA;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
   readonly command: 'audit';
-  readonly data: {
-    readonly path: string;
-    readonly sha256: string;
-    readonly rows: number;
-    readonly columns: number;
-    readonly rowsUsed: number;
-    readonly excludedRows: number;
-    readonly target: string;
-    readonly task: Task;
-    readonly classes?: readonly string[];
-    readonly features: readonly string[];
-    readonly dropped: readonly string[];
-  };
+  readonly data: DataSection;
   readonly plan: {
     readonly kind: string;
     readonly text: string;

@@ -6,6 +6,7 @@
 import { closeNames, InputError, UsageError } from '../errors.js';
 import type { Target, Task } from '../learners/types.js';
 import { quoted } from './load-csv.js';
+import type { DataSection } from '../report/types.js';
 import type { Column, Table } from './types.js';
 
 /** An integer target with at most this many distinct values is taken as classification. */
@@ -170,5 +171,23 @@ export function defineProblem(table: Table, options: ProblemOptions): Problem {
     dropped: [...drop],
     ...(groupCol ? { groupName: groupCol.name, groups, groupLevels } : {}),
     ...(orderCol ? { orderName: orderCol.name, order } : {}),
+  };
+}
+
+/** The data section every report carries (eval, tune, audit): file, fingerprint, problem. */
+export function dataSection(problem: Problem): DataSection {
+  const { table, target: y } = problem;
+  return {
+    path: table.source,
+    sha256: table.fingerprint.sha256,
+    rows: table.rows,
+    columns: table.columns.length,
+    rowsUsed: problem.rows.length,
+    excludedRows: problem.excludedRows,
+    target: problem.targetName,
+    task: problem.task,
+    ...(y.task === 'classification' ? { classes: y.classes } : {}),
+    features: problem.features.map((f) => f.name),
+    dropped: problem.dropped,
   };
 }

@@ -9,6 +9,7 @@
  *   search rows: the best of many inner means, optimistic by construction (Varma & Simon 2006,
  *   BMC Bioinformatics 7:91). The recommended candidate is the one to deploy, not its score.
  */
+import type { DataSection } from './types.js';
 import type { ReportComparisons } from '../compare/types.js';
 import type { Params, Task } from '../learners/types.js';
 import type { ScoreSummary } from './types.js';
@@ -74,19 +75,7 @@ export interface TuneReport {
   readonly schema: string;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
   readonly command: 'tune';
-  readonly data: {
-    readonly path: string;
-    readonly sha256: string;
-    readonly rows: number;
-    readonly columns: number;
-    readonly rowsUsed: number;
-    readonly excludedRows: number;
-    readonly target: string;
-    readonly task: Task;
-    readonly classes?: readonly string[];
-    readonly features: readonly string[];
-    readonly dropped: readonly string[];
-  };
+  readonly data: DataSection;
   readonly plan: {
     readonly outer: TunePlanInfo;
     /** the inner plan; folds and repeats as built on all search rows */

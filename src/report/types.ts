@@ -42,23 +42,26 @@ export interface LearnerReport {
   readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>> };
 }
 
+/** What every report says about its data: the same fields in eval, tune and audit reports. */
+export interface DataSection {
+  readonly path: string;
+  readonly sha256: string;
+  readonly rows: number;
+  readonly columns: number;
+  readonly rowsUsed: number;
+  readonly excludedRows: number;
+  readonly target: string;
+  readonly task: Task;
+  readonly classes?: readonly string[];
+  readonly features: readonly string[];
+  readonly dropped: readonly string[];
+}
+
 export interface Report {
   readonly schema: string;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
   readonly command: 'eval';
-  readonly data: {
-    readonly path: string;
-    readonly sha256: string;
-    readonly rows: number;
-    readonly columns: number;
-    readonly rowsUsed: number;
-    readonly excludedRows: number;
-    readonly target: string;
-    readonly task: Task;
-    readonly classes?: readonly string[];
-    readonly features: readonly string[];
-    readonly dropped: readonly string[];
-  };
+  readonly data: DataSection;
   readonly plan: {
     readonly kind: string;
     /** the plan as text, e.g. kfold:10 */

@@ -12,6 +12,7 @@
  * from (seed, "fit", learner spec, repeat, fold).
  */
 import { performance } from 'node:perf_hooks';
+import { dataSection } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { InputError } from '../errors.js';
 import type { Target } from '../learners/types.js';
@@ -61,22 +62,9 @@ export interface TaskRecord {
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {
-  const { table, problem, plan, planSpec, metrics, candidates } = prepared;
-  const y = problem.target;
+  const { problem, plan, planSpec, metrics, candidates } = prepared;
   return {
-    data: {
-      path: table.source,
-      sha256: table.fingerprint.sha256,
-      rows: table.rows,
-      columns: table.columns.length,
-      rowsUsed: problem.rows.length,
-      excludedRows: problem.excludedRows,
-      target: problem.targetName,
-      task: problem.task,
-      ...(y.task === 'classification' ? { classes: y.classes } : {}),
-      features: problem.features.map((f) => f.name),
-      dropped: problem.dropped,
-    },
+    data: dataSection(problem),
     plan: {
       kind: planSpec.kind,
       text: prepared.planText,

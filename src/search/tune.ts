@@ -33,7 +33,7 @@ import type { ReportComparisons } from '../compare/types.js';
 import { COMPARISON_LEVEL } from '../compare/within-report.js';
 import { baseline } from '../learners/baseline.js';
 import { performance } from 'node:perf_hooks';
-import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
+import { dataSection, defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { quoted } from '../data/load-csv.js';
 import { InputError, UsageError } from '../errors.js';
@@ -337,19 +337,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     schema: TUNE_SCHEMA,
     tool: { name: 'foldwise', version: VERSION },
     command: 'tune',
-    data: {
-      path: table.source,
-      sha256: table.fingerprint.sha256,
-      rows: table.rows,
-      columns: table.columns.length,
-      rowsUsed: n,
-      excludedRows: problem.excludedRows,
-      target: problem.targetName,
-      task: problem.task,
-      ...(y.task === 'classification' ? { classes: y.classes } : {}),
-      features: problem.features.map((f) => f.name),
-      dropped: problem.dropped,
-    },
+    data: dataSection(problem),
     plan: {
       outer: { kind: outerSpec.kind, text: formatPlan(outerSpec), folds: outer.plan.foldsPerRepeat, repeats: outer.plan.repeats, stratified: outer.stratified },
       inner: { kind: innerSpec.kind, text: formatPlan(innerSpec), folds: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified },
