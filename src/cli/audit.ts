@@ -4,13 +4,14 @@
  * and/or JSON. Loader options, --plan, --seed and the exit codes are those of eval: 0 done
  * (whatever was found), 2 bad input or usage.
  */
+import { writeOutputs } from './output.js';
 import { Command, Option } from 'commander';
 import { audit } from '../audit/audit.js';
 import { renderAuditJson, renderAuditMarkdown } from '../audit/render.js';
 import { AUDIT_LIMITS } from '../audit/types.js';
 import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, UsageError } from '../errors.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { checkWritable } from '../report/atomic.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { addDataOptions, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io } from './run.js';
 
@@ -49,15 +50,7 @@ async function runAudit(data: string, flags: AuditFlags, io: Io): Promise<number
     clusterThreshold,
   });
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
-  if (flags.json) {
-    if (flags.json === '-') io.stdout.write(renderAuditJson(report));
-    else writeFileAtomic(flags.json, renderAuditJson(report), '--json');
-  }
-  if (flags.markdown) {
-    if (flags.markdown === '-') io.stdout.write(renderAuditMarkdown(report));
-    else writeFileAtomic(flags.markdown, renderAuditMarkdown(report), '--markdown');
-  }
-  if (!flags.json && !flags.markdown) io.stdout.write(renderAuditMarkdown(report));
+  writeOutputs(io, flags, { json: () => renderAuditJson(report), markdown: () => renderAuditMarkdown(report) });
   return EXIT_OK;
 }
 

@@ -1,9 +1,10 @@
 /** `foldwise merge PARTS... --json OUT`: parts of a sharded run into the report of the whole run. */
+import { writeOutputs } from './output.js';
 import type { Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { EXIT_OK, InputError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { checkWritable } from '../report/atomic.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { mergeParts, parsePartial } from '../run/partial.js';
@@ -38,16 +39,7 @@ export function registerMerge(prog: Command, io: Io, setCode: (code: number) => 
       if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
       const parts = paths.map((p) => parsePartial(readPart(p), p));
       const report = mergeParts(parts, paths, flags.timing);
-      const md = (): string => renderMarkdown(report, (m) => getMetric(m).higherIsBetter);
-      if (flags.json) {
-        if (flags.json === '-') io.stdout.write(renderJson(report));
-        else writeFileAtomic(flags.json, renderJson(report), '--json');
-      }
-      if (flags.markdown) {
-        if (flags.markdown === '-') io.stdout.write(md());
-        else writeFileAtomic(flags.markdown, md(), '--markdown');
-      }
-      if (!flags.json && !flags.markdown) io.stdout.write(md());
+      writeOutputs(io, flags, { json: () => renderJson(report), markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter) });
       setCode(EXIT_OK);
     });
 }

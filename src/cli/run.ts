@@ -30,6 +30,7 @@ import { registerTune } from './tune.js';
 import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
+import { writeOutputs } from './output.js';
 import { runSplit } from './split.js';
 
 export interface Io {
@@ -206,21 +207,11 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   }
   const report = result.report;
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
-  const md = (): string => renderMarkdown(report, (m) => getMetric(m).higherIsBetter);
-  if (flags.json) {
-    if (flags.json === '-') io.stdout.write(renderJson(report));
-    else writeFileAtomic(flags.json, renderJson(report), '--json');
-  }
-  if (flags.markdown) {
-    if (flags.markdown === '-') io.stdout.write(md());
-    else writeFileAtomic(flags.markdown, md(), '--markdown');
-  }
-  if (flags.html) {
-    const page = renderEvalHtml(report);
-    if (flags.html === '-') io.stdout.write(page);
-    else writeFileAtomic(flags.html, page, '--html');
-  }
-  if (!flags.json && !flags.markdown && !flags.html) io.stdout.write(md());
+  writeOutputs(io, flags, {
+    json: () => renderJson(report),
+    markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
+    html: () => renderEvalHtml(report),
+  });
   return EXIT_OK;
 }
 

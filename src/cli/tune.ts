@@ -7,13 +7,14 @@
  * Loader options, --seed, --impute, --no-stratify, --json, --markdown and --no-timing are those
  * of eval; exit codes too: 0 done, 2 bad input or usage.
  */
+import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
 import { resolve } from 'node:path';
 import { loadCsv } from '../data/load-csv.js';
 import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { checkWritable } from '../report/atomic.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
@@ -97,16 +98,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     audit: flags.audit,
   });
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
-  const json = (): string => `${JSON.stringify(report, null, 2)}\n`;
-  if (flags.json) {
-    if (flags.json === '-') io.stdout.write(json());
-    else writeFileAtomic(flags.json, json(), '--json');
-  }
-  if (flags.markdown) {
-    if (flags.markdown === '-') io.stdout.write(renderTuneMarkdown(report));
-    else writeFileAtomic(flags.markdown, renderTuneMarkdown(report), '--markdown');
-  }
-  if (!flags.json && !flags.markdown) io.stdout.write(renderTuneMarkdown(report));
+  writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report) });
   return EXIT_OK;
 }
 
