@@ -10,6 +10,7 @@
  * Source: Hastie, Tibshirani & Friedman, ESL 2nd ed., 6.6.3 (free PDF); Murphy, Machine
  * Learning: a Probabilistic Perspective, 3.5.
  */
+import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { checkFinite } from './external/standardise.js';
 import type { Learner, Matrix, Model } from './types.js';
@@ -56,16 +57,7 @@ function model(json: BayesJSON): Model {
     return out;
   };
   return {
-    predict(X) {
-      const pr = proba(X);
-      const out = new Int32Array(X.rows);
-      for (let i = 0; i < X.rows; i++) {
-        let best = 0;
-        for (let c = 1; c < C; c++) if (pr[i * C + c] > pr[i * C + best]) best = c;
-        out[i] = best;
-      }
-      return out;
-    },
+    predict: (X) => argmaxRows(proba(X), C),
     predictProba: proba,
     toJSON: () => json,
   };

@@ -8,6 +8,7 @@
  * - `maxFeatures: 1` means 100%, so one feature is asked for as a fraction;
  * - it draws one feature subset per tree, not per split: `features` has that meaning here.
  */
+import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { refForest, rowsOf, type RefForest } from './reference-libs.js';
 import type { Learner, Matrix, Model } from './types.js';
@@ -49,16 +50,7 @@ function wrap(saved: SavedRef, rf: RefForest): Model {
     return out;
   };
   return {
-    predict(X) {
-      const p = proba(X);
-      const out = new Int32Array(X.rows);
-      for (let i = 0; i < X.rows; i++) {
-        let best = 0;
-        for (let c = 1; c < C; c++) if (p[i * C + c] > p[i * C + best]) best = c;
-        out[i] = best;
-      }
-      return out;
-    },
+    predict: (X) => argmaxRows(proba(X), C),
     predictProba: proba,
     toJSON: () => saved,
   };

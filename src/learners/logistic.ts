@@ -22,6 +22,7 @@
  * coefficients grow without bound until `iterations` runs out (as the maximum-likelihood
  * estimate does not exist); a positive l2 always has a unique optimum.
  */
+import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { checkFinite, fitStandardiser, standardise, type Standardiser } from './external/standardise.js';
 import type { Learner, Matrix, Model } from './types.js';
@@ -266,16 +267,7 @@ function model(json: LogisticJSON): Model {
     return out;
   };
   return {
-    predict(X) {
-      const p = proba(X);
-      const out = new Int32Array(X.rows);
-      for (let i = 0; i < X.rows; i++) {
-        let best = 0;
-        for (let c = 1; c < C; c++) if (p[i * C + c] > p[i * C + best]) best = c;
-        out[i] = best;
-      }
-      return out;
-    },
+    predict: (X) => argmaxRows(proba(X), C),
     predictProba: proba,
     toJSON: () => json,
   };
