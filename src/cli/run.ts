@@ -20,6 +20,8 @@ import { renderJson } from '../report/json.js';
 import { renderEvalHtml } from '../report/html/index.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
+import { ON_FOLD_ERROR_CHOICES, type OnFoldError } from '../run/tasks.js';
+import { DEFAULT_TIMEOUT_S } from '../learners/command/protocol.js';
 import { execute } from '../run/execute.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
@@ -30,6 +32,7 @@ import { registerTune } from './tune.js';
 import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
+import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { writeOutputs } from './output.js';
 import { runSplit } from './split.js';
 
@@ -108,7 +111,8 @@ export function loadOptionsOf(flags: DataFlags): LoadOptions {
   };
 }
 
-interface EvalFlags extends DataFlags {
+interface EvalFlags extends DataFlags, CommandFlags {
+  onFoldError: OnFoldError;
   plan: string;
   stratify: boolean;
   learner?: string[];
@@ -167,6 +171,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   const jobs = parseJobs(flags.jobs);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
+  const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
   const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
@@ -187,7 +192,9 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     final: flags.final,
     timing: flags.timing,
     audit: flags.audit,
+    onFoldError: flags.onFoldError,
   }, {
+    commands,
     jobs,
     shard,
     journal: flags.journal,
@@ -207,6 +214,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   }
   const report = result.report;
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
+  if (commands?.keepTemp) io.stderr.write(`foldwise: --keep-temp: the folders of each fold are in ${commands.tempRoot} (foldwise-NAME-FOLD-*)\n`);
   writeOutputs(io, flags, {
     json: () => renderJson(report),
     markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
@@ -224,6 +232,10 @@ function listLearners(io: Io): number {
       io.stdout.write(`    ${p.name}=${p.default}  [${range}]  ${p.doc}\n`);
     }
   }
+  io.stdout.write('module:PATH  an ES module of yours with the learner interface (see README)\n');
+  io.stdout.write('command:NAME  a program of yours in any language, given with --command NAME=PROGRAM, run per fold through files (see README)\n');
+  io.stdout.write(`    timeout=${DEFAULT_TIMEOUT_S}  [number 0..604800]  seconds a fold may take\n`);
+  io.stdout.write('    prep=foldwise  [foldwise|raw]  foldwise preprocessing first, or the columns as read; other key=value options go to the program as text\n');
   return EXIT_OK;
 }
 
@@ -246,7 +258,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     })
     .showSuggestionAfterError(true);
 
-  addDataOptions(prog.command('eval').description('cross-validate learners on a CSV and report per-fold scores with summaries'))
+  addCommandOptions(addDataOptions(prog.command('eval').description('cross-validate learners on a CSV and report per-fold scores with summaries')))
     .option('--plan <plan>', 'resampling plan: kfold:K, kfold:KxR, loo, shuffle:N@F, holdout:A/B/C, forward:K', DEFAULT_PLAN)
     .option('--no-stratify', 'do not stratify classification plans by class')
     .option('--learner <spec>', 'learner NAME or NAME:key=value,... (repeatable; see foldwise learners)', collect)
@@ -264,6 +276,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
     .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')
     .option('--no-audit', 'skip the quick data audit that runs before evaluating')
+    .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
   addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))

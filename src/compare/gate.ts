@@ -9,9 +9,9 @@
  *    both reports, or by default the baseline report's best learner on that metric, leaving out
  *    the baseline learner unless it is the only one; --current-learner SPEC names a different
  *    learner in the current report (e.g. after an option change).
- * 3. Every fold of both learners must have a score of the metric: a report with any null fold
- *    score (a failed fold, or a metric undefined on a fold) is not comparable, since dropping
- *    folds on one side would bias the comparison.
+ * 3. Every fold of both learners must have a score of the metric: a report with a failed fold
+ *    (a command: learner under --on-fold-error skip) or a metric undefined on a fold is not
+ *    comparable, since dropping folds on one side would bias the comparison.
  * 4. Same folds (every (repeat, fold) on both sides with equal sizes): the paired rule;
  *    otherwise the unpaired rule (gate-rule.ts). At least 2 folds per run.
  * 5. --absolute-min X: also fail when the current mean is worse than X in the metric's better
@@ -43,6 +43,15 @@ export interface GateOptions {
 
 /** Every fold score of the metric, or an InputError naming the file and the folds without one. */
 function allScores(side: LoadedReport, learner: LearnerReport, metric: string): number[] {
+  const failed = learner.folds.filter((f) => f.failed !== undefined);
+  if (failed.length) {
+    const list = failed.slice(0, 3).map((f) => `repeat ${f.repeat + 1} fold ${f.fold + 1}`).join(', ');
+    throw new NotComparableError(
+      'gate',
+      [],
+      `${side.path}: ${learner.spec} failed in ${failed.length} of ${learner.folds.length} folds (${list}${failed.length > 3 ? ', …' : ''}); fix the learner and rerun before gating`,
+    );
+  }
   const missing = learner.folds.filter((f) => foldScore(f, metric) === null);
   if (missing.length) {
     const list = missing.slice(0, 3).map((f) => `repeat ${f.repeat + 1} fold ${f.fold + 1}`).join(', ');

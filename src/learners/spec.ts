@@ -3,8 +3,8 @@
  * - built-in: `NAME` or `NAME:key=value,key=value` (NAME lower-case letters, digits, '-');
  * - an ES module: `module:PATH` or `module:PATH;key=value,key=value`, PATH explicit (starting with
  *   `./`, `../` or `/`; never a bare package name), options after the first ';';
- * - reserved for external programs: `command:NAME` or `command:NAME;key=value,...` (parsed, but
- *   no such learner exists yet, so `getLearner` refuses it with a clear message).
+ * - an external program: `command:NAME` or `command:NAME;key=value,...`, NAME defined with
+ *   `--command NAME=PROGRAM` (src/learners/command/); options after the first ';'.
  * The learner name of a module or command spec is everything before the ';' (`module:./x.js`),
  * and that is the name `getLearner` resolves once the module is loaded (loadExternalLearners).
  * Every option is checked against the learner's declared ParamSpec before any fit, so a typo
@@ -113,6 +113,11 @@ export function resolveParams(learner: Learner, spec: LearnerSpec, task: Task): 
   const params = defaultParams(learner);
   for (const [key, raw] of spec.options) {
     const p = learner.params.find((q) => q.name === key);
+    if (!p && learner.openOptions) {
+      if (!/^[a-z][a-z0-9-]*$/.test(key)) throw new UsageError(`--learner ${spec.text}: option "${key}": names are lower-case letters, digits and -`);
+      params[key] = raw;
+      continue;
+    }
     if (!p) {
       const names = learner.params.map((q) => q.name);
       const hint = closeNames(key, names);
@@ -125,8 +130,16 @@ export function resolveParams(learner: Learner, spec: LearnerSpec, task: Task): 
   return params;
 }
 
-/** Canonical text of a learner with resolved params: options that differ from the defaults, in ParamSpec order. */
+/**
+ * Canonical text of a learner with resolved params: options that differ from the defaults, in
+ * ParamSpec order (then, for learners with open options, the free ones in sorted order).
+ */
 export function formatSpec(learner: Learner, params: Params): string {
   const parts = learner.params.filter((p) => params[p.name] !== p.default).map((p) => `${p.name}=${params[p.name]}`);
+  if (learner.openOptions) {
+    // free options after the declared ones, sorted, so the same options give the same spec
+    const declared = new Set(learner.params.map((p) => p.name));
+    for (const key of Object.keys(params).filter((k) => !declared.has(k)).sort()) parts.push(`${key}=${params[key]}`);
+  }
   return parts.length ? `${learner.name}${externalKind(learner.name) ? ';' : ':'}${parts.join(',')}` : learner.name;
 }

@@ -52,11 +52,33 @@ export type ParamSpec =
       readonly doc: string;
     };
 
+/**
+ * The fold a fit belongs to, as the runner sees it. Learners that fit and predict in one step
+ * outside foldwise (`command:` learners) need it; the others ignore it.
+ */
+export interface FoldView {
+  /** the task id, such as r1.f3 or final */
+  readonly label: string;
+  /** the fold's test rows, preprocessed exactly as the training matrix (what predict gets) */
+  readonly test: Matrix;
+  /** a name per matrix column: the numeric column, or `column=level` */
+  readonly columns: readonly string[];
+  /** the target column's name */
+  readonly target: string;
+  /**
+   * The fold's rows as foldwise read them, before any preprocessing, as CSV text (header line
+   * first): the feature columns, and for `train` the target as the last column.
+   */
+  rawCsv(part: 'train' | 'test'): string;
+}
+
 export interface FitContext {
   /** Generator for this fit only, derived by the runner from the run's seed. */
   readonly rng: Rng;
   /** The derived seed the generator was made from (for learners that make their own). */
   readonly seed: number;
+  /** the fold of this fit, when the caller runs folds (the runner and tune always give it) */
+  readonly fold?: FoldView;
 }
 
 export interface Model {
@@ -76,6 +98,13 @@ export interface Learner {
   readonly needsScaling: boolean;
   /** one line for `foldwise learners` */
   readonly doc: string;
+  /**
+   * true when options not in `params` are accepted as free text (learners outside foldwise,
+   * whose options foldwise passes on without knowing them)
+   */
+  readonly openOptions?: boolean;
+  /** where a learner from outside comes from: the program and its arguments, or the module path */
+  readonly origin?: string;
   fit(X: Matrix, y: Target, params: Params, ctx: FitContext): Model;
   load(json: unknown): Model;
 }

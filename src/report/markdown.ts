@@ -92,10 +92,20 @@ function comparisonSection(report: Report): string[] {
   ];
 }
 
+/** One summary line per learner with failed folds (command: learners under --on-fold-error skip). */
+function failedLines(report: Report): string[] {
+  return report.learners.flatMap((l) => {
+    const failed = l.folds.filter((f) => f.failed !== undefined);
+    if (!failed.length) return [];
+    const where = failed.map((f) => `r${f.repeat + 1}.f${f.fold + 1}`).join(', ');
+    return [`- **Failed folds: ${cell(l.spec)} failed in ${failed.length} of ${l.folds.length} folds (${where})**; its scores use the other folds, and \`foldwise gate\` does not compare this report (the reasons are under Warnings)`];
+  });
+}
+
 /** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
 export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
   const head = report.metrics[0];
-  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ''];
+  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ...failedLines(report), ''];
 
   out.push(`## ${head} (headline)`, '');
   out.push(
@@ -146,7 +156,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
         String(f.fold + 1),
         String(f.trainRows),
         String(f.testRows),
-        ...report.learners.map((l) => num(l.folds[i]?.scores[head])),
+        ...report.learners.map((l) => (l.folds[i]?.failed ? 'failed' : num(l.folds[i]?.scores[head]))),
       ]),
     ),
     '',

@@ -24,7 +24,10 @@ export interface FoldScores {
   readonly fold: number;
   readonly trainRows: number;
   readonly testRows: number;
+  /** every score is null when the fold failed */
   readonly scores: Readonly<Record<string, number | null>>;
+  /** why the fold failed (a command: learner under --on-fold-error skip); absent otherwise */
+  readonly failed?: string;
 }
 
 export interface LearnerReport {
@@ -39,7 +42,7 @@ export interface LearnerReport {
   /** pooled confusion matrix: rows are actual classes, columns predicted, in data.classes order */
   readonly confusion?: readonly (readonly number[])[];
   /** scores on the holdout part, present only when it was scored (--final) */
-  readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>> };
+  readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>>; readonly failed?: string };
 }
 
 /** What every report says about its data: the same fields in eval, tune and audit reports. */

@@ -59,6 +59,8 @@ export interface TaskRecord {
   readonly proba?: Float64Array;
   readonly fitMs: number;
   readonly predictMs: number;
+  /** why the task failed; `predicted` is then empty */
+  readonly failed?: string;
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {
@@ -95,7 +97,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
     const { train, test } = splitRows(prepared, t.foldIndex);
     const r = byId.get(t.id);
     if (!r) throw new InputError(`the results of task ${t.id} are missing`);
-    if (r.predicted.length !== test.length) throw new InputError(`task ${t.id} has ${r.predicted.length} predictions for ${test.length} test rows`);
+    if (!r.failed && r.predicted.length !== test.length) throw new InputError(`task ${t.id} has ${r.predicted.length} predictions for ${test.length} test rows`);
     let actual = targets.get(t.foldIndex);
     if (!actual) targets.set(t.foldIndex, (actual = subsetTarget(prepared.problem.target, test)));
     const f = t.foldIndex >= 0 ? prepared.plan.folds[t.foldIndex] : { repeat: 0, fold: 0 };
@@ -111,6 +113,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       ...(r.proba ? { proba: r.proba } : {}),
       fitMs: r.fitMs,
       predictMs: r.predictMs,
+      ...(r.failed ? { failed: r.failed } : {}),
     };
   });
 }
@@ -137,17 +140,24 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     actual: [] as Target[],
     trainRows: [] as number[],
     times: { fitMs: 0, predictMs: 0 },
-    final: undefined as { trainRows: number; testRows: number; scores: Record<string, number | null> } | undefined,
+    final: undefined as { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string } | undefined,
+    failed: [] as string[],
   }));
   for (const r of records) {
     const l = perLearner[r.candidateIndex];
     l.times.fitMs += r.fitMs;
     l.times.predictMs += r.predictMs;
     const scores: Record<string, number | null> = {};
-    for (const m of metrics) scores[m.name] = scoreOf(m, r.actual, r);
-    const testRows = r.predicted.length;
+    for (const m of metrics) scores[m.name] = r.failed ? null : scoreOf(m, r.actual, r);
+    const testRows = r.actual.task === 'classification' ? r.actual.codes.length : r.actual.values.length;
     if (r.foldIndex < 0) {
-      l.final = { trainRows: r.trainRows, testRows, scores };
+      l.final = { trainRows: r.trainRows, testRows, scores, ...(r.failed ? { failed: r.failed } : {}) };
+      continue;
+    }
+    if (r.failed) {
+      // a failed fold is listed with null scores and left out of the pooled predictions
+      l.failed.push(`r${r.repeat + 1}.f${r.fold + 1}: ${r.failed}`);
+      l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores, failed: r.failed });
       continue;
     }
     l.preds.push(r);
@@ -158,23 +168,31 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
   const classes = frame.data.classes?.length ?? 0;
 
   const learners: LearnerReport[] = frame.learners.map((c, li) => {
-    const { folds, preds, actual } = perLearner[li];
-    const trainMean = meanOf(folds.map((f) => f.trainRows));
-    const testMean = meanOf(folds.map((f) => f.testRows));
-    const pooledActual = concatTargets(actual);
+    const { folds, preds, actual, failed } = perLearner[li];
+    const scored = folds.filter((f) => !f.failed);
+    const sized = scored.length ? scored : folds;
+    const trainMean = meanOf(sized.map((f) => f.trainRows));
+    const testMean = meanOf(sized.map((f) => f.testRows));
     const summary: Record<string, ScoreSummary | null> = {};
     const pooled: Record<string, number | null> = {};
-    const pooledPred = concatPredictions(preds, classes);
-    const noProba = metrics.filter((m) => m.needsProba && !pooledPred.proba).map((m) => m.name);
+    if (failed.length) {
+      const list = failed.slice(0, 3).join('; ');
+      warnings.push(
+        `${c.spec} failed in ${failed.length} of ${folds.length} folds (${list}${failed.length > 3 ? '; …' : ''}); its scores use the other folds, and the gate does not compare this report`,
+      );
+    }
+    const pooledActual = preds.length ? concatTargets(actual) : undefined;
+    const pooledPred = preds.length ? concatPredictions(preds, classes) : undefined;
+    const noProba = pooledPred ? metrics.filter((m) => m.needsProba && !pooledPred.proba).map((m) => m.name) : [];
     if (noProba.length) warnings.push(`${c.spec} gives no class probabilities, so ${noProba.join(', ')} ${noProba.length === 1 ? 'is' : 'are'} not reported for it`);
     for (const m of metrics) {
-      const values = folds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
-      const undefinedFolds = folds.length - values.length;
-      if (undefinedFolds > 0 && undefinedFolds < folds.length) {
-        warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${folds.length} folds; its summary uses the other folds`);
+      const values = scored.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
+      const undefinedFolds = scored.length - values.length;
+      if (undefinedFolds > 0 && undefinedFolds < scored.length) {
+        warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${scored.length} folds; its summary uses the other folds`);
       }
       summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
-      pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
+      pooled[m.name] = pooledActual && pooledPred ? scoreOf(m, pooledActual, pooledPred) : null;
     }
     const final = perLearner[li].final;
     const report: LearnerReport = {
@@ -184,7 +202,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
       folds,
       summary,
       pooled,
-      ...(pooledActual.task === 'classification'
+      ...(pooledActual?.task === 'classification' && pooledPred
         ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
         : {}),
       ...(final ? { final } : {}),

@@ -7,7 +7,7 @@
 import { performance } from 'node:perf_hooks';
 import type { Table } from '../data/types.js';
 import { FoldwiseError } from '../errors.js';
-import { loadExternalLearners } from '../learners/index.js';
+import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
 import type { Report } from '../report/types.js';
 import { assembleReport, frameOf, recordsOf } from './evaluate.js';
 import { identityOf } from './identity.js';
@@ -37,13 +37,15 @@ export interface ExecOptions {
   readonly stopRequested?: () => boolean;
   /** absolute folder that relative `module:` learner paths are resolved against */
   readonly baseDir?: string;
+  /** the programs of `command:` learners, their environment and temporary folder */
+  readonly commands?: CommandSetup;
 }
 
 export type ExecResult = { readonly kind: 'report'; readonly report: Report } | { readonly kind: 'partial'; readonly partial: PartialReport };
 
 export async function execute(table: Table, options: EvaluateOptions, exec: ExecOptions = {}): Promise<ExecResult> {
   const started = performance.now();
-  await loadExternalLearners(options.learners ?? [], exec.baseDir ?? '/');
+  await loadExternalLearners(options.learners ?? [], exec.baseDir ?? '/', exec.commands);
   const prepared = withAudit(prepareRun(table, options), options);
   const all = taskList(prepared);
   const mine = exec.shard ? shardTasks(all, exec.shard) : all;
@@ -65,7 +67,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
     };
     const jobs = Math.max(1, Math.floor(exec.jobs ?? 1));
     if (jobs > 1 && todo.length > 1) {
-      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/');
+      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands);
     } else {
       // one split at a time, yielding to the event loop in between so that a SIGINT handler
       // (which only runs when the loop gets control) can ask the run to stop

@@ -20,9 +20,12 @@ export interface RunIdentity {
   readonly features: readonly string[];
   readonly learners: readonly string[];
   readonly metrics: readonly string[];
+  /** the programs of command: learners (present only when the run has some) */
+  readonly programs?: readonly string[];
 }
 
 export function identityOf(p: Prepared): RunIdentity {
+  const programs = p.candidates.filter((c) => c.learner.name.startsWith('command:')).map((c) => `${c.learner.name}=${c.learner.origin ?? ''}`);
   return {
     sha256: p.table.fingerprint.sha256,
     rowsUsed: p.problem.rows.length,
@@ -38,6 +41,7 @@ export function identityOf(p: Prepared): RunIdentity {
     features: p.problem.features.map((f) => f.name),
     learners: p.candidates.map((c) => c.spec),
     metrics: p.metrics.map((m) => m.name),
+    ...(programs.length ? { programs } : {}),
   };
 }
 
@@ -48,6 +52,6 @@ const short = (v: unknown): string => {
 
 /** The fields where two identities differ, as "field (a vs b)"; empty when they are the same. */
 export function identityDiff(a: RunIdentity, b: RunIdentity): string[] {
-  const keys = Object.keys(a) as (keyof RunIdentity)[];
+  const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])] as (keyof RunIdentity)[];
   return keys.filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k} (${short(a[k])} vs ${short(b[k])})`);
 }

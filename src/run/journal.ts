@@ -3,7 +3,8 @@
  * identity); each further line is one finished task's result, written with one write call and
  * flushed to disk (fsync) before the next task is counted as done. Rerunning the same command
  * with the same journal skips the tasks it holds; a journal of another run is refused with
- * what differs. A last line cut short by a kill is ignored (that task simply runs again).
+ * what differs. A last line cut short by a kill is ignored (that task simply runs again), and a
+ * failed task (--on-fold-error skip) is not written, so resuming tries it again.
  */
 import { closeSync, existsSync, fsyncSync, openSync, readFileSync, writeSync } from 'node:fs';
 import { InputError, UsageError } from '../errors.js';
@@ -71,7 +72,10 @@ export function openJournal(path: string, identity: RunIdentity, classification:
   return {
     path,
     done,
-    append: (r) => line(resultToJSON(r)),
+    // a failed task is not journaled: a resumed run tries it again
+    append: (r) => {
+      if (!r.failed) line(resultToJSON(r));
+    },
     close: () => closeSync(fd),
   };
 }

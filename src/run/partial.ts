@@ -27,6 +27,7 @@ interface RecordJSON {
   readonly proba?: number[];
   readonly fitMs: number;
   readonly predictMs: number;
+  readonly failed?: string;
 }
 
 export interface PartialReport {
@@ -60,6 +61,7 @@ export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: Sh
       ...(r.proba ? { proba: Array.from(r.proba) } : {}),
       fitMs: r.fitMs,
       predictMs: r.predictMs,
+      ...(r.failed ? { failed: r.failed } : {}),
     })),
   };
 }
@@ -81,6 +83,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     actual,
     predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(j.predicted),
     ...(j.proba ? { proba: Float64Array.from(j.proba) } : {}),
+    ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
   };
 }
 

@@ -6,6 +6,7 @@
 import { Worker } from 'node:worker_threads';
 import type { Table } from '../data/types.js';
 import { FoldwiseError } from '../errors.js';
+import type { CommandSetup } from '../learners/index.js';
 import type { EvaluateOptions } from './prepare.js';
 import { shareTable } from './share.js';
 import type { TaskResult, TaskSpec } from './tasks.js';
@@ -43,6 +44,7 @@ export async function runPool(
   done?: (r: TaskResult) => void,
   stopRequested?: () => boolean,
   baseDir = '/',
+  commands?: CommandSetup,
 ): Promise<TaskResult[]> {
   const queue = batches(tasks);
   const results: TaskResult[] = [];
@@ -64,7 +66,7 @@ export async function runPool(
         w.postMessage(batch);
       };
       for (let i = 0; i < count; i++) {
-        const w = new Worker(workerUrl(), { workerData: { table: shared, options, baseDir } });
+        const w = new Worker(workerUrl(), { workerData: { table: shared, options, baseDir, commands } });
         workers.push(w);
         running++;
         w.on('message', (msg: { results?: TaskResult[]; error?: string; exitCode?: number }) => {

@@ -15,7 +15,7 @@ import type { PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
 import { quickAudit } from '../audit/quick-audit.js';
 import { planFor } from './plan-for.js';
-import type { Candidate, TaskContext } from './tasks.js';
+import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
 
 export const DEFAULT_SEED = 1;
 export const DEFAULT_PLAN = 'kfold:10';
@@ -40,6 +40,8 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly timing?: boolean;
   /** run the quick data audit first and add its findings to the warnings (default true) */
   readonly audit?: boolean;
+  /** a failed fold of a command: learner stops the run (fail, default) or is recorded (skip) */
+  readonly onFoldError?: OnFoldError;
 }
 
 export interface Prepared extends TaskContext {
@@ -131,6 +133,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     impute,
     seed,
     final: Boolean(options.final && plan.holdout),
+    onFoldError: options.onFoldError ?? 'fail',
     warnings,
   };
 }

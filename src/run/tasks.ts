@@ -7,7 +7,9 @@
  */
 import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
-import type { Learner, Matrix, Params, Target } from '../learners/types.js';
+import { problemRowsCsv } from '../data/csv-text.js';
+import { CommandFoldError } from '../learners/command/errors.js';
+import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
 import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
 import { createRng, deriveSeed } from './rng.js';
@@ -30,11 +32,18 @@ export interface TaskSpec {
 
 export interface TaskResult {
   readonly id: string;
+  /** empty when the task failed */
   readonly predicted: Int32Array | Float64Array;
   readonly proba?: Float64Array;
   readonly fitMs: number;
   readonly predictMs: number;
+  /** why the task failed (a command: learner's fold under --on-fold-error skip) */
+  readonly failed?: string;
 }
+
+/** What to do when a fold of a learner from outside fails: stop the run, or record it and go on. */
+export const ON_FOLD_ERROR_CHOICES = ['fail', 'skip'] as const;
+export type OnFoldError = (typeof ON_FOLD_ERROR_CHOICES)[number];
 
 /** What a task needs: the problem, the built plan, the learners and the settings. */
 export interface TaskContext {
@@ -45,6 +54,8 @@ export interface TaskContext {
   readonly seed: number;
   /** also run the final tasks (holdout scored once) */
   readonly final: boolean;
+  /** a failed fold of a command: learner stops the run (fail, the default) or is recorded (skip) */
+  readonly onFoldError?: OnFoldError;
 }
 
 export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: number): string {
@@ -92,6 +103,16 @@ export class SplitData {
   ) {
     this.prep = fitPrep(problem, train, impute);
   }
+  /** The split as a fold seen by a learner (`ctx.fold`), its test matrix scaled or not. */
+  view(label: string, scale: boolean): FoldView {
+    return {
+      label,
+      test: this.matrix('test', scale),
+      columns: this.prep.names,
+      target: this.problem.targetName,
+      rawCsv: (part) => problemRowsCsv(this.problem, part === 'train' ? this.train : this.test, part === 'train'),
+    };
+  }
   matrix(part: 'train' | 'test', scale: boolean): Matrix {
     const key = `${part}:${scale}`;
     let m = this.cache.get(key);
@@ -137,11 +158,18 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
   const seed = f ? deriveSeed(ctx.seed, 'fit', c.spec, f.repeat, f.fold) : deriveSeed(ctx.seed, 'final', c.spec);
   const Xtrain = split.matrix('train', c.learner.needsScaling);
   const Xtest = split.matrix('test', c.learner.needsScaling);
+  const fold = split.view(f ? `r${f.repeat + 1}.f${f.fold + 1}` : 'final', c.learner.needsScaling);
   const t0 = performance.now();
-  const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed });
-  const t1 = performance.now();
-  const predicted = model.predict(Xtest);
-  const proba = model.predictProba?.(Xtest);
-  const t2 = performance.now();
-  return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1 };
+  try {
+    const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed, fold });
+    const t1 = performance.now();
+    const predicted = model.predict(Xtest);
+    const proba = model.predictProba?.(Xtest);
+    const t2 = performance.now();
+    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1 };
+  } catch (e) {
+    if (!(e instanceof CommandFoldError) || ctx.onFoldError !== 'skip') throw e;
+    const empty = ctx.problem.task === 'classification' ? new Int32Array(0) : new Float64Array(0);
+    return { id: t.id, predicted: empty, fitMs: performance.now() - t0, predictMs: 0, failed: e.message };
+  }
 }

@@ -5,14 +5,14 @@
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { FoldwiseError } from '../errors.js';
-import { loadExternalLearners } from '../learners/index.js';
+import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
 import { prepareRun, type EvaluateOptions } from './prepare.js';
 import { tableFromShared, type SharedTable } from './share.js';
 import { runTasks, taskList } from './tasks.js';
 
-const { table, options, baseDir } = workerData as { table: SharedTable; options: EvaluateOptions; baseDir: string };
+const { table, options, baseDir, commands } = workerData as { table: SharedTable; options: EvaluateOptions; baseDir: string; commands?: CommandSetup };
 // module: learners are registered per thread; messages wait in the port until the handler is set
-await loadExternalLearners(options.learners ?? [], baseDir);
+await loadExternalLearners(options.learners ?? [], baseDir, commands);
 const prepared = prepareRun(tableFromShared(table), options);
 const byId = new Map(taskList(prepared).map((t) => [t.id, t]));
 

@@ -95,7 +95,7 @@ function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: nu
   const Xtrain = split.matrix('train', c.learner.needsScaling);
   const Xtest = split.matrix('test', c.learner.needsScaling);
   const t0 = performance.now();
-  const model = c.learner.fit(Xtrain, yTrain, c.params, { rng: createRng(seed), seed });
+  const model = c.learner.fit(Xtrain, yTrain, c.params, { rng: createRng(seed), seed, fold: split.view('search', c.learner.needsScaling) });
   const t1 = performance.now();
   const predicted = model.predict(Xtest);
   const proba = model.predictProba?.(Xtest);

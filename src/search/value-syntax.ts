@@ -104,6 +104,14 @@ function rangeValues(learner: Learner, specText: string, p: ParamSpec, item: str
 /** Parses the value text of option `name` of `learner` into an Axis. */
 export function parseAxis(learner: Learner, specText: string, name: string, raw: string): Axis {
   const p = learner.params.find((q) => q.name === name);
+  if (!p && learner.openOptions && /^[a-z][a-z0-9-]*$/.test(name)) {
+    // a free option of a learner from outside: a list of texts, passed on as written
+    const items = raw.split('|').map((s) => s.trim());
+    if (items.some((s) => s === '')) throw new UsageError(`--learner ${specText}: ${name}=${raw}: an empty item in the list`);
+    if (new Set(items).size !== items.length) throw new UsageError(`--learner ${specText}: ${name}=${raw}: a value appears twice`);
+    if (items.length > MAX_AXIS_VALUES) throw new UsageError(`--learner ${specText}: ${name}=${raw}: more than ${MAX_AXIS_VALUES} values`);
+    return { name, kind: 'finite', texts: items, values: items, numeric: false };
+  }
   if (!p) {
     check(learner, specText, name, raw); // throws the unknown-option message with its hints
     throw new UsageError(`--learner ${specText}: unknown option "${name}"`);

@@ -31,7 +31,7 @@ describe('module: learners', () => {
     expect(() => parseLearnerSpec('module:./x.js;')).toThrow(/nothing after ";"/);
     expect(() => parseLearnerSpec('module:./x.js;k')).toThrow(/"k" is not key=value/);
     expect(() => getLearner('module:./not-loaded.js')).toThrow(/the module is not loaded/);
-    expect(() => getLearner('command:nope')).toThrow(/command: learners \(external programs\) are not available in this version/);
+    expect(() => getLearner('command:nope')).toThrow(/no program is given for it; add --command nope=PROGRAM/);
   });
 
   it('loads the example module, checks options, formats specs with ";"', async () => {
