@@ -32,6 +32,7 @@ import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { writeOutputs } from './output.js';
 import { runSplit } from './split.js';
+import { printAuditSuspects } from './warnings.js';
 
 export interface Io {
   readonly stdout: { write(text: string): unknown };
@@ -206,6 +207,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     return EXIT_OK;
   }
   const report = result.report;
+  printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   writeOutputs(io, flags, {
     json: () => renderJson(report),
