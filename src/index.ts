@@ -17,7 +17,7 @@ export type { BuiltPlan, Fold, PlanSpec } from './plans/types.js';
 export { applyPrep, fitPrep } from './prep/fold-prep.js';
 export { renderJson } from './report/json.js';
 export { renderMarkdown } from './report/markdown.js';
-export type { LearnerReport, Report, ScoreSummary } from './report/types.js';
+export type { LearnerReport, PooledSample, Report, ReportAudit, ScoreSummary } from './report/types.js';
 export { evaluate, type EvaluateOptions } from './run/evaluate.js';
 export { createRng, deriveSeed, type Rng } from './run/rng.js';
 export { splitTable } from './run/split.js';

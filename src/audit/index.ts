@@ -1,9 +1,10 @@
 /**
  * The audit: `audit(table, options) -> AuditReport` (everything) and
- * `quickAudit(tableOrProblem, options) -> string[]` (the fast part as warning lines, for eval).
+ * `quickSuspects(tableOrProblem, options) -> string[]` (the fast part, one line per finding, for
+ * the `audit` field of eval and tune reports) and `quickAudit` (the same as warning lines).
  */
 export { audit } from './audit.js';
-export { quickAudit, warningLine, type QuickAuditOptions } from './quick-audit.js';
+export { AUDIT_WARNING_PREFIX, quickAudit, quickSuspects, suspectLine, warningLine, type QuickAuditOptions } from './quick-audit.js';
 export { renderAuditJson, renderAuditMarkdown } from './render.js';
 export { AUDIT_LIMITS, AUDIT_SCHEMA } from './types.js';
 export type {

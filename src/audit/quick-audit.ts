@@ -1,8 +1,9 @@
 /**
- * `quickAudit(input, options) -> string[]`: the fast part of the audit (fast-checks.ts) as
- * one-line warnings, for `eval` and `tune` to print before they run. Only findings of
- * severity "high" and "warn" are returned (notes stay in the full `foldwise audit` report),
- * most severe first, each as "audit: <kind>: <evidence>; <action>".
+ * `quickSuspects(input, options) -> string[]`: the fast part of the audit (fast-checks.ts) as
+ * one line per finding, for `eval` and `tune` to record in their reports (`audit`) and print
+ * before they run. Only findings of severity "high" and "warn" are returned (notes stay in the
+ * full `foldwise audit` report), most severe first, each as "<kind>: <evidence>; <action>".
+ * `quickAudit` gives the same lines as warnings, each prefixed "audit: ".
  *
  * The input is a loaded Table (then `options` needs the target, as for `audit`) or an already
  * defined Problem. The plan and seed are required: they are the run's (this module imports
@@ -34,12 +35,25 @@ function isProblem(input: Table | Problem): input is Problem {
   return 'targetName' in input && 'target' in input;
 }
 
-/** One warning line for a suspect. */
-export function warningLine(s: Suspect): string {
-  return `audit: ${s.kind}: ${s.evidence}; ${s.action}`;
+/** What a warning line of the audit starts with. */
+export const AUDIT_WARNING_PREFIX = 'audit: ';
+
+/** One line for a suspect: "<kind>: <evidence>; <action>". */
+export function suspectLine(s: Suspect): string {
+  return `${s.kind}: ${s.evidence}; ${s.action}`;
 }
 
+/** One warning line for a suspect. */
+export function warningLine(s: Suspect): string {
+  return `${AUDIT_WARNING_PREFIX}${suspectLine(s)}`;
+}
+
+/** The quick audit's findings as warning lines ("audit: <kind>: <evidence>; <action>"). */
 export function quickAudit(input: Table | Problem, options: QuickAuditOptions & Partial<ProblemOptions>): string[] {
+  return quickSuspects(input, options).map((line) => `${AUDIT_WARNING_PREFIX}${line}`);
+}
+
+export function quickSuspects(input: Table | Problem, options: QuickAuditOptions & Partial<ProblemOptions>): string[] {
   let problem: Problem;
   if (isProblem(input)) problem = input;
   else {
@@ -51,5 +65,5 @@ export function quickAudit(input: Table | Problem, options: QuickAuditOptions & 
   const ctx = auditContext(problem, spec, options.stratify, seed, options.planned);
   const found = fastChecks(ctx).suspects.filter((s) => s.severity !== 'note');
   const positionOf = (name: string): number => problem.table.byName.get(name)?.position ?? -1;
-  return sortSuspects(found, positionOf).map(warningLine);
+  return sortSuspects(found, positionOf).map(suspectLine);
 }

@@ -35,6 +35,7 @@ import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { writeOutputs } from './output.js';
 import { runSplit } from './split.js';
+import { printAuditSuspects } from './warnings.js';
 
 export interface Io {
   readonly stdout: { write(text: string): unknown };
@@ -213,6 +214,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     return EXIT_OK;
   }
   const report = result.report;
+  printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   if (commands?.keepTemp) io.stderr.write(`foldwise: --keep-temp: the folders of each fold are in ${commands.tempRoot} (foldwise-NAME-FOLD-*)\n`);
   writeOutputs(io, flags, {

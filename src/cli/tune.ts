@@ -21,6 +21,7 @@ import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSea
 import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tune } from '../search/tune.js';
 import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf } from './run.js';
+import { printAuditSuspects } from './warnings.js';
 
 interface TuneFlags extends DataFlags {
   plan: string;
@@ -97,6 +98,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     timing: flags.timing,
     audit: flags.audit,
   });
+  printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report) });
   return EXIT_OK;

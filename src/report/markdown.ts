@@ -1,9 +1,10 @@
 /**
  * The Markdown report, for people: what was run, one summary table of the headline metric,
  * a table of every metric, the per-fold scores of the headline metric, the pooled confusion
- * matrix of the best learner, and the warnings. Numbers are right-aligned with four decimals.
+ * matrix of the best learner, the quick audit's suspects, and the warnings. Numbers are
+ * right-aligned with four decimals.
  */
-import type { LearnerReport, Report, ScoreSummary } from './types.js';
+import type { LearnerReport, Report, ReportAudit, ScoreSummary } from './types.js';
 
 const DIGITS = 4;
 
@@ -51,6 +52,13 @@ function describe(report: Report): string[] {
     `- Plan: ${p.text} (${p.folds} folds${p.repeats > 1 ? ` x ${p.repeats} repeats` : ''}), ${extras}; seed ${p.seed}`,
     ...(p.holdoutRows !== undefined ? [`- Holdout: ${p.holdoutRows} rows, ${p.finalScored ? 'scored (--final)' : 'not scored (use --final to score it once)'}`] : []),
   ];
+}
+
+/** The quick audit's suspects (eval and tune) as a short section; empty when it found none. */
+export function auditSection(audit: ReportAudit | undefined): string[] {
+  if (!audit?.suspects.length) return [];
+  const note = "_The quick audit's high and warn findings; `foldwise audit` gives the full report, notes included._";
+  return ['## Data audit', '', ...audit.suspects.map((s) => `- ${cell(s)}`), '', note, ''];
 }
 
 const signedNum = (v: number): string => (v > 0 ? `+${num(v)}` : num(v) === '-0.0000' ? num(0) : num(v));
@@ -176,6 +184,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
     );
   }
 
+  out.push(...auditSection(report.audit));
   if (report.warnings.length) {
     out.push('## Warnings', '', ...report.warnings.map((w) => `- ${cell(w)}`), '');
   }

@@ -3,9 +3,10 @@
  * estimate's summary first, since that is the number to quote; the recommendation to deploy,
  * with how stable the picks were; the holdout if scored; the pick of every outer fold; then the
  * grid as one compact table sorted by inner mean on all search rows (best first), with the
- * recommended candidate marked; the warnings last. Numbers have four decimals.
+ * recommended candidate marked; the quick audit's suspects and the warnings last. Numbers have
+ * four decimals.
  */
-import { cell, num } from './markdown.js';
+import { auditSection, cell, num } from './markdown.js';
 import type { TuneCandidate, TuneReport } from './tune-types.js';
 
 function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
@@ -129,6 +130,7 @@ export function renderTuneMarkdown(r: TuneReport): string {
     '',
   );
 
+  out.push(...auditSection(r.audit));
   if (r.warnings.length) {
     out.push('## Warnings', '', ...r.warnings.map((w) => `- ${cell(w)}`), '');
   }

@@ -9,7 +9,7 @@
  *   search rows: the best of many inner means, optimistic by construction (Varma & Simon 2006,
  *   BMC Bioinformatics 7:91). The recommended candidate is the one to deploy, not its score.
  */
-import type { DataSection } from './types.js';
+import type { DataSection, ReportAudit } from './types.js';
 import type { ReportComparisons } from '../compare/types.js';
 import type { Params, Task } from '../learners/types.js';
 import type { ScoreSummary } from './types.js';
@@ -161,6 +161,8 @@ export interface TuneReport {
    */
   readonly comparisons?: ReportComparisons;
   readonly warnings: readonly string[];
+  /** the quick audit's findings, as in eval reports (absent in reports of older versions) */
+  readonly audit?: ReportAudit;
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */
   readonly timing?: {
     readonly totalMs: number;

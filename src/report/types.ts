@@ -43,6 +43,24 @@ export interface LearnerReport {
   readonly confusion?: readonly (readonly number[])[];
   /** scores on the holdout part, present only when it was scored (--final) */
   readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>>; readonly failed?: string };
+  /** regression only: an evenly spaced sample of the pooled out-of-fold predictions (src/run/pooled-sample.ts) */
+  readonly pooledSample?: PooledSample;
+}
+
+/** At most 1,000 (actual, predicted) pairs taken at evenly spaced positions of the pooled out-of-fold predictions. */
+export interface PooledSample {
+  /** pooled out-of-fold predictions in all (rows times repeats) */
+  readonly total: number;
+  readonly actual: readonly number[];
+  readonly predicted: readonly number[];
+}
+
+/** What the quick audit run before eval and tune found: its high and warn findings, one line each. */
+export interface ReportAudit {
+  /** false under --no-audit */
+  readonly ran: boolean;
+  /** "<kind>: <evidence>; <action>", most severe first */
+  readonly suspects: readonly string[];
 }
 
 /** What every report says about its data: the same fields in eval, tune and audit reports. */
@@ -83,6 +101,8 @@ export interface Report {
   /** the reported metrics, headline first */
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];
+  /** the quick audit's findings (absent in reports of older versions, which listed them under warnings) */
+  readonly audit?: ReportAudit;
   readonly learners: readonly LearnerReport[];
   /** paired comparisons of the learners on the headline metric (src/compare/within-report.ts); absent with one learner */
   readonly comparisons?: ReportComparisons;

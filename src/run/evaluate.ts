@@ -1,7 +1,8 @@
 /**
  * The main job: a resampling plan over a problem, fold-local preprocessing, every learner fitted
  * on each fold's training rows and scored on its test rows, then per-metric summaries across
- * folds and on the pooled out-of-fold predictions.
+ * folds and on the pooled out-of-fold predictions (for regression also a bounded sample of
+ * those predictions, pooled-sample.ts).
  *
  * The work is split in three: `prepareRun` validates and plans, `runTasks` (or a worker pool,
  * shards, a journal) produces one result per task, and `assembleReport` turns the results into
@@ -18,10 +19,11 @@ import { InputError } from '../errors.js';
 import type { Target } from '../learners/types.js';
 import { confusionMatrix, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
-import type { FoldScores, LearnerReport, Report, ScoreSummary } from '../report/types.js';
+import type { FoldScores, LearnerReport, Report, ReportAudit, ScoreSummary } from '../report/types.js';
 import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
+import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
@@ -42,6 +44,8 @@ export interface ReportFrame {
   readonly settings: Report['settings'];
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];
+  /** the quick audit's findings (absent in parts of older versions) */
+  readonly audit?: ReportAudit;
   readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
 }
 
@@ -81,6 +85,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     settings: { impute: prepared.impute },
     metrics: metrics.map((m) => m.name),
     warnings: prepared.warnings,
+    ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
   };
 }
@@ -206,6 +211,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
         : {}),
       ...(final ? { final } : {}),
+      ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
     };
     return report;
   });
@@ -219,6 +225,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     settings: frame.settings,
     metrics: frame.metrics,
     warnings: [...new Set(warnings)],
+    ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
     ...(totalMs === undefined
       ? {}

@@ -13,7 +13,8 @@ import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import type { PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
-import { quickAudit } from '../audit/quick-audit.js';
+import { quickSuspects } from '../audit/quick-audit.js';
+import type { ReportAudit } from '../report/types.js';
 import { planFor } from './plan-for.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
 
@@ -38,7 +39,7 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly final?: boolean;
   /** include wall-clock timings (default true) */
   readonly timing?: boolean;
-  /** run the quick data audit first and add its findings to the warnings (default true) */
+  /** run the quick data audit first and record its findings in the report's `audit` (default true) */
   readonly audit?: boolean;
   /** a failed fold of a command: learner stops the run (fail, default) or is recorded (skip) */
   readonly onFoldError?: OnFoldError;
@@ -51,6 +52,8 @@ export interface Prepared extends TaskContext {
   readonly stratified: boolean;
   readonly metrics: readonly Metric[];
   readonly warnings: readonly string[];
+  /** the quick audit's findings, set by withAudit (absent when it was not called) */
+  readonly audit?: ReportAudit;
 }
 
 /** Checks a seed: an integer from 0 to 2^32-1. */
@@ -89,19 +92,19 @@ export function resolveMetrics(problem: Problem, names: readonly string[] | unde
 }
 
 /**
- * Adds the quick audit's findings (leakage, duplicates straddling folds, id-like columns...) to
- * the warnings, unless `options.audit` is false. Run once, in the thread that writes the
- * report (workers do not need it).
+ * Runs the quick audit (leakage, duplicates straddling folds, id-like columns...) and records
+ * its findings in `audit`, or `{ ran: false }` when `options.audit` is false. Run once, in the
+ * thread that writes the report (workers do not need it).
  */
 export function withAudit(prepared: Prepared, options: EvaluateOptions): Prepared {
-  if (options.audit === false) return prepared;
-  const findings = quickAudit(prepared.problem, {
+  if (options.audit === false) return { ...prepared, audit: { ran: false, suspects: [] } };
+  const suspects = quickSuspects(prepared.problem, {
     plan: prepared.planSpec,
     stratify: options.stratify,
     seed: prepared.seed,
     planned: { plan: prepared.plan, stratified: prepared.stratified },
   });
-  return findings.length ? { ...prepared, warnings: [...prepared.warnings, ...findings] } : prepared;
+  return { ...prepared, audit: { ran: true, suspects } };
 }
 
 /** Validates the options against the table and builds the plan; fits nothing. */

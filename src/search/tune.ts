@@ -27,7 +27,7 @@
  * deriveSeed(seed, "inner", "all") for the recommendation, sampling deriveSeed(seed, "sample"),
  * fits deriveSeed(seed, "fit", stage..., learner) where the stage names the split.
  */
-import { quickAudit } from '../audit/quick-audit.js';
+import { quickSuspects } from '../audit/quick-audit.js';
 import { pairedStats } from '../compare/paired-stats.js';
 import type { ReportComparisons } from '../compare/types.js';
 import { COMPARISON_LEVEL } from '../compare/within-report.js';
@@ -66,7 +66,7 @@ export const DEFAULT_INNER_PLAN = 'kfold:3';
 export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,weights=uniform|distance'];
 
 export interface TuneOptions extends ProblemOptions {
-  /** run the quick data audit first and add its findings to the warnings (default true) */
+  /** run the quick data audit first and record its findings in the report's `audit` (default true) */
   readonly audit?: boolean;
   /** search specs with lists and ranges, such as "knn:k=1..21+2" (default DEFAULT_SEARCH) */
   readonly learners?: readonly string[];
@@ -210,7 +210,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     }
   }
   warnings.push(...outer.plan.warnings);
-  if (options.audit !== false) warnings.push(...quickAudit(problem, { plan: outerSpec, stratify: options.stratify, seed }));
+  const suspects = options.audit === false ? [] : quickSuspects(problem, { plan: outerSpec, stratify: options.stratify, seed });
   if (outerSpec.kind === 'forward' && innerSpec.kind !== 'forward') {
     warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
   }
@@ -378,6 +378,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     ...(holdout ? { holdout } : {}),
     ...(comparisons ? { comparisons } : {}),
     warnings: [...new Set(warnings)],
+    audit: { ran: options.audit !== false, suspects },
     ...(options.timing === false ? {} : { timing: { totalMs: performance.now() - started, fitMs: work.fitMs, predictMs: work.predictMs } }),
   };
   return report;

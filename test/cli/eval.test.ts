@@ -158,14 +158,19 @@ describe('eval --html', () => {
 });
 
 describe('the quick audit before eval', () => {
-  it('warns about the id column of the bundled example, and --no-audit turns it off', async () => {
+  it('warns about the id column of the bundled example, records it in the report\'s audit (not its warnings), and --no-audit turns it off', async () => {
     const args = ['eval', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--learner', 'knn', '--plan', 'kfold:3', '--json', '-', '--no-timing', '--jobs', '1'];
     const on = await cli(args);
     expect(on.code).toBe(0);
     expect(on.stderr).toMatch(/warning: audit: id-like: "lot_id"/);
-    expect((JSON.parse(on.stdout) as Report).warnings.join(' ')).toMatch(/id-like: "lot_id"/);
+    const report = JSON.parse(on.stdout) as Report;
+    expectValid(report);
+    expect(report.audit?.ran).toBe(true);
+    expect(report.audit!.suspects.join(' ')).toMatch(/id-like: "lot_id"/);
+    expect(report.warnings.join(' ')).not.toMatch(/id-like/);
     const off = await cli([...args, '--no-audit']);
     expect(off.stderr).not.toMatch(/audit:/);
+    expect((JSON.parse(off.stdout) as Report).audit).toEqual({ ran: false, suspects: [] });
   });
 });
 

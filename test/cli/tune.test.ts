@@ -124,14 +124,23 @@ describe('foldwise tune', () => {
 });
 
 describe('the quick audit before tune', () => {
-  it('reports the id column of the bundled example as a warning, and --no-audit turns it off', async () => {
+  it('reports the id column of the bundled example in the report\'s audit (and as a warning line), and --no-audit turns it off', async () => {
     const args = ['tune', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--learner', 'knn:k=3|9', '--plan', 'kfold:3', '--json', '-', '--no-timing'];
     const on = await cli(args);
     expect(on.code).toBe(0);
-    expect((JSON.parse(on.stdout) as { warnings: string[] }).warnings.join(' ')).toMatch(/audit: id-like: "lot_id"/);
+    expect(on.stderr).toMatch(/foldwise: warning: audit: id-like: "lot_id"/);
+    const report = JSON.parse(on.stdout) as TuneReport;
+    expectValid(report);
+    expect(report.audit?.ran).toBe(true);
+    expect(report.audit!.suspects.join(' ')).toMatch(/id-like: "lot_id"/);
+    expect(report.warnings.join(' ')).not.toMatch(/audit:|id-like/);
     const off = await cli([...args, '--no-audit']);
     expect(off.code).toBe(0);
-    expect((JSON.parse(off.stdout) as { warnings: string[] }).warnings.join(' ')).not.toMatch(/audit:/);
+    expect(off.stderr).not.toMatch(/audit:/);
+    const offReport = JSON.parse(off.stdout) as TuneReport;
+    expectValid(offReport);
+    expect(offReport.audit).toEqual({ ran: false, suspects: [] });
+    expect(offReport.warnings.join(' ')).not.toMatch(/audit:/);
   });
 });
 

@@ -19,6 +19,7 @@ import type { Readable, Writable } from 'node:stream';
 import { deflateSync, inflateSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
 import { cli } from '../helpers/cli.js';
+import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { HOSTILE_GROUP, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
 
@@ -293,4 +294,30 @@ describe.skipIf(!HAVE)(`HTML report in headless Chromium (${HAVE ? CHROMIUM : `s
     const img = decodePng(file);
     expect([...img.pixels]).toEqual([255, 0, 0, 0, 0, 255]);
   });
+});
+
+describe.skipIf(!HAVE)('the regression page (penguins body mass, vega-datasets) in headless Chromium', async () => {
+  const tmp = tempFolder();
+  const page = join(tmp.dir, 'regression.html');
+  if (HAVE) {
+    const data = tmp.file('penguins.csv', penguinsCsv());
+    const json = join(tmp.dir, 'regression.json');
+    expect((await cli(['eval', data, '--target', 'Body Mass (g)', '--learner', 'knn', '--plan', 'kfold:5x3', '--no-timing', '--quiet', '--jobs', '1', '--json', json])).code).toBe(0);
+    expect((await cli(['render', json, '--html', page])).code).toBe(0);
+  }
+  let browser: Browser | undefined;
+  afterAll(async () => browser?.close());
+
+  it('loads with no console errors and no network requests, with the scatter and residual charts', async () => {
+    const url = pathToFileURL(page).href;
+    browser = openBrowser();
+    const load = await browser.load(url);
+    expect(load.consoleErrors).toEqual([]);
+    expect(load.exceptions).toEqual([]);
+    expect(load.logErrors).toEqual([]);
+    expect(load.requests).toEqual([url]);
+    expect(load.scripts).toBe(0);
+    // summary, comparison, scatter and residuals of the best learner, and the baseline's two folded away
+    expect(load.svgs).toBe(6);
+  }, 60_000);
 });

@@ -5,10 +5,13 @@
  * page must contain no executable markup: no <script, no on...= attribute in any tag, no
  * javascript: anywhere, and exactly as many </svg> as <svg> openings. The hostile text itself
  * must still be on the page, escaped (HTML Living Standard 13.1.4; OWASP XSS Prevention Cheat
- * Sheet rules 1-2). The rows are seeded synthetic data for this check only.
+ * Sheet rules 1-2). The same holds for a hostile regression target in the scatter axes and a
+ * hostile column name in a quick-audit suspect. The rows are seeded synthetic data for this
+ * check only.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { esc } from '../../src/report/html/escape.js';
 import type { Report } from '../../src/report/types.js';
@@ -42,5 +45,40 @@ describe('hostile column names, class labels and file name', async () => {
     for (const t of [...HOSTILE_CLASSES, HOSTILE_TARGET, HOSTILE_GROUP, 'data<b>&"x.csv']) expect(page).toContain(esc(t));
     for (const t of report!.data.features) expect(page).toContain(esc(t));
     expect(report!.data.features.length).toBe(4);
+  });
+});
+
+describe('a hostile regression target in the scatter axes and a hostile column in an audit suspect', async () => {
+  const tmp = tempFolder();
+  // the hostile file with one more column, twice the (numeric) target: the quick audit names it as a leak
+  const LEAK = 'leak</li><script>alert(8)</script>&"\'';
+  const TARGET = HOSTILE_FEATURES[0];
+  const parsed = Papa.parse<string[]>(hostileCsv().trim(), { header: false }).data;
+  const at = parsed[0].indexOf(TARGET);
+  const rows = parsed.map((r, i) => [...r, i === 0 ? LEAK : String(2 * Number(r[at]))]);
+  const data = tmp.file('leaky<i>.csv', `${Papa.unparse(rows, { newline: '\n' })}\n`);
+  const json = join(tmp.dir, 'r.json');
+  const html = join(tmp.dir, 'r.html');
+  const e = await cli(['eval', data, '--target', TARGET, '--learner', 'knn', '--plan', 'kfold:4', '--no-timing', '--quiet', '--jobs', '1', '--json', json]);
+  const r = await cli(['render', json, '--html', html]);
+  const page = r.code === 0 ? readFileSync(html, 'utf8') : '';
+  const report = e.code === 0 ? (JSON.parse(readFileSync(json, 'utf8')) as Report) : undefined;
+
+  it('runs a regression with a sample and a suspect naming the hostile column', () => {
+    expect(e.code).toBe(0);
+    expect(r.code).toBe(0);
+    expect(report!.data.task).toBe('regression');
+    expect(report!.learners.every((l) => l.pooledSample)).toBe(true);
+    expect(report!.audit!.suspects.some((s) => s.includes('<script>alert(8)</script>'))).toBe(true);
+    expect(e.stderr).toContain('foldwise: warning: audit: leakage: ');
+  });
+
+  it('writes no executable markup, and shows the target in the axes and the suspect in the footer, escaped', () => {
+    expectNoExecutableMarkup(page);
+    expect(page).toContain('id="scatter"');
+    for (const label of [`actual ${TARGET}`, `predicted ${TARGET}`]) expect(page).toContain(`>${esc(label)}</text>`);
+    const footer = page.slice(page.indexOf('<footer>'));
+    for (const s of report!.audit!.suspects) expect(footer).toContain(`<li>${esc(s)}</li>`);
+    expect(page).not.toContain('</li><script>');
   });
 });

@@ -1,11 +1,17 @@
 /**
- * The HTML page of an eval report: a heading naming the target and data, the summary chart of
- * the headline metric, the paired comparison chart (when the report carries comparisons), a
- * table of every metric, for classification the pooled confusion matrix of the best learner
- * (the others' folded away) and the per-class recall bars, and the footer with the run details.
+ * The HTML page of an eval report: a heading naming the target and data (and counting the
+ * warnings and the quick audit's suspects), the summary chart of the headline metric, the
+ * paired comparison chart (when the report carries comparisons), a table of every metric, then
+ * by task:
  *
- * Regression reports get the summary, comparison and metric views; a predicted-against-actual
- * plot would need the out-of-fold predictions, which reports do not store.
+ * - classification: the pooled confusion matrix of the best learner (the others' folded away in
+ *   a <details> block) and the per-class recall bars;
+ * - regression: for the best learner, predicted against actual with the identity line and the
+ *   residuals against predicted with a zero line, drawn from the sample of pooled out-of-fold
+ *   predictions the report carries (regression-charts.ts); the other learners' charts folded
+ *   away. A report of an older version, without the sample, gets no such charts;
+ *
+ * and the footer with the run details, the quick audit's suspects and the warnings.
  */
 import { comparisonChart } from './comparison-chart.js';
 import { confusionTable } from './confusion-table.js';
@@ -16,6 +22,7 @@ import { intervalText, num } from './format.js';
 import { metricsTable } from './metrics-table.js';
 import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
+import { residualChart, scatterChart } from './regression-charts.js';
 import { summaryChart } from './summary-chart.js';
 import type { Report } from '../types.js';
 
@@ -33,7 +40,11 @@ export function renderEvalHtml(report: Report): string {
     const lead = `Best mean ${ctx.metric}: ${ctx.best.spec}, ${num(s?.mean)} (corrected 95% interval ${intervalText(s?.ci95)})${base ? `; the baseline reaches ${num(base.mean)}` : ''}.`;
     parts.push(`<p class="lead">${esc(lead)}</p>`);
   }
-  if (report.warnings.length) parts.push(`<p class="lead">${esc(`${report.warnings.length} warning${report.warnings.length === 1 ? '' : 's'}: see the run details at the end.`)}</p>`);
+  const counts = [
+    report.warnings.length ? `${report.warnings.length} warning${report.warnings.length === 1 ? '' : 's'}` : '',
+    report.audit?.suspects.length ? `${report.audit.suspects.length} data-audit suspect${report.audit.suspects.length === 1 ? '' : 's'}` : '',
+  ].filter(Boolean);
+  if (counts.length) parts.push(`<p class="lead">${esc(`${counts.join(' and ')}: see the run details at the end.`)}</p>`);
   parts.push('</header>');
 
   parts.push(`<section><h2>${esc(`${ctx.metric} across folds`)}</h2>`, summaryChart(ctx), '</section>');
@@ -56,6 +67,24 @@ export function renderEvalHtml(report: Report): string {
       parts.push('</section>');
       const recall = recallChart(ctx);
       if (recall) parts.push('<section><h2>Recall per class</h2>', recall, '</section>');
+    }
+  }
+  if (d.task === 'regression') {
+    const withSample = report.learners.filter((l) => l.pooledSample);
+    if (withSample.length) {
+      const first = ctx.best && withSample.includes(ctx.best) ? ctx.best : withSample[0];
+      parts.push('<section><h2>Predicted against actual</h2>', scatterChart(first, d.target) ?? '', '</section>');
+      parts.push('<section><h2>Residuals</h2>', residualChart(first, d.target) ?? '');
+      const others = withSample.filter((l) => l !== first);
+      if (others.length) {
+        parts.push(`<details><summary>${esc(`Predicted-against-actual and residual charts of the other learners (${others.map((l) => l.spec).join(', ')})`)}</summary>`);
+        for (const l of others) {
+          const suffix = `-${report.learners.indexOf(l) + 1}`;
+          parts.push(`<h3>${esc(l.spec)}</h3>`, scatterChart(l, d.target, suffix) ?? '', residualChart(l, d.target, suffix) ?? '');
+        }
+        parts.push('</details>');
+      }
+      parts.push('</section>');
     }
   }
   parts.push(evalFooter(report));

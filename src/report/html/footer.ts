@@ -1,17 +1,32 @@
 /**
  * The footer block of an eval report: the data fingerprint (path, SHA-256, rows, columns,
  * target, features, dropped columns), the plan (text, folds, repeats, stratification, group and
- * order columns, holdout), seed, imputation, tool and report format versions, and the warnings,
- * as a compact definition list. Every value is escaped.
+ * order columns, holdout), seed, imputation, tool and report format versions as a compact
+ * definition list, then the quick audit's suspects ("Data audit") and the warnings. Every value
+ * is escaped.
  */
 import { esc } from './escape.js';
-import type { Report } from '../types.js';
+import type { Report, ReportAudit } from '../types.js';
 
 const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
 
 export function warningsBlock(warnings: readonly string[]): string {
   if (warnings.length === 0) return '<p class="no-warnings">No warnings.</p>';
   return `<ul class="warnings">${warnings.map((w) => `<li>${esc(w)}</li>`).join('')}</ul>`;
+}
+
+/** The "Data audit" block: the quick audit's suspects, or that it found none or did not run; '' for a report without the field. */
+export function auditBlock(audit: ReportAudit | undefined): string {
+  if (!audit) return '';
+  let body: string;
+  if (!audit.ran) body = '<p class="no-audit">The quick audit did not run (--no-audit).</p>';
+  else if (audit.suspects.length === 0) body = '<p class="no-suspects">The quick audit found no suspect of severity high or warn.</p>';
+  else {
+    const items = audit.suspects.map((s) => `<li>${esc(s)}</li>`).join('');
+    const note = '<p class="note">High and warn findings of the quick audit run before the fits; <code>foldwise audit</code> gives the full report with its evidence and notes.</p>';
+    body = `<ul class="warnings suspects">${items}</ul>${note}`;
+  }
+  return `<h3>Data audit</h3>\n${body}`;
 }
 
 export function evalFooter(report: Report): string {
@@ -39,5 +54,5 @@ export function evalFooter(report: Report): string {
     item('tool', esc(`${report.tool.name} ${report.tool.version}, report format ${report.schema}`)),
     ...(report.timing ? [item('time', esc(`${(report.timing.totalMs / 1000).toFixed(1)} s in all`))] : []),
   ];
-  return ['<footer>', '<h2>Run details</h2>', `<dl class="facts">${items.join('')}</dl>`, '<h3>Warnings</h3>', warningsBlock(report.warnings), '</footer>'].join('\n');
+  return ['<footer>', '<h2>Run details</h2>', `<dl class="facts">${items.join('')}</dl>`, auditBlock(report.audit), '<h3>Warnings</h3>', warningsBlock(report.warnings), '</footer>'].filter(Boolean).join('\n');
 }
