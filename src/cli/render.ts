@@ -1,8 +1,9 @@
 /**
  * `foldwise render REPORT.json --html OUT.html`: turns a JSON file written by foldwise into one
  * self-contained HTML page (src/report/html): an eval report (format foldwise-report/1, read
- * and validated as compare and gate read it) or a gate verdict (format foldwise-gate/1,
- * validated against schema/gate.schema.json). `--html -` writes the page to standard output.
+ * and validated as compare and gate read it), a tune report (format foldwise-tune/1, validated
+ * against schema/tune.schema.json) or a gate verdict (format foldwise-gate/1, validated against
+ * schema/gate.schema.json). `--html -` writes the page to standard output.
  * Exit codes: 0 written, 2 bad input or usage.
  */
 import { Ajv, type ValidateFunction } from 'ajv';
@@ -12,7 +13,9 @@ import { readReport, schemaPath } from '../compare/read-report.js';
 import type { GateVerdict } from '../compare/types.js';
 import { EXIT_OK, InputError } from '../errors.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
-import { renderEvalHtml, renderGateHtml } from '../report/html/index.js';
+import { renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
+import type { TuneReport } from '../report/tune-types.js';
+import { TUNE_SCHEMA } from '../search/tune.js';
 import { REPORT_SCHEMA } from '../version.js';
 import type { Io } from './run.js';
 
@@ -22,10 +25,15 @@ interface RenderFlags {
   html: string;
 }
 
-let gateValidator: ValidateFunction | undefined;
-function validateGate(): ValidateFunction {
-  gateValidator ??= new Ajv({ allErrors: false, strict: true, allowUnionTypes: true }).compile(JSON.parse(readFileSync(schemaPath('gate.schema.json'), 'utf8')) as object);
-  return gateValidator;
+const validators = new Map<string, ValidateFunction>();
+/** The compiled validator of a schema file of the package (compiled once). */
+function validatorOf(file: string): ValidateFunction {
+  let v = validators.get(file);
+  if (!v) {
+    v = new Ajv({ allErrors: false, strict: true, allowUnionTypes: true }).compile(JSON.parse(readFileSync(schemaPath(file), 'utf8')) as object);
+    validators.set(file, v);
+  }
+  return v;
 }
 
 const oneLine = (s: string, max: number): string => {
@@ -39,26 +47,33 @@ export function renderFile(path: string): string {
   try {
     text = readFileSync(path, 'utf8');
   } catch (e) {
-    throw new InputError(`render ${path}: cannot be read (${(e as NodeJS.ErrnoException).code ?? 'error'}); give a JSON file written by foldwise eval --json or foldwise gate --json`);
+    throw new InputError(`render ${path}: cannot be read (${(e as NodeJS.ErrnoException).code ?? 'error'}); give a JSON file written by foldwise eval, tune or gate with --json`);
   }
   let value: unknown;
   try {
     value = JSON.parse(text.replace(/^\uFEFF/, ''));
   } catch (e) {
-    throw new InputError(`render ${path}: not JSON (${oneLine((e as Error).message, 100)}); give a file written by foldwise eval --json or foldwise gate --json`);
+    throw new InputError(`render ${path}: not JSON (${oneLine((e as Error).message, 100)}); give a file written by foldwise eval, tune or gate with --json`);
   }
   const schema = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as { schema?: unknown }).schema : undefined;
   if (schema === REPORT_SCHEMA) return renderEvalHtml(readReport(path, 'render').report);
-  if (schema === GATE_SCHEMA) {
-    const validate = validateGate();
+  const check = (file: string, what: string): void => {
+    const validate = validatorOf(file);
     if (!validate(value)) {
       const err = validate.errors?.[0];
-      throw new InputError(`render ${path}: not a valid ${GATE_SCHEMA} verdict (at ${oneLine(err?.instancePath || '/', 60)}: ${oneLine(err?.message ?? 'invalid', 80)})`);
+      throw new InputError(`render ${path}: not a valid ${what} (at ${oneLine(err?.instancePath || '/', 60)}: ${oneLine(err?.message ?? 'invalid', 80)})`);
     }
+  };
+  if (schema === GATE_SCHEMA) {
+    check('gate.schema.json', `${GATE_SCHEMA} verdict`);
     return renderGateHtml(value as GateVerdict);
   }
+  if (schema === TUNE_SCHEMA) {
+    check('tune.schema.json', `${TUNE_SCHEMA} report`);
+    return renderTuneHtml(value as TuneReport);
+  }
   throw new InputError(
-    `render ${path}: not a file foldwise can render (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}; expected "${REPORT_SCHEMA}" from eval --json or "${GATE_SCHEMA}" from gate --json)`,
+    `render ${path}: not a file foldwise can render (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}; expected "${REPORT_SCHEMA}" from eval --json, "${GATE_SCHEMA}" from gate --json or "${TUNE_SCHEMA}" from tune --json)`,
   );
 }
 
@@ -73,8 +88,8 @@ async function runRender(path: string, flags: RenderFlags, io: Io): Promise<numb
 export function registerRender(prog: Command, io: Io, setCode: (code: number) => void): void {
   prog
     .command('render')
-    .description('write a self-contained HTML page with charts of an eval report or a gate verdict')
-    .argument('<report>', 'JSON file written by foldwise eval --json or foldwise gate --json')
+    .description('write a self-contained HTML page with charts of an eval or tune report or a gate verdict')
+    .argument('<report>', 'JSON file written by foldwise eval, tune or gate with --json')
     .requiredOption('--html <file>', 'the HTML file to write, or - for standard output')
     .option('--verbose', 'print stack traces of errors')
     .action(async (path: string, flags: RenderFlags) => setCode(await runRender(path, flags, io)));

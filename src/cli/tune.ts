@@ -2,10 +2,11 @@
  * `foldwise tune DATA --target COL [--learner SPEC ...]`: hyperparameter search with nested
  * selection (src/search/tune.ts). The search space is counted and checked against the candidate
  * limit before the data is read, and the count is printed on standard error up front. The
- * report goes to standard output as Markdown (default) and/or as JSON.
+ * report goes to standard output as Markdown (default) and/or as JSON, and with --html as a
+ * self-contained HTML page with charts (src/report/html/tune-page.ts).
  *
- * Loader options, --seed, --impute, --no-stratify, --json, --markdown and --no-timing are those
- * of eval; exit codes too: 0 done, 2 bad input or usage.
+ * Loader options, --seed, --impute, --no-stratify, --json, --markdown, --html and --no-timing
+ * are those of eval; exit codes too: 0 done, 2 bad input or usage.
  */
 import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
@@ -15,6 +16,7 @@ import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { checkWritable } from '../report/atomic.js';
+import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
@@ -37,6 +39,7 @@ interface TuneFlags extends DataFlags {
   impute: Impute;
   json?: string;
   markdown?: string;
+  html?: string;
   timing: boolean;
   audit: boolean;
 }
@@ -61,9 +64,13 @@ export function parseHoldout(text: string): number {
 
 async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> {
   if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown]]);
+  if (flags.html === '-' && (flags.json === '-' || flags.markdown === '-')) {
+    throw new UsageError(`${flags.json === '-' ? '--json' : '--markdown'} - and --html -: only one of them can go to standard output`);
+  }
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html]]);
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
   const seed = parseSeed(flags.seed);
   const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
   const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
@@ -100,7 +107,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   });
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
-  writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report) });
+  writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report), html: () => renderTuneHtml(report) });
   return EXIT_OK;
 }
 
@@ -123,6 +130,7 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .addOption(new Option('--impute <how>', 'numeric imputation, fitted on training rows').choices(IMPUTE_CHOICES).default('median'))
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
+    .option('--html <file>', 'write a self-contained HTML page with charts to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
     .option('--no-audit', 'skip the quick data audit that runs before the search')
     .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));

@@ -26,3 +26,10 @@ export function edgeWarnings(pick: SearchCandidate, candidates: readonly SearchC
   }
   return out;
 }
+
+/** Which option an edge warning of `edgeWarnings` is about, and which edge; undefined for any other warning. */
+export function edgeOfWarning(text: string): { readonly option: string; readonly side: 'lower' | 'upper' } | undefined {
+  const m = /, the (lower|upper) edge of the searched (.+?) \(.+ to .+\); a (?:smaller|larger) (.+) might be better, so widen the range$/.exec(text);
+  if (!m || m[2] !== m[3]) return undefined;
+  return { option: m[2], side: m[1] as 'lower' | 'upper' };
+}

@@ -8,4 +8,4 @@ export { innerStat, pickCandidate, PICK_RULES, type InnerStat, type Pick, type P
 export { planOver, allRows, stratifies } from './plan-over.js';
 export { splitHoldout, checkHoldoutFraction } from './holdout-split.js';
 export { predictAll, newWorkCount, type WorkCount } from './fold-work.js';
-export { edgeWarnings } from './edges.js';
+export { edgeOfWarning, edgeWarnings } from './edges.js';

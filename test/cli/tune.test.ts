@@ -103,6 +103,8 @@ describe('foldwise tune', () => {
     ['an inner plan with a holdout part', ['--inner', 'holdout:0.6/0.2/0.2'], /^foldwise: --inner holdout:0.6\/0.2\/0.2: an inner plan has no use for a holdout part/],
     ['a bad inner plan', ['--inner', 'kfold:x'], /^foldwise: --inner /],
     ['both reports on standard output', ['--json', '-', '--markdown', '-'], /^foldwise: --json - and --markdown -: only one of them can go to standard output$/],
+    ['JSON and HTML on standard output', ['--json', '-', '--html', '-'], /^foldwise: --json - and --html -: only one of them can go to standard output$/],
+    ['the page over the data file', ['--html', penguins], /^foldwise: --html .*penguins\.csv: is the input file; give another name$/],
   ];
   for (const [what, extra, message] of bad) {
     it(`exits 2 with one line for ${what}`, async () => {
@@ -170,5 +172,47 @@ describe('tune compares the tuned estimate with the baseline', () => {
     expect(Math.abs(c.referenceMean - evalBaseline.summary.accuracy!.mean)).toBeLessThan(1e-12);
     expect(c.direction).toBe('better');
     expect(r.stdout.length).toBeGreaterThan(0);
+  });
+});
+
+describe('tune --html and render of a tune report', () => {
+  it('writes the page with --html FILE (nothing on standard output), and render of the JSON writes the same page', async () => {
+    const html = join(tmp.dir, 'tune.html');
+    const js = join(tmp.dir, 'tune-for-html.json');
+    const r = await cli([...ARGS, '--learner', 'knn:k=3|9,weights=uniform|distance', '--plan', 'kfold:3', '--html', html, '--json', js]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toBe('');
+    const page = readFileSync(html, 'utf8');
+    expect(page.startsWith('<!DOCTYPE html>')).toBe(true);
+    expect(page).toContain('<figure class="chart" id="option-1-1">');
+    expect(page).toContain('<table class="heat"');
+    const out = join(tmp.dir, 'tune-rendered.html');
+    const rendered = await cli(['render', js, '--html', out]);
+    expect(rendered.code).toBe(0);
+    expect(rendered.stderr).toBe('');
+    expect(readFileSync(out, 'utf8')).toBe(page);
+    const toStdout = await cli(['render', js, '--html', '-']);
+    expect(toStdout.code).toBe(0);
+    expect(toStdout.stdout).toBe(page);
+  });
+
+  it('writes the page to standard output with --html -', async () => {
+    const r = await cli([...ARGS, '--learner', 'knn:k=3|9', '--plan', 'kfold:3', '--html', '-']);
+    expect(r.code).toBe(0);
+    expect(r.stdout.startsWith('<!DOCTYPE html>')).toBe(true);
+    expect(r.stdout).not.toContain('# foldwise tune');
+  });
+
+  it('refuses a tune file that does not match schema/tune.schema.json, naming where', async () => {
+    const js = join(tmp.dir, 'tune-valid.json');
+    expect((await cli([...ARGS, '--learner', 'knn:k=3|9', '--plan', 'kfold:3', '--json', js])).code).toBe(0);
+    const broken = JSON.parse(readFileSync(js, 'utf8')) as Record<string, unknown>;
+    delete broken.recommendation;
+    const bad = tmp.file('tune-broken.json', JSON.stringify(broken));
+    const out = join(tmp.dir, 'never.html');
+    const r = await cli(['render', bad, '--html', out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/^foldwise: render .*tune-broken\.json: not a valid foldwise-tune\/1 report \(at \/: must have required property 'recommendation'\)\n$/);
+    expect(existsSync(out)).toBe(false);
   });
 });

@@ -7,21 +7,23 @@
  * Security Policy violation would be one) and no network request besides the file itself.
  * A second run takes a --screenshot at 1200x1600; the PNG is decoded here (PNG specification,
  * W3C, free: chunks, zlib-compressed IDAT, per-row filters 0-4) and must not be one colour.
+ * The pages: eval and tune pages of the bundled demo, and of the hostile data of
+ * html-fixtures.ts.
  *
  * The test skips itself, saying why, when Chromium is not installed (.ci/run installs it).
  */
 import { spawn } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
-import { pathToFileURL } from 'node:url';
+import { dirname, join } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { Readable, Writable } from 'node:stream';
 import { deflateSync, inflateSync } from 'node:zlib';
 import { afterAll, describe, expect, it } from 'vitest';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
-import { HOSTILE_GROUP, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
+import { HOSTILE_GROUP, HOSTILE_MODES, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
 
 const CHROMIUM = process.env.FOLDWISE_CHROMIUM ?? '/usr/bin/chromium';
 const HAVE = existsSync(CHROMIUM);
@@ -242,11 +244,20 @@ describe.skipIf(!HAVE)(`HTML report in headless Chromium (${HAVE ? CHROMIUM : `s
       expect((await cli(['render', json, '--html', out])).code).toBe(0);
       pages.set(name, out);
     }
+    // tune pages: the demo with a small two-option grid, and the hostile data (written by tune --html)
+    const tuneDemo = join(tmp.dir, 'tune-demo.html');
+    const t = await cli(['tune', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--drop', 'lot_id', '--group', 'orchard', '--learner', 'knn:k=3|9|15,weights=uniform|distance', '--plan', 'kfold:3', '--no-timing', '--html', tuneDemo]);
+    expect(t.code).toBe(0);
+    pages.set('tune-demo', tuneDemo);
+    const tuneHostile = join(tmp.dir, 'tune-hostile.html');
+    const hostileLearner = `module:${join(dirname(fileURLToPath(import.meta.url)), 'hostile-learner.mjs')};temperature=0.5|2,mode=${HOSTILE_MODES.join('|')}`;
+    expect((await cli(['tune', hostile, '--target', HOSTILE_TARGET, '--group', HOSTILE_GROUP, '--learner', hostileLearner, '--plan', 'kfold:3', '--no-timing', '--html', tuneHostile])).code).toBe(0);
+    pages.set('tune-hostile', tuneHostile);
   }
 
   let browser: Browser | undefined;
   afterAll(async () => browser?.close());
-  for (const name of ['demo', 'hostile']) {
+  for (const name of ['demo', 'hostile', 'tune-demo', 'tune-hostile']) {
     it(`loads the ${name} page from disk with no console errors and no network requests`, async () => {
       const file = pages.get(name)!;
       const url = pathToFileURL(file).href;
@@ -257,18 +268,20 @@ describe.skipIf(!HAVE)(`HTML report in headless Chromium (${HAVE ? CHROMIUM : `s
       expect(load.logErrors).toEqual([]);
       expect(load.requests).toEqual([url]); // the page itself, nothing else
       expect(load.scripts).toBe(0);
-      expect(load.svgs).toBeGreaterThanOrEqual(name === 'demo' ? 3 : 2);
+      expect(load.svgs).toBeGreaterThanOrEqual(name === 'demo' || name === 'tune-demo' ? 3 : 2);
     }, 60_000);
   }
 
-  it('draws a screenshot that is not blank', async () => {
-    const png = await screenshot(pathToFileURL(pages.get('demo')!).href, join(tmp.dir, 'demo.png'));
-    const img = decodePng(png);
-    expect([img.width, img.height]).toEqual([1200, 1600]);
-    const { colours, notBackground } = colourStats(img);
-    expect(colours).toBeGreaterThan(20);
-    expect(notBackground).toBeGreaterThan(0.03);
-  }, 60_000);
+  for (const name of ['demo', 'tune-demo']) {
+    it(`draws a screenshot of the ${name} page that is not blank`, async () => {
+      const png = await screenshot(pathToFileURL(pages.get(name)!).href, join(tmp.dir, `${name}.png`));
+      const img = decodePng(png);
+      expect([img.width, img.height]).toEqual([1200, 1600]);
+      const { colours, notBackground } = colourStats(img);
+      expect(colours).toBeGreaterThan(20);
+      expect(notBackground).toBeGreaterThan(0.03);
+    }, 60_000);
+  }
 
   it('decodes a PNG it wrote itself (filter 0, RGB), so the decoder is checked too', () => {
     // 2x1 RGB: a red and a blue pixel, built from the PNG specification's chunk layout

@@ -10,6 +10,8 @@ export const HOSTILE_FEATURES = ['<script>alert(1)</script>', 'a"b onmouseover="
 export const HOSTILE_TARGET = 'kind</title><script>alert(4)</script>';
 export const HOSTILE_GROUP = 'g"\'&<b>';
 export const HOSTILE_CLASSES = ['<script>alert(5)</script>', '" onclick="alert(6)', '&amp;</svg>', '</table><svg onload=alert(7)>'];
+/** The values of the option `mode` of test/report/hostile-learner.mjs (kept equal to its list). */
+export const HOSTILE_MODES = ['<script>alert(8)</script>', 'a"b', 'x&y', '</svg><b>'];
 
 /** 160 rows, 4 classes; the class is a function of the first two features plus a seeded wobble. */
 export function hostileCsv(): string {

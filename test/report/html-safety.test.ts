@@ -7,17 +7,21 @@
  * must still be on the page, escaped (HTML Living Standard 13.1.4; OWASP XSS Prevention Cheat
  * Sheet rules 1-2). The same holds for a hostile regression target in the scatter axes and a
  * hostile column name in a quick-audit suspect. The rows are seeded synthetic data for this
- * check only.
+ * check only. The tune page gets the same data, plus option values holding markup (from the
+ * module learner in test/report/hostile-learner.mjs), which reach candidate specs, chart labels
+ * and heat table headers.
  */
 import { readFileSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { esc } from '../../src/report/html/escape.js';
+import type { TuneReport } from '../../src/report/tune-types.js';
 import type { Report } from '../../src/report/types.js';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
-import { expectNoExecutableMarkup, HOSTILE_CLASSES, HOSTILE_FEATURES, HOSTILE_GROUP, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
+import { expectNoExecutableMarkup, HOSTILE_CLASSES, HOSTILE_FEATURES, HOSTILE_GROUP, HOSTILE_MODES, HOSTILE_TARGET, hostileCsv } from './html-fixtures.js';
 
 describe('hostile column names, class labels and file name', async () => {
   const tmp = tempFolder();
@@ -80,5 +84,43 @@ describe('a hostile regression target in the scatter axes and a hostile column i
     const footer = page.slice(page.indexOf('<footer>'));
     for (const s of report!.audit!.suspects) expect(footer).toContain(`<li>${esc(s)}</li>`);
     expect(page).not.toContain('</li><script>');
+  });
+});
+
+describe('hostile column names, class labels and option values on the tune page', async () => {
+  const tmp = tempFolder();
+  const data = tmp.file('data<b>&"x.csv', hostileCsv());
+  const json = join(tmp.dir, 't.json');
+  const html = join(tmp.dir, 't.html');
+  const direct = join(tmp.dir, 'direct.html');
+  // test/report/hostile-learner.mjs: a module learner whose option `mode` takes hostile values
+  const learner = `module:${join(dirname(fileURLToPath(import.meta.url)), 'hostile-learner.mjs')};temperature=0.5|2,mode=${HOSTILE_MODES.join('|')}`;
+  const t = await cli(['tune', data, '--target', HOSTILE_TARGET, '--group', HOSTILE_GROUP, '--learner', learner, '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-timing', '--json', json, '--html', direct]);
+  const r = await cli(['render', json, '--html', html]);
+  const page = r.code === 0 ? readFileSync(html, 'utf8') : '';
+  const report = t.code === 0 ? (JSON.parse(readFileSync(json, 'utf8')) as TuneReport) : undefined;
+
+  it('runs tune and render on such data and options', () => {
+    expect(t.code).toBe(0);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(report!.data.features).toEqual(HOSTILE_FEATURES);
+    expect(new Set(report!.data.classes)).toEqual(new Set(HOSTILE_CLASSES));
+    expect(new Set(report!.candidates.map((c) => c.params.mode))).toEqual(new Set(HOSTILE_MODES));
+    expect(readFileSync(direct, 'utf8')).toBe(page);
+  });
+
+  it('writes no executable markup', () => {
+    expectNoExecutableMarkup(page);
+    // the heat table of temperature x mode, and a chart per option
+    expect(page).toContain('<table class="heat"');
+    expect(page.match(/<figure class="chart" id="option-/g)?.length).toBe(2);
+  });
+
+  it('still shows every hostile text, escaped', () => {
+    for (const t of [...HOSTILE_CLASSES, ...HOSTILE_MODES, HOSTILE_TARGET, HOSTILE_GROUP, 'data<b>&"x.csv']) expect(page).toContain(esc(t));
+    for (const t of report!.data.features) expect(page).toContain(esc(t));
+    for (const c of report!.candidates) expect(page).toContain(esc(c.spec));
+    expect(report!.candidates.length).toBe(8);
   });
 });

@@ -1,14 +1,17 @@
 /**
- * The footer block of an eval report: the data fingerprint (path, SHA-256, rows, columns,
- * target, features, dropped columns), the plan (text, folds, repeats, stratification, group and
- * order columns, holdout), seed, imputation, tool and report format versions as a compact
- * definition list, then the quick audit's suspects ("Data audit") and the warnings. Every value
- * is escaped.
+ * The footer blocks of the HTML pages, as compact definition lists with every value escaped:
+ * - eval: the data fingerprint (path, SHA-256, rows, columns, target, features, dropped
+ *   columns), the plan (text, folds, repeats, stratification, group and order columns,
+ *   holdout), seed, imputation, tool and report format versions;
+ * - tune: the same data fingerprint, the outer and inner plans, seed, the search (specs,
+ *   candidates, pick rule), imputation, metrics, tool and format versions;
+ * then, for both, the quick audit's suspects ("Data audit") and the warnings.
  */
 import { esc } from './escape.js';
-import type { Report, ReportAudit } from '../types.js';
+import type { DataSection, Report, ReportAudit } from '../types.js';
+import type { TunePlanInfo, TuneReport } from '../tune-types.js';
 
-const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
+export const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
 
 export function warningsBlock(warnings: readonly string[]): string {
   if (warnings.length === 0) return '<p class="no-warnings">No warnings.</p>';
@@ -29,10 +32,29 @@ export function auditBlock(audit: ReportAudit | undefined): string {
   return `<h3>Data audit</h3>\n${body}`;
 }
 
-export function evalFooter(report: Report): string {
-  const d = report.data;
-  const p = report.plan;
+/** The data fingerprint: path, SHA-256, rows and columns, target and task, features, dropped columns. */
+function dataItems(d: DataSection): string[] {
   const task = d.task === 'classification' ? `classification, ${d.classes?.length ?? 0} classes: ${(d.classes ?? []).join(', ')}` : 'regression';
+  return [
+    item('data', `<code>${esc(d.path)}</code>`),
+    item('SHA-256', `<code class="hash">${esc(d.sha256)}</code>`),
+    item('rows', esc(`${d.rowsUsed} used of ${d.rows}${d.excludedRows ? ` (${d.excludedRows} left out for a missing target)` : ''}; ${d.columns} columns`)),
+    item('target', esc(`${d.target} (${task})`)),
+    item('features', esc(`${d.features.length}: ${d.features.join(', ')}`)),
+    ...(d.dropped.length ? [item('dropped', esc(d.dropped.join(', ')))] : []),
+  ];
+}
+
+const timeItem = (timing: { readonly totalMs: number } | undefined): string[] => (timing ? [item('time', esc(`${(timing.totalMs / 1000).toFixed(1)} s in all`))] : []);
+
+function footer(items: readonly string[], audit: ReportAudit | undefined, warnings: readonly string[]): string {
+  return ['<footer>', '<h2>Run details</h2>', `<dl class="facts">${items.join('')}</dl>`, auditBlock(audit), '<h3>Warnings</h3>', warningsBlock(warnings), '</footer>']
+    .filter(Boolean)
+    .join('\n');
+}
+
+export function evalFooter(report: Report): string {
+  const p = report.plan;
   const plan = [
     `${p.text} (${p.folds} folds${p.repeats > 1 ? ` × ${p.repeats} repeats` : ''})`,
     p.stratified ? 'stratified' : 'not stratified',
@@ -41,18 +63,39 @@ export function evalFooter(report: Report): string {
     p.holdoutRows !== undefined ? `holdout of ${p.holdoutRows} rows ${p.finalScored ? 'scored (--final)' : 'not scored'}` : '',
   ].filter(Boolean);
   const items = [
-    item('data', `<code>${esc(d.path)}</code>`),
-    item('SHA-256', `<code class="hash">${esc(d.sha256)}</code>`),
-    item('rows', esc(`${d.rowsUsed} used of ${d.rows}${d.excludedRows ? ` (${d.excludedRows} left out for a missing target)` : ''}; ${d.columns} columns`)),
-    item('target', esc(`${d.target} (${task})`)),
-    item('features', esc(`${d.features.length}: ${d.features.join(', ')}`)),
-    ...(d.dropped.length ? [item('dropped', esc(d.dropped.join(', ')))] : []),
+    ...dataItems(report.data),
     item('plan', esc(plan.join(', '))),
     item('seed', esc(String(p.seed))),
     item('imputation', esc(report.settings.impute)),
     item('metrics', esc(report.metrics.join(', '))),
     item('tool', esc(`${report.tool.name} ${report.tool.version}, report format ${report.schema}`)),
-    ...(report.timing ? [item('time', esc(`${(report.timing.totalMs / 1000).toFixed(1)} s in all`))] : []),
+    ...timeItem(report.timing),
   ];
-  return ['<footer>', '<h2>Run details</h2>', `<dl class="facts">${items.join('')}</dl>`, auditBlock(report.audit), '<h3>Warnings</h3>', warningsBlock(report.warnings), '</footer>'].filter(Boolean).join('\n');
+  return footer(items, report.audit, report.warnings);
+}
+
+const planText = (p: TunePlanInfo): string => `${p.text} (${p.folds} folds${p.repeats > 1 ? ` × ${p.repeats} repeats` : ''}, ${p.stratified ? 'stratified' : 'not stratified'})`;
+
+export function tuneFooter(report: TuneReport): string {
+  const p = report.plan;
+  const s = report.search;
+  const extras = [p.group !== undefined ? `grouped by ${p.group}` : '', p.order !== undefined ? `ordered by ${p.order}` : ''].filter(Boolean);
+  const holdout = p.holdout
+    ? `${p.holdout.rows} rows set aside before any selection (${p.holdout.from === 'option' ? `--holdout ${p.holdout.fraction ?? ''}` : 'the holdout part of the outer plan'})`
+    : '';
+  const tried = s.sampled ? `${s.tried} sampled from ${s.gridSize === null ? 'an unbounded space' : `a grid of ${s.gridSize}`}` : `the whole grid of ${s.tried}`;
+  const items = [
+    ...dataItems(report.data),
+    item('outer plan', esc([planText(p.outer), ...extras].join(', '))),
+    item('inner plan', esc(`${planText(p.inner)}, on each outer fold's training rows`)),
+    item('search rows', esc(`${p.searchRows}${holdout ? `; ${holdout}` : ''}`)),
+    item('seed', esc(String(p.seed))),
+    item('search', esc(`${tried} candidates from ${s.specs.join('  ')}; ${s.fits} fits (a plain loop would run ${s.plainLoopFits})`)),
+    item('pick rule', esc(`${report.selection.rule} on ${report.selection.metric} (${report.selection.higherIsBetter ? 'higher' : 'lower'} is better)`)),
+    item('imputation', esc(report.settings.impute)),
+    item('metrics', esc(report.metrics.join(', '))),
+    item('tool', esc(`${report.tool.name} ${report.tool.version}, report format ${report.schema}`)),
+    ...timeItem(report.timing),
+  ];
+  return footer(items, report.audit, report.warnings);
 }

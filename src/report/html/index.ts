@@ -1,8 +1,10 @@
 /**
- * The self-contained HTML report: `renderEvalHtml(report)` for an eval report and
- * `renderGateHtml(verdict)` for a gate verdict, each one string holding a whole document with
- * inline SVG charts, inline styles and no scripts or outside resources.
+ * The self-contained HTML report: `renderEvalHtml(report)` for an eval report,
+ * `renderTuneHtml(report)` for a tune report and `renderGateHtml(verdict)` for a gate verdict,
+ * each one string holding a whole document with inline SVG charts, inline styles and no
+ * scripts or outside resources.
  */
 export { renderEvalHtml } from './eval-page.js';
 export { renderGateHtml } from './gate-page.js';
+export { renderTuneHtml } from './tune-page.js';
 export { esc } from './escape.js';

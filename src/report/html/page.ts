@@ -61,8 +61,8 @@ ul.warnings li{margin:2px 0}
 }
 `;
 
-/** A whole HTML document; `title` is escaped here, `content` must be escaped markup. */
-export function page(title: string, content: string): string {
+/** A whole HTML document; `title` is escaped here, `content` must be escaped markup, `style` adds page-specific rules (our own, not data). */
+export function page(title: string, content: string, style = ''): string {
   return [
     '<!DOCTYPE html>',
     '<html lang="en">',
@@ -72,7 +72,7 @@ export function page(title: string, content: string): string {
     '<meta name="viewport" content="width=device-width, initial-scale=1">',
     '<meta name="referrer" content="no-referrer">',
     `<title>${esc(title)}</title>`,
-    `<style>${STYLE}</style>`,
+    `<style>${STYLE}${style}</style>`,
     '</head>',
     '<body>',
     '<main>',
