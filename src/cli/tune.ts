@@ -24,8 +24,9 @@ import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tune } from '../search/tune.js';
 import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf } from './run.js';
 import { printAuditSuspects } from './warnings.js';
+import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 
-interface TuneFlags extends DataFlags {
+interface TuneFlags extends DataFlags, CommandFlags {
   plan: string;
   inner: string;
   stratify: boolean;
@@ -77,8 +78,8 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const holdout = flags.holdout === undefined ? undefined : parseHoldout(flags.holdout);
   const specs = flags.learner?.length ? flags.learner : DEFAULT_SEARCH;
 
-  // module: learners must be registered before the search space is read
-  await loadExternalLearners(specs.map((s) => s.split(';')[0]), io.cwd ?? resolve('.'));
+  // module: and command: learners must be registered before the search space is read
+  await loadExternalLearners(specs.map((s) => s.split(';')[0]), io.cwd ?? resolve('.'), commandSetupOf(flags, io));
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
@@ -112,10 +113,12 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
 }
 
 export function registerTune(prog: Command, io: Io, setCode: (code: number) => void): void {
-  addDataOptions(
-    prog
-      .command('tune')
-      .description('search learner options with nested cross-validation: an honest outer estimate, and the candidate to deploy'),
+  addCommandOptions(
+    addDataOptions(
+      prog
+        .command('tune')
+        .description('search learner options with nested cross-validation: an honest outer estimate, and the candidate to deploy'),
+    ),
   )
     .option('--plan <plan>', 'outer resampling plan (as for eval)', DEFAULT_OUTER_PLAN)
     .option('--inner <plan>', 'inner plan, run on each outer fold\'s training rows (as for eval)', DEFAULT_INNER_PLAN)

@@ -17,6 +17,7 @@ import { Readable } from 'node:stream';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { run } from '../../src/cli/run.js';
+import type { TuneReport } from '../../src/report/tune-types.js';
 import type { Report } from '../../src/report/types.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
@@ -316,5 +317,23 @@ describe('command: learners in every way of running', () => {
     const other = await foldwise(skipRun(['--jobs', '1', '--journal', journal, '--json', '-'], ['--command', `shares=["${process.execPath}", "./test/learners/command/share-program.mjs", "--x"]`]), root);
     expect(other.code).toBe(2);
     expect(other.stderr).toMatch(/it belongs to another run, which differs in programs/);
+  });
+});
+
+describe('command: learners in tune', () => {
+  it('searches a free option as a list; the outer estimate of a learner that ignores it equals the baseline on the same outer folds', async () => {
+    const r = await foldwise(
+      ['tune', penguins, '--target', 'Species', '--plan', 'kfold:3', '--inner', 'kfold:2', '--metric', 'accuracy', '--learner', 'command:shares;mode=shares|labels', '--json', '-', '--no-timing', '--no-audit', ...command()],
+      tempRoot(),
+    );
+    expect(r.code).toBe(0);
+    const rep = JSON.parse(r.stdout) as TuneReport;
+    expect(rep.candidates.map((c) => c.spec)).toEqual(['command:shares;mode=shares', 'command:shares;mode=labels']);
+    expect(rep.outer.folds.length).toBe(3);
+    // tune fits the built-in baseline on the same outer folds: every fold a tie, difference 0
+    const pair = rep.comparisons?.pairs[0];
+    expect(pair?.folds).toBe(3);
+    expect(pair?.ties).toBe(3);
+    expect(pair?.diff).toBe(0);
   });
 });
