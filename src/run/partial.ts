@@ -11,6 +11,7 @@ import type { Report } from '../report/types.js';
 import { VERSION } from '../version.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { identityDiff, type RunIdentity } from './identity.js';
+import { fromJsonNumbers } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
 export const PARTIAL_FORMAT = 'foldwise-partial/1';
@@ -81,8 +82,8 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     fitMs: j.fitMs,
     predictMs: j.predictMs,
     actual,
-    predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(j.predicted),
-    ...(j.proba ? { proba: Float64Array.from(j.proba) } : {}),
+    predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(fromJsonNumbers(j.predicted)),
+    ...(j.proba ? { proba: Float64Array.from(fromJsonNumbers(j.proba)) } : {}),
     ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
   };
 }

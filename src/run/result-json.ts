@@ -23,7 +23,10 @@ export function resultToJSON(r: TaskResult): TaskResultJSON {
   };
 }
 
-const numbers = (v: unknown): v is number[] => Array.isArray(v) && v.every((x) => typeof x === 'number');
+/** JSON writes a non-finite double as null; it reads back as NaN (never as 0). */
+export const fromJsonNumbers = (v: readonly (number | null)[]): number[] => v.map((x) => (x === null ? NaN : x));
+
+const numbers = (v: unknown): v is (number | null)[] => Array.isArray(v) && v.every((x) => typeof x === 'number' || x === null);
 
 export function resultFromJSON(j: unknown, classification: boolean, where: string): TaskResult {
   const o = j as Partial<TaskResultJSON> | null;
@@ -32,8 +35,8 @@ export function resultFromJSON(j: unknown, classification: boolean, where: strin
   }
   return {
     id: o.id,
-    predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(o.predicted),
-    ...(o.proba ? { proba: Float64Array.from(o.proba) } : {}),
+    predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(fromJsonNumbers(o.predicted)),
+    ...(o.proba ? { proba: Float64Array.from(fromJsonNumbers(o.proba)) } : {}),
     fitMs: Number(o.fitMs) || 0,
     predictMs: Number(o.predictMs) || 0,
   };
