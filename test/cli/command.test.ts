@@ -260,6 +260,14 @@ describe('--on-fold-error skip', () => {
 
     const file = join(work, 'with-failed.json');
     writeFileSync(file, r.stdout);
+    // the HTML page says so in its header, and draws the four scored folds
+    const html = join(work, 'with-failed.html');
+    const h = await foldwise(['render', file, '--html', html], root);
+    expect(h.code).toBe(0);
+    const page = readFileSync(html, 'utf8');
+    const header = page.slice(0, page.indexOf('</header>'));
+    expect(header).toContain(`Failed folds: ${spec.replace(/&/g, '&amp;')} failed in 1 of 5 folds (r1.f2)`);
+
     const g = await foldwise(['gate', '--baseline', file, '--current', file, '--learner', spec], root);
     expect(g.code).toBe(2);
     expect(g.stderr).toMatch(/gate: .*with-failed\.json: command:shares;mode=fail-on=r1\.f2 failed in 1 of 5 folds \(repeat 1 fold 2\); fix the learner and rerun before gating; they are not comparable/);

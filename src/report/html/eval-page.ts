@@ -40,6 +40,12 @@ export function renderEvalHtml(report: Report): string {
     const lead = `Best mean ${ctx.metric}: ${ctx.best.spec}, ${num(s?.mean)} (corrected 95% interval ${intervalText(s?.ci95)})${base ? `; the baseline reaches ${num(base.mean)}` : ''}.`;
     parts.push(`<p class="lead">${esc(lead)}</p>`);
   }
+  for (const l of report.learners) {
+    const failed = l.folds.filter((f) => f.failed !== undefined);
+    if (!failed.length) continue;
+    const where = failed.map((f) => `r${f.repeat + 1}.f${f.fold + 1}`).join(', ');
+    parts.push(`<p class="lead failed">${esc(`Failed folds: ${l.spec} failed in ${failed.length} of ${l.folds.length} folds (${where}); its scores use the other folds, and foldwise gate does not compare this report.`)}</p>`);
+  }
   const counts = [
     report.warnings.length ? `${report.warnings.length} warning${report.warnings.length === 1 ? '' : 's'}` : '',
     report.audit?.suspects.length ? `${report.audit.suspects.length} data-audit suspect${report.audit.suspects.length === 1 ? '' : 's'}` : '',

@@ -22,6 +22,7 @@ header p{margin:0;color:${MUTED}}
 h2{font-size:19px;margin:30px 0 8px;padding-bottom:4px;border-bottom:2px solid ${GRID}}
 h3{font-size:16px;margin:18px 0 6px}
 .lead{margin:6px 0 0}
+.lead.failed{font-weight:600}
 figure.chart{margin:8px 0 4px}
 figure.chart svg{display:block;width:100%;height:auto;max-width:1000px;font-family:inherit}
 figcaption{color:${MUTED};font-size:13.5px;margin-top:4px;max-width:1000px}
