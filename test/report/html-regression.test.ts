@@ -155,6 +155,14 @@ describe('regression charts of a single k-fold (every pooled prediction drawn)',
     expect(dotsOf(figureOf(html, 'scatter'), 'predictions').dots.length).toBe(342);
     expect(html).toContain(`<figcaption>${esc(`All 342 pooled out-of-fold predictions of ${top.spec}`)}`);
   });
+
+  it('leaves room left of the summary chart for "mean X" lines of scores in the hundreds', () => {
+    // right-aligned labels end at x; at 13 px each character takes about 0.6 x 13 px (textWidth)
+    const labels = [...html.matchAll(/<text x="([0-9.]+)" y="[0-9.]+" text-anchor="end" font-size="13"[^>]*>(mean [^<]+)<\/text>/g)];
+    expect(labels.length).toBe(report.learners.length);
+    expect(labels.some((m) => m[2].length >= 13)).toBe(true);
+    for (const m of labels) expect(Number(m[1]) - m[2].length * 13 * 0.6).toBeGreaterThanOrEqual(0);
+  });
 });
 
 describe('a classification page', async () => {

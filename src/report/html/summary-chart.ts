@@ -54,7 +54,9 @@ export function summaryChart(ctx: ChartContext): string {
   const { report, metric, higherIsBetter, baseline } = ctx;
   const learners = report.learners;
   const labelChars = Math.min(LABEL_CHARS, Math.max(8, ...learners.map((l) => Array.from(l.spec).length)));
-  const left = Math.max(110, textWidth(labelChars, 14) + 20);
+  // room for the longest learner label (14 px, bold) and the longest "mean X" line (13 px) under it
+  const meanChars = Math.max(0, ...learners.map((l) => `mean ${num(summaryOf(l, metric)?.mean)}`.length));
+  const left = Math.max(110, textWidth(labelChars, 14) + 20, textWidth(meanChars, 13) + 20);
   const right = WIDTH - 28;
   const key = legend();
   const TOP = key.bottom + 38;
