@@ -15,6 +15,7 @@ import type { LearnerReport, Report } from '../../src/report/types.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
+import { figureOf } from '../helpers/html.js';
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
@@ -29,13 +30,6 @@ async function run(name: string, args: string[]): Promise<{ report: Report; html
   expect(g.stderr).toBe('');
   expect(g.code).toBe(0);
   return { report: JSON.parse(readFileSync(json, 'utf8')) as Report, html: readFileSync(out, 'utf8') };
-}
-
-/** The markup of the figure with this id. */
-function figureOf(html: string, id: string): string {
-  const start = html.indexOf(`<figure class="chart" id="${id}">`);
-  expect(start).toBeGreaterThanOrEqual(0);
-  return html.slice(start, html.indexOf('</figure>', start) + '</figure>'.length);
 }
 
 interface Dot {

@@ -16,6 +16,7 @@ import { edgeOfWarning } from '../../src/search/edges.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
+import { figureOf, tags } from '../helpers/html.js';
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
@@ -30,24 +31,6 @@ async function tunePage(name: string, args: string[]): Promise<{ report: TuneRep
   expect(r.code).toBe(0);
   expect(r.stdout).toBe('');
   return { report: JSON.parse(readFileSync(json, 'utf8')) as TuneReport, html: readFileSync(html, 'utf8'), json };
-}
-
-/** The attributes of every start tag named `tag` (the page escapes all data, so a raw "<" always opens a tag). */
-function tags(html: string, tag: string): Map<string, string>[] {
-  const out: Map<string, string>[] = [];
-  for (const m of html.matchAll(new RegExp(`<${tag}\\b([^>]*)>`, 'g'))) {
-    const attrs = new Map<string, string>();
-    for (const a of m[1].matchAll(/([a-zA-Z_:][-a-zA-Z0-9_:.]*)="([^"]*)"/g)) attrs.set(a[1], a[2]);
-    out.push(attrs);
-  }
-  return out;
-}
-
-/** The markup of the figure with this id. */
-function figureOf(html: string, id: string): string {
-  const start = html.indexOf(`<figure class="chart" id="${id}">`);
-  expect(start).toBeGreaterThanOrEqual(0);
-  return html.slice(start, html.indexOf('</figure>', start) + 9);
 }
 
 /** The markup of each <g class="point" ...> group of a chart, up to its closing tag. */

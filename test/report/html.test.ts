@@ -17,6 +17,7 @@ import type { Report } from '../../src/report/types.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
+import { tags } from '../helpers/html.js';
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
@@ -35,17 +36,6 @@ async function render(path: string): Promise<string> {
   expect(r.stderr).toBe('');
   expect(r.code).toBe(0);
   return readFileSync(out, 'utf8');
-}
-
-/** The attributes of every start tag named `tag` (the page escapes all data, so a raw "<" always opens a tag). */
-function tags(html: string, tag: string): Map<string, string>[] {
-  const out: Map<string, string>[] = [];
-  for (const m of html.matchAll(new RegExp(`<${tag}\\b([^>]*)>`, 'g'))) {
-    const attrs = new Map<string, string>();
-    for (const a of m[1].matchAll(/([a-zA-Z_:][-a-zA-Z0-9_:.]*)="([^"]*)"/g)) attrs.set(a[1], a[2]);
-    out.push(attrs);
-  }
-  return out;
 }
 
 /** The markup of the i-th <g class="learner" ...> group (up to the next one, or the end of its chart). */
