@@ -10,7 +10,6 @@
  * come back row for row and class for class. The rest checks the protocol's promises (private
  * folder, absolute paths, working directory, environment, options) and every failure path.
  */
-import { Ajv } from 'ajv';
 import { existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { dirname, isAbsolute, join, resolve } from 'node:path';
 import { Readable } from 'node:stream';
@@ -20,12 +19,12 @@ import { run } from '../../src/cli/run.js';
 import type { TuneReport } from '../../src/report/tune-types.js';
 import type { Report } from '../../src/report/types.js';
 import { penguinsCsv } from '../helpers/penguins.js';
+import { schemaCheck } from '../helpers/schema.js';
 import { tempFolder } from '../helpers/tmp.js';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../..');
 const PROGRAM = join(ROOT, 'test/learners/command/share-program.mjs');
-const schema = JSON.parse(readFileSync(join(ROOT, 'schema/report.schema.json'), 'utf8'));
-const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
+const expectValid = schemaCheck('report.schema.json');
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
@@ -66,7 +65,7 @@ function report(r: Result): Report {
   expect(r.stderr.split('\n').filter((l) => l && !l.includes('warning'))).toEqual([]);
   expect(r.code).toBe(0);
   const rep = JSON.parse(r.stdout) as Report;
-  expect(validate(rep)).toBe(true);
+  expectValid(rep);
   return rep;
 }
 

@@ -1,19 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { Ajv } from 'ajv';
 import { readFileSync, existsSync, readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import type { Report } from '../../src/report/types.js';
+import { schemaCheck } from '../helpers/schema.js';
 
-const schema = JSON.parse(readFileSync(new URL('../../schema/report.schema.json', import.meta.url), 'utf8'));
-const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
-function expectValid(report: unknown): void {
-  const ok = validate(report);
-  expect(validate.errors ?? []).toEqual([]);
-  expect(ok).toBe(true);
-}
+const expectValid = schemaCheck('report.schema.json');
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());

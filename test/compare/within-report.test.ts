@@ -1,4 +1,3 @@
-import { Ajv } from 'ajv';
 import jStat from 'jstat';
 import { readFileSync } from 'node:fs';
 import { mean, sampleVariance } from 'simple-statistics';
@@ -8,14 +7,9 @@ import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { syntheticCsv } from './synthetic.js';
+import { schemaCheck } from '../helpers/schema.js';
 
-const schema = JSON.parse(readFileSync(new URL('../../schema/report.schema.json', import.meta.url), 'utf8'));
-const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
-function expectValid(report: unknown): void {
-  const ok = validate(report);
-  expect(validate.errors ?? []).toEqual([]);
-  expect(ok).toBe(true);
-}
+const expectValid = schemaCheck('report.schema.json');
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());

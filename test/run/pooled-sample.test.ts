@@ -7,7 +7,6 @@
  * the textbook definition), against the predictions recorded in a shard part, and for byte
  * identity across --jobs and merged shards.
  */
-import { Ajv } from 'ajv';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
@@ -17,14 +16,9 @@ import type { Report } from '../../src/report/types.js';
 import { cli } from '../helpers/cli.js';
 import { PENGUINS_JSON, penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
+import { schemaCheck } from '../helpers/schema.js';
 
-const schema = JSON.parse(readFileSync(new URL('../../schema/report.schema.json', import.meta.url), 'utf8'));
-const validate = new Ajv({ allErrors: true, strict: true, allowUnionTypes: true }).compile(schema);
-function expectValid(report: unknown): void {
-  const ok = validate(report);
-  expect(validate.errors ?? []).toEqual([]);
-  expect(ok).toBe(true);
-}
+const expectValid = schemaCheck('report.schema.json');
 
 const range = (n: number): number[] => Array.from({ length: n }, (_, i) => i);
 
