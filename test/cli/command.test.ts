@@ -109,6 +109,23 @@ describe('command: learners reproduce the built-in baseline through the file pro
   });
 });
 
+describe('command: learners on a holdout plan with --final', () => {
+  it('score the holdout once, like the baseline, in a fold labelled final', async () => {
+    const seen = join(work, 'inspect-final.jsonl');
+    const r = await foldwise(
+      ['eval', penguins, '--target', 'Species', '--plan', 'holdout:0.6/0.2/0.2', '--final', '--json', '-', '--no-timing', '--no-audit', '--quiet', '--jobs', '1', '--metric', 'accuracy', '--learner', `command:shares;inspect=${seen}`, ...command()],
+      tempRoot(),
+    );
+    const rep = report(r);
+    const [b, c] = rep.learners;
+    expect(c.final).toBeDefined();
+    expect(c.final!.scores.accuracy).toBe(b.final!.scores.accuracy);
+    expect(c.final!.testRows).toBe(b.final!.testRows);
+    const folds = readFileSync(seen, 'utf8').trim().split('\n').map((l) => JSON.parse(l).fold as string);
+    expect(folds).toEqual(['r1.f1', 'final']);
+  });
+});
+
 describe('the protocol as the program sees it', () => {
   it('private 0700 folder as working directory, absolute paths, environment, options, job file', async () => {
     const root = tempRoot();
