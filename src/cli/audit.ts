@@ -13,7 +13,7 @@ import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { checkWritable } from '../report/atomic.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
-import { addDataOptions, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io } from './run.js';
+import { addDataOptions, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io, problemOptionsOf } from './run.js';
 
 interface AuditFlags extends DataFlags {
   plan: string;
@@ -39,11 +39,7 @@ async function runAudit(data: string, flags: AuditFlags, io: Io): Promise<number
   const clusterThreshold = parseClusterThreshold(flags.clusterThreshold);
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
   const report = audit(table, {
-    target: flags.target,
-    drop: flags.drop,
-    task: flags.task,
-    group: flags.group,
-    order: flags.order,
+    ...problemOptionsOf(flags),
     plan: flags.plan,
     stratify: flags.stratify,
     seed,

@@ -10,6 +10,7 @@ import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
+import type { ProblemOptions } from '../data/problem.js';
 import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
 import { LEARNERS } from '../learners/index.js';
 import { TASKS, type Task } from '../learners/types.js';
@@ -104,6 +105,11 @@ export function sourceOf(data: string, io: Io): CsvSource {
   return { path: data };
 }
 
+/** The problem flags every data command shares: target, dropped columns, task, group and order. */
+export function problemOptionsOf(flags: DataFlags): ProblemOptions {
+  return { target: flags.target, drop: flags.drop, task: flags.task, group: flags.group, order: flags.order };
+}
+
 export function loadOptionsOf(flags: DataFlags): LoadOptions {
   return {
     delimiter: parseDelimiter(flags.delimiter ?? ','),
@@ -178,11 +184,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   const result = await execute(table, {
-    target: flags.target,
-    drop: flags.drop,
-    task: flags.task,
-    group: flags.group,
-    order: flags.order,
+    ...problemOptionsOf(flags),
     plan: flags.plan,
     stratify: flags.stratify,
     learners: flags.learner,

@@ -6,7 +6,7 @@ import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { splitTable } from '../run/split.js';
-import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io } from './run.js';
+import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io, problemOptionsOf } from './run.js';
 
 interface SplitFlags extends DataFlags {
   plan: string;
@@ -39,11 +39,7 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     text = readFileSync(data, 'utf8');
   }
   const result = splitTable(table, text, {
-    target: flags.target,
-    drop: flags.drop,
-    task: flags.task,
-    group: flags.group,
-    order: flags.order,
+    ...problemOptionsOf(flags),
     plan: flags.plan,
     stratify: flags.stratify,
     seed,

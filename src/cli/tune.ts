@@ -22,7 +22,7 @@ import { DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tune } from '../search/tune.js';
-import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf } from './run.js';
+import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './run.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 
@@ -87,11 +87,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
 
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
   const report = tune(table, {
-    target: flags.target,
-    drop: flags.drop,
-    task: flags.task,
-    group: flags.group,
-    order: flags.order,
+    ...problemOptionsOf(flags),
     plan: flags.plan,
     inner: flags.inner,
     stratify: flags.stratify,
