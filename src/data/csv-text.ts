@@ -4,6 +4,7 @@
  * double quotes inside doubled. Numbers are written as JavaScript writes them (the shortest
  * text that reads back as the same double), a missing value as an empty field.
  */
+import type { Matrix, Target } from '../learners/types.js';
 import type { Problem } from './problem.js';
 
 /** One field, quoted when needed. */
@@ -21,6 +22,13 @@ export function numberField(v: number): string {
   return Number.isNaN(v) ? '' : String(v);
 }
 
+/** The field of target entry i: its class name (quoted as needed) or its value. */
+function targetField(y: Target): (i: number) => string {
+  if (y.task === 'regression') return (i) => numberField(y.values[i]);
+  const names = y.classes.map(csvField);
+  return (i) => names[y.codes[i]];
+}
+
 /**
  * The used rows `idx` of a problem as foldwise read them, before preprocessing: a header of the
  * feature names (and the target name last, when `withTarget`), then one line per row. Numbers
@@ -30,8 +38,7 @@ export function problemRowsCsv(problem: Problem, idx: Int32Array, withTarget: bo
   const names = problem.features.map((f) => f.name);
   const parts: string[] = [csvRow(withTarget ? [...names, problem.targetName] : names)];
   const levelFields = problem.features.map((f) => (f.kind === 'categorical' ? f.levels.map(csvField) : []));
-  const y = problem.target;
-  const classFields = y.task === 'classification' ? y.classes.map(csvField) : [];
+  const target = targetField(problem.target);
   for (let i = 0; i < idx.length; i++) {
     const r = problem.rows[idx[i]];
     const fields: string[] = [];
@@ -39,7 +46,20 @@ export function problemRowsCsv(problem: Problem, idx: Int32Array, withTarget: bo
       if (f.kind === 'numeric') fields.push(numberField(f.values[r]));
       else fields.push(f.codes[r] < 0 ? '' : levelFields[j][f.codes[r]]);
     });
-    if (withTarget) fields.push(y.task === 'classification' ? classFields[y.codes[idx[i]]] : numberField(y.values[idx[i]]));
+    if (withTarget) fields.push(target(idx[i]));
+    parts.push(`${fields.join(',')}\n`);
+  }
+  return parts.join('');
+}
+
+/** A matrix as CSV text under a header of `columns`; `target` adds y as the last column. */
+export function matrixCsv(X: Matrix, columns: readonly string[], target?: { readonly name: string; readonly y: Target }): string {
+  const parts: string[] = [csvRow(target ? [...columns, target.name] : columns)];
+  const field = target ? targetField(target.y) : undefined;
+  const fields = new Array<string>(X.cols + (field ? 1 : 0));
+  for (let i = 0; i < X.rows; i++) {
+    for (let j = 0; j < X.cols; j++) fields[j] = numberField(X.data[i * X.cols + j]);
+    if (field) fields[X.cols] = field(i);
     parts.push(`${fields.join(',')}\n`);
   }
   return parts.join('');

@@ -4,6 +4,7 @@
  * matrix of the best learner, the quick audit's suspects, and the warnings. Numbers are
  * right-aligned with four decimals.
  */
+import { foldLabel } from './fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from './types.js';
 
 const DIGITS = 4;
@@ -105,7 +106,7 @@ function failedLines(report: Report): string[] {
   return report.learners.flatMap((l) => {
     const failed = l.folds.filter((f) => f.failed !== undefined);
     if (!failed.length) return [];
-    const where = failed.map((f) => `r${f.repeat + 1}.f${f.fold + 1}`).join(', ');
+    const where = failed.map(foldLabel).join(', ');
     return [`- **Failed folds: ${cell(l.spec)} failed in ${failed.length} of ${l.folds.length} folds (${where})**; its scores use the other folds, and \`foldwise gate\` does not compare this report (the reasons are under Warnings)`];
   });
 }

@@ -23,6 +23,7 @@ import type { FoldScores, LearnerReport, Report, ReportAudit, ScoreSummary } fro
 import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
+import { foldLabel } from '../report/fold-label.js';
 import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
@@ -143,10 +144,8 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     folds: [] as FoldScores[],
     preds: [] as Prediction[],
     actual: [] as Target[],
-    trainRows: [] as number[],
     times: { fitMs: 0, predictMs: 0 },
     final: undefined as { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string } | undefined,
-    failed: [] as string[],
   }));
   for (const r of records) {
     const l = perLearner[r.candidateIndex];
@@ -161,20 +160,19 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     }
     if (r.failed) {
       // a failed fold is listed with null scores and left out of the pooled predictions
-      l.failed.push(`r${r.repeat + 1}.f${r.fold + 1}: ${r.failed}`);
       l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores, failed: r.failed });
       continue;
     }
     l.preds.push(r);
     l.actual.push(r.actual);
-    l.trainRows.push(r.trainRows);
     l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores });
   }
   const classes = frame.data.classes?.length ?? 0;
 
   const learners: LearnerReport[] = frame.learners.map((c, li) => {
-    const { folds, preds, actual, failed } = perLearner[li];
+    const { folds, preds, actual } = perLearner[li];
     const scored = folds.filter((f) => !f.failed);
+    const failed = folds.filter((f) => f.failed).map((f) => `${foldLabel(f)}: ${f.failed}`);
     const sized = scored.length ? scored : folds;
     const trainMean = meanOf(sized.map((f) => f.trainRows));
     const testMean = meanOf(sized.map((f) => f.testRows));

@@ -9,6 +9,7 @@ import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
 import { problemRowsCsv } from '../data/csv-text.js';
 import { CommandFoldError } from '../learners/command/errors.js';
+import { foldLabel } from '../report/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
 import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
@@ -62,7 +63,7 @@ export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: numb
   const spec = ctx.candidates[candidateIndex].spec;
   if (foldIndex < 0) return `final:${spec}`;
   const f = ctx.plan.folds[foldIndex];
-  return `r${f.repeat + 1}.f${f.fold + 1}:${spec}`;
+  return `${foldLabel(f)}:${spec}`;
 }
 
 /** Every task of a run, in the order a single run performs them (fold by fold). */
@@ -158,7 +159,7 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
   const seed = f ? deriveSeed(ctx.seed, 'fit', c.spec, f.repeat, f.fold) : deriveSeed(ctx.seed, 'final', c.spec);
   const Xtrain = split.matrix('train', c.learner.needsScaling);
   const Xtest = split.matrix('test', c.learner.needsScaling);
-  const fold = split.view(f ? `r${f.repeat + 1}.f${f.fold + 1}` : 'final', c.learner.needsScaling);
+  const fold = split.view(f ? foldLabel(f) : 'final', c.learner.needsScaling);
   const t0 = performance.now();
   try {
     const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed, fold });

@@ -11,7 +11,7 @@
  * and any other key=value, passed to the program as text (environment and job.json).
  */
 import { InputError, UsageError } from '../../errors.js';
-import { csvField, csvRow, numberField } from '../../data/csv-text.js';
+import { matrixCsv } from '../../data/csv-text.js';
 import type { Learner, Matrix, Model, Params, ParamSpec, Target } from '../types.js';
 import { runFold } from './invoke.js';
 import { readPredictions } from './predictions.js';
@@ -24,20 +24,6 @@ const PARAMS: readonly ParamSpec[] = [
   { name: 'timeout', kind: 'number', min: 0, minExclusive: true, max: 604800, default: DEFAULT_TIMEOUT_S, doc: 'seconds the program may take per fold before it is stopped' },
   { name: 'prep', kind: 'choice', choices: PREP_CHOICES, default: 'foldwise', doc: 'foldwise: numeric, imputed and one-hot encoded per fold; raw: the columns as read' },
 ];
-
-/** A matrix as CSV text with a header; `y` adds the target as the last column. */
-function matrixCsv(X: Matrix, columns: readonly string[], target?: { name: string; y: Target }): string {
-  const parts: string[] = [csvRow(target ? [...columns, target.name] : columns)];
-  const y = target?.y;
-  const classFields = y?.task === 'classification' ? y.classes.map(csvField) : [];
-  const fields = new Array<string>(X.cols + (y ? 1 : 0));
-  for (let i = 0; i < X.rows; i++) {
-    for (let j = 0; j < X.cols; j++) fields[j] = numberField(X.data[i * X.cols + j]);
-    if (y) fields[X.cols] = y.task === 'classification' ? classFields[y.codes[i]] : numberField(y.values[i]);
-    parts.push(`${fields.join(',')}\n`);
-  }
-  return parts.join('');
-}
 
 interface Saved {
   readonly learner: string;

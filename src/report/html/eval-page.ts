@@ -24,6 +24,7 @@ import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
 import { residualChart, scatterChart } from './regression-charts.js';
 import { summaryChart } from './summary-chart.js';
+import { foldLabel } from '../fold-label.js';
 import type { Report } from '../types.js';
 
 export function renderEvalHtml(report: Report): string {
@@ -43,7 +44,7 @@ export function renderEvalHtml(report: Report): string {
   for (const l of report.learners) {
     const failed = l.folds.filter((f) => f.failed !== undefined);
     if (!failed.length) continue;
-    const where = failed.map((f) => `r${f.repeat + 1}.f${f.fold + 1}`).join(', ');
+    const where = failed.map(foldLabel).join(', ');
     parts.push(`<p class="lead failed">${esc(`Failed folds: ${l.spec} failed in ${failed.length} of ${l.folds.length} folds (${where}); its scores use the other folds, and foldwise gate does not compare this report.`)}</p>`);
   }
   const counts = [
