@@ -2,17 +2,19 @@
 import { writeOutputs } from './output.js';
 import type { Command } from 'commander';
 import { readFileSync } from 'node:fs';
-import { EXIT_OK, InputError } from '../errors.js';
+import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
 import { checkWritable } from '../report/atomic.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
-import { mergeParts, parsePartial } from '../run/partial.js';
+import { mergePartsWithRecords, parsePartial } from '../run/partial.js';
+import { checkPredictionsPath, writePredictions } from './predictions-output.js';
 import type { Io } from './run.js';
 
 interface MergeFlags {
   json?: string;
   markdown?: string;
+  predictions?: string;
   timing: boolean;
 }
 
@@ -32,14 +34,27 @@ export function registerMerge(prog: Command, io: Io, setCode: (code: number) => 
     .argument('<parts...>', 'part files written by foldwise eval --shard I/N --json FILE')
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
+    .option('--predictions <file>', 'write every out-of-fold prediction the parts carry as CSV to a file, or - for standard output')
     .option('--no-timing', 'leave timings out (byte-identical to a single run with --no-timing)')
     .option('--verbose', 'print stack traces of errors')
-    .action((paths: string[], flags: MergeFlags) => {
+    .action(async (paths: string[], flags: MergeFlags) => {
+      if ([flags.json, flags.markdown, flags.predictions].filter((f) => f === '-').length > 1) {
+        throw new UsageError('--json -, --markdown - and --predictions -: only one of them can go to standard output');
+      }
       if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
       if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+      checkPredictionsPath(flags.predictions);
+      if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
       const parts = paths.map((p) => parsePartial(readPart(p), p));
-      const report = mergeParts(parts, paths, flags.timing);
-      writeOutputs(io, flags, { json: () => renderJson(report), markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter) });
+      const { report, frame, records, keep } = mergePartsWithRecords(parts, paths, flags.timing);
+      if (flags.predictions) {
+        const missing = records.find((r) => !r.failed && !r.rows);
+        if (missing) throw new InputError(`merge --predictions: the parts carry no row numbers (task ${missing.id}); they were made by an older foldwise: rerun the shards`);
+        await writePredictions(io, flags.predictions, frame, records, keep);
+      }
+      if (flags.predictions !== '-' || flags.json || flags.markdown) {
+        writeOutputs(io, flags, { json: () => renderJson(report), markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter) });
+      }
       setCode(EXIT_OK);
     });
 }

@@ -26,6 +26,7 @@ import { DEFAULT_TIMEOUT_S } from '../learners/command/protocol.js';
 import { execute } from '../run/execute.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
+import { registerScore } from './score.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
 import { registerAudit } from './audit.js';
@@ -35,6 +36,7 @@ import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { writeOutputs } from './output.js';
+import { checkPredictionsPath, writePredictions } from './predictions-output.js';
 import { runSplit } from './split.js';
 import { printAuditSuspects } from './warnings.js';
 
@@ -137,6 +139,8 @@ interface EvalFlags extends DataFlags, CommandFlags {
   quiet?: boolean;
   audit: boolean;
   html?: string;
+  predictions?: string;
+  predictionsKeep?: string[];
 }
 
 /** --jobs: a whole number from 1 to 256. */
@@ -167,10 +171,12 @@ export function checkOutputs(data: string, outputs: readonly (readonly [string, 
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
-  if ([flags.json, flags.markdown, flags.html].filter((f) => f === '-').length > 1) {
-    throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
+  if ([flags.json, flags.markdown, flags.html, flags.predictions].filter((f) => f === '-').length > 1) {
+    throw new UsageError('--json -, --markdown -, --html - and --predictions -: only one of them can go to standard output');
   }
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]]);
+  checkPredictionsPath(flags.predictions);
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]]);
+  if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
   if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
@@ -178,6 +184,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   const jobs = parseJobs(flags.jobs);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
+  if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
   const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
@@ -201,6 +208,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     jobs,
     shard,
     journal: flags.journal,
+    keep: flags.predictionsKeep,
     stopRequested: io.interrupted,
     baseDir: io.cwd ?? resolve('.'),
     progress: (done, total, resumed) => {
@@ -219,11 +227,16 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   if (commands?.keepTemp) io.stderr.write(`foldwise: --keep-temp: the folders of each fold are in ${commands.tempRoot} (foldwise-NAME-FOLD-*)\n`);
-  writeOutputs(io, flags, {
-    json: () => renderJson(report),
-    markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
-    html: () => renderEvalHtml(report),
-  });
+  if (flags.predictions) await writePredictions(io, flags.predictions, result.frame, result.records, flags.predictionsKeep ?? []);
+  // with the predictions on standard output, a report is written only where a flag says
+  const reportsAsked = Boolean(flags.json || flags.markdown || flags.html);
+  if (flags.predictions !== '-' || reportsAsked) {
+    writeOutputs(io, flags, {
+      json: () => renderJson(report),
+      markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
+      html: () => renderEvalHtml(report),
+    });
+  }
   return EXIT_OK;
 }
 
@@ -279,6 +292,8 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')
     .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
     .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')
+    .option('--predictions <file>', 'write every out-of-fold prediction as CSV to a file, or - for standard output')
+    .option('--predictions-keep <column>', 'copy an input column (an id, say) into each line of the predictions file (repeatable)', collect)
     .option('--no-audit', 'skip the quick data audit that runs before evaluating')
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
@@ -297,6 +312,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerTune(prog, io, setCode);
   registerRender(prog, io, setCode);
   registerMerge(prog, io, setCode);
+  registerScore(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
   prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));

@@ -78,10 +78,22 @@ export interface DataSection {
   readonly dropped: readonly string[];
 }
 
+/** Where a report's predictions came from, when not from a foldwise eval run. */
+export interface ReportSource {
+  readonly kind: 'predictions';
+  /** the predictions file as given */
+  readonly file: string;
+  /** the file was written by foldwise eval --predictions (true) or elsewhere (false) */
+  readonly foldwise: boolean;
+  /** where each fold's training size came from: the file's train_rows column, --train-rows, or assumed k-fold over the rows present */
+  readonly trainRows: 'file' | 'option' | 'assumed-kfold';
+}
+
 export interface Report {
   readonly schema: string;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
-  readonly command: 'eval';
+  /** eval, or score for a report computed from a predictions file */
+  readonly command: 'eval' | 'score';
   readonly data: DataSection;
   readonly plan: {
     readonly kind: string;
@@ -96,7 +108,11 @@ export interface Report {
     readonly holdoutRows?: number;
     /** true when the holdout part was scored (--final) */
     readonly finalScored?: boolean;
+    /** SHA-256 of which rows each fold tests (src/run/assignment.ts); absent when unknown */
+    readonly assignment?: string;
   };
+  /** present when the scores were computed by `foldwise score` from a predictions file */
+  readonly source?: ReportSource;
   readonly settings: { readonly impute: string };
   /** the reported metrics, headline first */
   readonly metrics: readonly string[];

@@ -24,6 +24,7 @@ import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { foldLabel } from '../report/fold-label.js';
+import { assignmentOf } from './assignment.js';
 import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
@@ -66,6 +67,12 @@ export interface TaskRecord {
   readonly predictMs: number;
   /** why the task failed; `predicted` is then empty */
   readonly failed?: string;
+  /** 0-based data row in the input file of each test row (for --predictions) */
+  readonly rows?: Int32Array;
+  /** 1-based line in the input file of each test row */
+  readonly lines?: Int32Array;
+  /** --predictions-keep: the kept columns' text, row by row (rows x kept columns) */
+  readonly keep?: readonly string[];
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {
@@ -82,6 +89,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
       ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
       seed: prepared.seed,
       ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: prepared.final } : {}),
+      assignment: assignmentOf(plan.folds.map((f) => ({ repeat: f.repeat, fold: f.fold, rows: Array.from(f.test, (u) => problem.rows[u]) }))),
     },
     settings: { impute: prepared.impute },
     metrics: metrics.map((m) => m.name),
@@ -98,6 +106,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
 export function recordsOf(prepared: Prepared, results: readonly TaskResult[], only?: ReadonlySet<string>): TaskRecord[] {
   const byId = new Map(results.map((r) => [r.id, r]));
   const targets = new Map<number, Target>();
+  const places = new Map<number, { rows: Int32Array; lines: Int32Array }>();
   const tasks = taskList(prepared).filter((t) => !only || only.has(t.id));
   return tasks.map((t) => {
     const { train, test } = splitRows(prepared, t.foldIndex);
@@ -107,6 +116,12 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
     let actual = targets.get(t.foldIndex);
     if (!actual) targets.set(t.foldIndex, (actual = subsetTarget(prepared.problem.target, test)));
     const f = t.foldIndex >= 0 ? prepared.plan.folds[t.foldIndex] : { repeat: 0, fold: 0 };
+    let where = places.get(t.foldIndex);
+    if (!where) {
+      const rows = Int32Array.from(test, (u) => prepared.problem.rows[u]);
+      where = { rows, lines: Int32Array.from(rows, (r) => prepared.problem.table.lines[r]) };
+      places.set(t.foldIndex, where);
+    }
     return {
       id: t.id,
       candidateIndex: t.candidateIndex,
@@ -120,6 +135,8 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
+      rows: where.rows,
+      lines: where.lines,
     };
   });
 }

@@ -9,7 +9,8 @@ import type { Table } from '../data/types.js';
 import { FoldwiseError } from '../errors.js';
 import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
 import type { Report } from '../report/types.js';
-import { assembleReport, frameOf, recordsOf } from './evaluate.js';
+import { assembleReport, frameOf, recordsOf, type ReportFrame, type TaskRecord } from './evaluate.js';
+import { checkKeep, keptText } from './predictions-out.js';
 import { identityOf } from './identity.js';
 import { openJournal } from './journal.js';
 import { makePartial, type PartialReport } from './partial.js';
@@ -39,14 +40,20 @@ export interface ExecOptions {
   readonly baseDir?: string;
   /** the programs of `command:` learners, their environment and temporary folder */
   readonly commands?: CommandSetup;
+  /** --predictions-keep: input columns whose text the records carry (for the predictions file) */
+  readonly keep?: readonly string[];
 }
 
-export type ExecResult = { readonly kind: 'report'; readonly report: Report } | { readonly kind: 'partial'; readonly partial: PartialReport };
+export type ExecResult =
+  | { readonly kind: 'report'; readonly report: Report; readonly frame: ReportFrame; readonly records: readonly TaskRecord[] }
+  | { readonly kind: 'partial'; readonly partial: PartialReport };
 
 export async function execute(table: Table, options: EvaluateOptions, exec: ExecOptions = {}): Promise<ExecResult> {
   const started = performance.now();
   await loadExternalLearners(options.learners ?? [], exec.baseDir ?? '/', exec.commands);
   const prepared = withAudit(prepareRun(table, options), options);
+  const keep = exec.keep ?? [];
+  checkKeep(table, keep, prepared.problem.task, prepared.problem.target.task === 'classification' ? prepared.problem.target.classes : []);
   const all = taskList(prepared);
   const mine = exec.shard ? shardTasks(all, exec.shard) : all;
   const identity = identityOf(prepared);
@@ -89,10 +96,12 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   }
   const ordered = mine.map((t) => results.get(t.id)!);
   const frame = frameOf(prepared);
+  const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
   if (exec.shard) {
-    const records = recordsOf(prepared, ordered, new Set(mine.map((t) => t.id)));
-    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records) };
+    const records = withKeep(recordsOf(prepared, ordered, new Set(mine.map((t) => t.id))));
+    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, keep) };
   }
   const totalMs = options.timing === false ? undefined : performance.now() - started;
-  return { kind: 'report', report: assembleReport(frame, recordsOf(prepared, ordered), totalMs) };
+  const records = withKeep(recordsOf(prepared, ordered));
+  return { kind: 'report', report: assembleReport(frame, records, totalMs), frame, records };
 }

@@ -29,6 +29,11 @@ interface RecordJSON {
   readonly fitMs: number;
   readonly predictMs: number;
   readonly failed?: string;
+  /** 0-based data rows and 1-based lines of the test rows (for merge --predictions) */
+  readonly rows?: number[];
+  readonly lines?: number[];
+  /** --predictions-keep: the kept columns' text, row by row */
+  readonly keep?: string[];
 }
 
 export interface PartialReport {
@@ -40,9 +45,18 @@ export interface PartialReport {
   /** every task id of the whole run, in the run's order */
   readonly tasks: readonly string[];
   readonly records: readonly RecordJSON[];
+  /** the columns --predictions-keep copied into the records (absent when none) */
+  readonly keep?: readonly string[];
 }
 
-export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: ShardSpec, allTasks: readonly string[], records: readonly TaskRecord[]): PartialReport {
+export function makePartial(
+  identity: RunIdentity,
+  frame: ReportFrame,
+  shard: ShardSpec,
+  allTasks: readonly string[],
+  records: readonly TaskRecord[],
+  keep: readonly string[] = [],
+): PartialReport {
   return {
     schema: PARTIAL_FORMAT,
     tool: { name: 'foldwise', version: VERSION },
@@ -63,7 +77,11 @@ export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: Sh
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
+      ...(r.rows ? { rows: Array.from(r.rows) } : {}),
+      ...(r.lines ? { lines: Array.from(r.lines) } : {}),
+      ...(r.keep ? { keep: [...r.keep] } : {}),
     })),
+    ...(keep.length ? { keep: [...keep] } : {}),
   };
 }
 
@@ -85,6 +103,9 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(fromJsonNumbers(j.predicted)),
     ...(j.proba ? { proba: Float64Array.from(fromJsonNumbers(j.proba)) } : {}),
     ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
+    ...(Array.isArray(j.rows) ? { rows: Int32Array.from(j.rows) } : {}),
+    ...(Array.isArray(j.lines) ? { lines: Int32Array.from(j.lines) } : {}),
+    ...(Array.isArray(j.keep) ? { keep: j.keep.map(String) } : {}),
   };
 }
 
@@ -104,6 +125,15 @@ export function parsePartial(text: string, name: string): PartialReport {
 
 /** Merges parts into the report of the whole run. `names` label the parts in errors. */
 export function mergeParts(parts: readonly PartialReport[], names: readonly string[], timing: boolean): Report {
+  return mergePartsWithRecords(parts, names, timing).report;
+}
+
+/** As mergeParts, also giving the task records in run order and the kept column names (for merge --predictions). */
+export function mergePartsWithRecords(
+  parts: readonly PartialReport[],
+  names: readonly string[],
+  timing: boolean,
+): { report: Report; frame: ReportFrame; records: TaskRecord[]; keep: readonly string[] } {
   if (parts.length === 0) throw new InputError('merge: give the part files to merge');
   const first = parts[0];
   parts.forEach((p, i) => {
@@ -129,7 +159,13 @@ export function mergeParts(parts: readonly PartialReport[], names: readonly stri
     ...(unknown.length ? [`${unknown.length} not of this run: ${unknown.slice(0, 5).join(', ')}`] : []),
   ];
   if (problems.length) throw new InputError(`merge: ${problems.join('; ')}; run or add the missing shards`);
+  const keep = first.keep ?? [];
+  parts.forEach((p, i) => {
+    if (JSON.stringify(p.keep ?? []) !== JSON.stringify(keep)) {
+      throw new InputError(`merge: ${names[i]} keeps the columns ${JSON.stringify(p.keep ?? [])} and ${names[0]} ${JSON.stringify(keep)}; make every part with the same --predictions-keep`);
+    }
+  });
   const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
   const total = timing ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
-  return assembleReport(first.frame, ordered, total);
+  return { report: assembleReport(first.frame, ordered, total), frame: first.frame, records: ordered, keep };
 }

@@ -1,0 +1,123 @@
+/**
+ * `foldwise score`: the report of an eval run, computed from a predictions file instead of from
+ * fits. The file's groups become task records and go through the same assembly as a run
+ * (src/run/evaluate.ts `assembleReport`): the same metrics, per-fold summaries, pooled scores,
+ * corrected intervals and paired comparisons, so a file written by `eval --predictions` scores
+ * back to the run's own numbers.
+ *
+ * The corrected interval needs each fold's training size. It comes from the file's train_rows
+ * column (foldwise's files), from --train-rows N, or, failing both, it is assumed to be k-fold
+ * over the rows present: a fold trains on the other folds of its repeat. The report's `source`
+ * says which, and a warning says so when it was assumed.
+ */
+import { createHash } from 'node:crypto';
+import { UsageError } from '../errors.js';
+import type { Target } from '../learners/types.js';
+import { defaultMetrics, getMetric } from '../metrics/index.js';
+import type { Report, ReportSource } from '../report/types.js';
+import { assignmentOf } from '../run/assignment.js';
+import { assembleReport, type ReportFrame, type TaskRecord } from '../run/evaluate.js';
+import { readPredictions, type ReadPredictions, type ScoreColumns } from './read-predictions.js';
+
+export interface ScoreOptions extends ScoreColumns {
+  readonly metrics?: readonly string[];
+  /** the training rows of every fold, when the file does not say */
+  readonly trainRows?: number;
+}
+
+function learnerName(spec: string): string {
+  const colon = spec.search(/[:;]/);
+  return colon < 0 ? spec : spec.slice(0, colon);
+}
+
+function checkMetrics(read: ReadPredictions, names: readonly string[] | undefined): string[] {
+  const list = names?.length ? [...names] : defaultMetrics(read.task);
+  for (const m of list) {
+    const metric = getMetric(m);
+    if (metric.task !== read.task) throw new UsageError(`--metric ${m}: a ${metric.task} metric, but the predictions are for ${read.task}`);
+  }
+  return list;
+}
+
+/** Builds the report of a predictions file's text. */
+export function scoreReport(text: string, file: string, opts: ScoreOptions = {}): Report {
+  const read = readPredictions(text, file, opts);
+  const metrics = checkMetrics(read, opts.metrics);
+  const test = read.groups.filter((g) => !g.holdout);
+  const trainFrom: ReportSource['trainRows'] = read.hasTrainRows ? 'file' : opts.trainRows !== undefined ? 'option' : 'assumed-kfold';
+  const warnings: string[] = [];
+
+  // rows per repeat for the first learner, for the assumed k-fold training sizes
+  const rowsInRepeat = new Map<number, number>();
+  for (const g of test) if (g.learner === 0) rowsInRepeat.set(g.repeat, (rowsInRepeat.get(g.repeat) ?? 0) + g.actual.length);
+  const trainOf = (g: (typeof read.groups)[number]): number => {
+    if (g.trainRows !== undefined) return g.trainRows;
+    if (opts.trainRows !== undefined) return opts.trainRows;
+    if (g.holdout) return Math.max(1, ...rowsInRepeat.values());
+    return Math.max(1, (rowsInRepeat.get(g.repeat) ?? 0) - g.actual.length);
+  };
+  if (trainFrom === 'assumed-kfold') {
+    warnings.push(
+      'the predictions file gives no training sizes: each fold is assumed to have trained on the other folds of its repeat (k-fold); give --train-rows N if it did not, since the corrected intervals depend on it',
+    );
+  }
+
+  const folds = [...new Map(test.map((g) => [`${g.repeat}.${g.fold}`, g])).values()];
+  const foldsPerRepeat = Math.max(...[...new Set(folds.map((g) => g.repeat))].map((r) => folds.filter((g) => g.repeat === r).length));
+  const repeats = new Set(folds.map((g) => g.repeat)).size;
+  const first = test.filter((g) => g.learner === 0);
+  const assignment = read.hasRows ? assignmentOf(first.map((g) => ({ repeat: g.repeat, fold: g.fold, rows: g.rows }))) : undefined;
+  const holdoutRows = read.groups.find((g) => g.holdout)?.actual.length;
+
+  const frame: ReportFrame = {
+    data: {
+      path: file,
+      sha256: createHash('sha256').update(text).digest('hex'),
+      rows: read.lines,
+      columns: read.columns,
+      rowsUsed: first.filter((g) => g.repeat === 0).reduce((s, g) => s + g.actual.length, 0),
+      excludedRows: 0,
+      target: read.actualName,
+      task: read.task,
+      ...(read.classes ? { classes: read.classes } : {}),
+      features: [],
+      dropped: [],
+    },
+    plan: {
+      kind: 'given',
+      text: `folds given by ${file}`,
+      folds: foldsPerRepeat,
+      repeats,
+      stratified: false,
+      seed: 0,
+      ...(holdoutRows !== undefined ? { holdoutRows, finalScored: true } : {}),
+      ...(assignment ? { assignment } : {}),
+    },
+    settings: { impute: 'unknown' },
+    metrics,
+    warnings,
+    learners: read.learners.map((spec) => ({ name: learnerName(spec), spec, params: {} })),
+  };
+
+  const classes = read.classes ?? [];
+  const records: TaskRecord[] = read.groups.map((g, i) => {
+    const actual: Target = read.task === 'classification' ? { task: 'classification', codes: Int32Array.from(g.actual), classes } : { task: 'regression', values: Float64Array.from(g.actual) };
+    return {
+      id: `${i}`,
+      candidateIndex: g.learner,
+      foldIndex: g.holdout ? -1 : folds.findIndex((f) => f.repeat === g.repeat && f.fold === g.fold),
+      repeat: g.holdout ? 0 : g.repeat,
+      fold: g.holdout ? 0 : g.fold,
+      trainRows: trainOf(g),
+      actual,
+      predicted: read.task === 'classification' ? Int32Array.from(g.predicted) : Float64Array.from(g.predicted),
+      ...(g.proba ? { proba: Float64Array.from(g.proba) } : {}),
+      fitMs: 0,
+      predictMs: 0,
+    };
+  });
+  const report = assembleReport(frame, records);
+  const source: ReportSource = { kind: 'predictions', file, foldwise: read.foldwise, trainRows: trainFrom };
+  const { schema, tool, command: _eval, ...rest } = report;
+  return { schema, tool, command: 'score', source, ...rest };
+}
