@@ -15,6 +15,10 @@
  * quantity (performance on new groups, on the future), not the same one on other folds.
  * Features, dropped columns, imputation and learner options may differ: they are what a change
  * under test changes.
+ *
+ * A report scored from a predictions file (`foldwise score`, with a `source`) has no data file or
+ * plan of its own: it matches another report when both know their fold assignment (which rows
+ * each fold tests, plan.assignment) and it is the same, with the same task and metric set.
  */
 import { InputError } from '../errors.js';
 import type { Report } from '../report/types.js';
@@ -38,6 +42,15 @@ export function reportDifferences(a: Report, b: Report): ReportDifference[] {
   const add = (field: string, x: string | number | boolean | undefined, y: typeof x, kind: ReportDifference['kind'], fmt = show): void => {
     if (x !== y) out.push({ field, a: fmt(x), b: fmt(y), kind });
   };
+  if (a.source || b.source) {
+    // a report scored from a predictions file: the same folds are the same rows in the same
+    // folds (the fold assignment fingerprint); an unknown assignment never matches
+    const [x, y] = [a.plan.assignment, b.plan.assignment];
+    if (x === undefined || y === undefined || x !== y) out.push({ field: 'plan.assignment', a: x ? hash(x) : 'unknown', b: y ? hash(y) : 'unknown', kind: 'data' });
+    add('data.task', a.data.task, b.data.task, 'data');
+    add('metrics', [...a.metrics].sort().join(','), [...b.metrics].sort().join(','), 'data');
+    return out;
+  }
   add('data.sha256', a.data.sha256, b.data.sha256, 'data', hash);
   add('data.rowsUsed', a.data.rowsUsed, b.data.rowsUsed, 'data');
   add('data.target', a.data.target, b.data.target, 'data');

@@ -253,7 +253,8 @@ export function readPredictions(text: string, name: string, opts: ScoreColumns =
   const repeats = classOrder(repeatValues.keys());
   const foldsOf = new Map(repeats.map((r) => [r, classOrder(repeatValues.get(r)!)]));
   const totalFolds = [...foldsOf.values()].reduce((s, f) => s + f.length, 0);
-  if (totalFolds === 1) {
+  // a foldwise file of a holdout plan has one fold, as its eval report does; elsewhere one fold is a mistake
+  if (totalFolds === 1 && !foldwise) {
     throw new InputError(`${name}: every prediction is in one fold (${JSON.stringify([...foldsOf.values()][0][0])}); fold scores need at least two folds`);
   }
   if (totalFolds === 0) throw new InputError(`${name}: no test predictions (only holdout lines)`);
