@@ -24,6 +24,7 @@ import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { ON_FOLD_ERROR_CHOICES, type OnFoldError } from '../run/tasks.js';
 import { DEFAULT_TIMEOUT_S } from '../learners/command/protocol.js';
 import { execute } from '../run/execute.js';
+import { withWiderSamples } from '../run/pooled-sample.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
 import { registerScore } from './score.js';
@@ -171,8 +172,11 @@ export function checkOutputs(data: string, outputs: readonly (readonly [string, 
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
-  if ([flags.json, flags.markdown, flags.html, flags.predictions].filter((f) => f === '-').length > 1) {
-    throw new UsageError('--json -, --markdown -, --html - and --predictions -: only one of them can go to standard output');
+  if ([flags.json, flags.markdown, flags.html].filter((f) => f === '-').length > 1) {
+    throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
+  }
+  if (flags.predictions === '-' && [flags.json, flags.markdown, flags.html].includes('-')) {
+    throw new UsageError('--predictions - and a report to -: only one of them can go to standard output');
   }
   checkPredictionsPath(flags.predictions);
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]]);
@@ -234,7 +238,8 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     writeOutputs(io, flags, {
       json: () => renderJson(report),
       markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
-      html: () => renderEvalHtml(report),
+      // the page is made where every prediction is known: its charts draw up to 5,000 of them
+      html: () => renderEvalHtml(withWiderSamples(report, result.records)),
     });
   }
   return EXIT_OK;

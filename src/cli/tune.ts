@@ -21,7 +21,10 @@ import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
-import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tune } from '../search/tune.js';
+import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tuneWithPredictions } from '../search/tune.js';
+import { tuneRecords } from '../search/tune-predictions.js';
+import { checkKeep, keptText } from '../run/predictions-out.js';
+import { checkPredictionsPath, writePredictions } from './predictions-output.js';
 import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './run.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
@@ -41,6 +44,8 @@ interface TuneFlags extends DataFlags, CommandFlags {
   json?: string;
   markdown?: string;
   html?: string;
+  predictions?: string;
+  predictionsKeep?: string[];
   timing: boolean;
   audit: boolean;
 }
@@ -68,7 +73,10 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   if (flags.html === '-' && (flags.json === '-' || flags.markdown === '-')) {
     throw new UsageError(`${flags.json === '-' ? '--json' : '--markdown'} - and --html -: only one of them can go to standard output`);
   }
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html]]);
+  if (flags.predictions === '-' && [flags.json, flags.markdown, flags.html].includes('-')) throw new UsageError('--predictions - and another output to -: only one of them can go to standard output');
+  checkPredictionsPath(flags.predictions);
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--predictions', flags.predictions]]);
+  if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
   if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
   if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
@@ -86,7 +94,8 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
 
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
-  const report = tune(table, {
+  const keep = flags.predictionsKeep ?? [];
+  const { report, predictions } = tuneWithPredictions(table, {
     ...problemOptionsOf(flags),
     plan: flags.plan,
     inner: flags.inner,
@@ -104,7 +113,16 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   });
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
-  writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report), html: () => renderTuneHtml(report) });
+  if (flags.predictions) {
+    const y = predictions.problem.target;
+    checkKeep(table, keep, y.task, y.task === 'classification' ? y.classes : []);
+    const { frame, records } = tuneRecords(predictions, report.metrics);
+    const kept = keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records;
+    await writePredictions(io, flags.predictions, frame, kept, keep);
+  }
+  if (flags.predictions !== '-' || flags.json || flags.markdown || flags.html) {
+    writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report), html: () => renderTuneHtml(report) });
+  }
   return EXIT_OK;
 }
 
@@ -130,6 +148,8 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
     .option('--html <file>', 'write a self-contained HTML page with charts to a file, or - for standard output')
+    .option('--predictions <file>', 'write the outer-fold (and holdout) predictions of the tuned procedure and the baseline as CSV, or - for standard output')
+    .option('--predictions-keep <column>', 'copy an input column into each line of the predictions file (repeatable)', collect)
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
     .option('--no-audit', 'skip the quick data audit that runs before the search')
     .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));

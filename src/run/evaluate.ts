@@ -73,6 +73,8 @@ export interface TaskRecord {
   readonly lines?: Int32Array;
   /** --predictions-keep: the kept columns' text, row by row (rows x kept columns) */
   readonly keep?: readonly string[];
+  /** tune: the candidate this outer fold picked (the predictions file's pick column) */
+  readonly pick?: string;
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {

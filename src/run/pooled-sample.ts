@@ -35,3 +35,33 @@ export function pooledSample(actual: ArrayLike<number>, predicted: ArrayLike<num
   }
   return { total: n, actual: a, predicted: p };
 }
+
+/** How many pooled pairs the HTML charts of a run draw when the run's own predictions are at hand. */
+export const HTML_ROWS_MAX = 5000;
+
+/**
+ * The report with each regression learner's `pooledSample` drawn again from the run's own task
+ * records, bounded by `max` instead of the report's 1,000: what `eval --html` draws, since the
+ * page is made where every prediction is known. The JSON report keeps its own sample.
+ */
+export function withWiderSamples<R extends { readonly learners: readonly L[] }, L extends { readonly spec: string; readonly pooledSample?: PooledSample }>(
+  report: R,
+  records: readonly { readonly candidateIndex: number; readonly foldIndex: number; readonly failed?: string; readonly actual: { task: string; values?: Float64Array }; readonly predicted: ArrayLike<number> }[],
+  max: number = HTML_ROWS_MAX,
+): R {
+  const learners = report.learners.map((l, li) => {
+    if (!l.pooledSample) return l;
+    const mine = records.filter((r) => r.candidateIndex === li && r.foldIndex >= 0 && !r.failed);
+    const n = mine.reduce((s, r) => s + r.predicted.length, 0);
+    const actual = new Float64Array(n);
+    const predicted = new Float64Array(n);
+    let at = 0;
+    for (const r of mine) {
+      actual.set(r.actual.values!, at);
+      predicted.set(r.predicted as Float64Array, at);
+      at += r.predicted.length;
+    }
+    return { ...l, pooledSample: pooledSample(actual, predicted, max) };
+  });
+  return { ...report, learners };
+}

@@ -13,6 +13,7 @@
  *   train_rows         the number of rows the model was fitted on
  *   prob:CLASS ...     classification: one probability column per class in the report's class
  *                      order, empty where the learner gives no probabilities
+ *   pick               tune only: the candidate the outer fold picked
  *   then each --predictions-keep column under its own name.
  *
  * Numbers are the shortest text that reads back as the same double. The lines are produced in
@@ -34,7 +35,7 @@ export const PROB_PREFIX = 'prob:';
 
 /** Checks --predictions-keep names against the table and the file's own columns. */
 export function checkKeep(table: Table, keep: readonly string[], task: 'classification' | 'regression', classes: readonly string[] = []): void {
-  const taken = new Set([...fixedColumns(task), ...classes.map((c) => `${PROB_PREFIX}${c}`)]);
+  const taken = new Set([...fixedColumns(task), 'pick', ...classes.map((c) => `${PROB_PREFIX}${c}`)]);
   const seen = new Set<string>();
   for (const name of keep) {
     if (!table.byName.has(name)) {
@@ -75,7 +76,8 @@ export function keptText(table: Table, keep: readonly string[], rows: ArrayLike<
 export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[] = [], chunkRows = 8192): Generator<string> {
   const task = frame.data.task;
   const classes = frame.data.classes ?? [];
-  yield csvRow([...fixedColumns(task), ...(task === 'classification' ? classes.map((c) => `${PROB_PREFIX}${c}`) : []), ...keep]);
+  const picks = records.some((r) => r.pick !== undefined);
+  yield csvRow([...fixedColumns(task), ...(task === 'classification' ? classes.map((c) => `${PROB_PREFIX}${c}`) : []), ...(picks ? ['pick'] : []), ...keep]);
   const classFields = classes.map(csvField);
   const empties = ','.repeat(classes.length);
   for (const r of records) {
@@ -86,6 +88,7 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
     const learner = csvField(frame.learners[r.candidateIndex].spec);
     const place = r.foldIndex < 0 ? ',,holdout' : `${r.repeat + 1},${r.fold + 1},test`;
     const trainRows = String(r.trainRows);
+    const pick = csvField(r.pick ?? '');
     const k = keep.length;
     let chunk: string[] = [];
     for (let i = 0; i < rows.length; i++) {
@@ -101,6 +104,7 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
       } else {
         line += `${numberField(r.actual.values[i])},${numberField(r.predicted[i])},${trainRows}`;
       }
+      if (picks) line += `,${pick}`;
       for (let j = 0; j < k; j++) line += `,${csvField(r.keep![i * k + j])}`;
       chunk.push(line);
       if (chunk.length >= chunkRows) {

@@ -58,6 +58,7 @@ import { type InnerStat, innerStat, type Pick, PICK_RULES, pickCandidate, type P
 import { allRows, planOver, type SubsetPlan } from './plan-over.js';
 import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../run/scoring.js';
 import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
+import type { TunePredictions } from './tune-predictions.js';
 
 export const TUNE_SCHEMA = 'foldwise-tune/1';
 export const DEFAULT_OUTER_PLAN = 'kfold:5';
@@ -165,6 +166,11 @@ function checkPick(p: Pick, head: Metric, where: string): void {
 
 /** Runs the nested search on a loaded table. Pure apart from reading the clock for timings. */
 export function tune(table: Table, options: TuneOptions): TuneReport {
+  return tuneWithPredictions(table, options).report;
+}
+
+/** The nested search, also giving the outer (and holdout) predictions of the tuned procedure and the baseline. */
+export function tuneWithPredictions(table: Table, options: TuneOptions): { report: TuneReport; predictions: TunePredictions } {
   const started = performance.now();
   const seed = checkSeed(options.seed ?? DEFAULT_SEED);
   const rule = options.pick ?? 'best';
@@ -223,6 +229,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
   const baselineScores: (number | null)[] = [];
   const outerPreds: Prediction[] = [];
   const outerActual: Target[] = [];
+  const predictions: TunePredictions = { problem, outer: [] };
   const repeats = outer.plan.repeats;
   let fellBack = false;
   for (const f of outer.plan.folds) {
@@ -243,7 +250,9 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     // the baseline on the same outer split, for the paired comparison of the tuned estimate
     const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), {}, { rng: createRng(0), seed: 0 });
     const bTest = split.matrix('test', false);
-    baselineScores.push(scoreOf(head, yTest, { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) }));
+    const bPred: Prediction = { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) };
+    baselineScores.push(scoreOf(head, yTest, bPred));
+    predictions.outer.push({ repeat: f.repeat, fold: f.fold, test: f.test, trainRows: f.train.length, pick: chosen.spec, tuned: pred, baseline: bPred, actual: yTest });
     outerFolds.push({
       repeat: f.repeat,
       fold: f.fold,
@@ -278,6 +287,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     const split = new SplitData(problem, searchRows, holdoutRows, impute);
     const pred = predictAll(split, y, [rec], deriveSeed(seed, 'fit', 'all'), work)[0];
     holdout = { trainRows: searchRows.length, testRows: holdoutRows.length, spec: rec.spec, scores: scoresOf(metrics, subsetTarget(y, holdoutRows), pred) };
+    predictions.holdout = { test: holdoutRows, trainRows: searchRows.length, pick: rec.spec, tuned: pred, actual: subsetTarget(y, holdoutRows) };
   }
 
   // summaries of the outer scores, as eval summarises fold scores
@@ -381,5 +391,5 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     audit: { ran: options.audit !== false, suspects },
     ...(options.timing === false ? {} : { timing: { totalMs: performance.now() - started, fitMs: work.fitMs, predictMs: work.predictMs } }),
   };
-  return report;
+  return { report, predictions };
 }

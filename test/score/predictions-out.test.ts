@@ -74,7 +74,7 @@ describe('eval --predictions: the file', () => {
           for (const m of report.metrics) {
             const metric = getMetric(m);
             let v: number;
-            if (report.data.task === 'classification') {
+            if (metric.task === 'classification') {
               const code = (s: string): number => classes.indexOf(s);
               v = metric.fn({
                 actual: Int32Array.from(mine, (r) => code(r[col('actual')])),
@@ -146,5 +146,50 @@ describe('eval --predictions: the same bytes however the run is made', () => {
     const p = await cli([...species, '--predictions', join(tmp.dir, 'x.parquet')]);
     expect(p.code).toBe(2);
     expect(p.stderr).toMatch(/CSV only/);
+  });
+});
+
+describe('tune --predictions', () => {
+  it('writes the outer predictions of the tuned procedure and the baseline; score on them gives the tuned estimate and its comparison', async () => {
+    const json = join(tmp.dir, 'tune.json');
+    const csv = join(tmp.dir, 'tune.csv');
+    const r = await cli(['tune', penguins, '--target', 'Species', '--drop', 'Island', '--learner', 'knn:k=1|5', '--plan', 'kfold:4', '--inner', 'kfold:3', '--holdout', '0.2', '--no-timing', '--json', json, '--predictions', csv]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(readFileSync(json, 'utf8'));
+    const { header, rows } = parse(readFileSync(csv, 'utf8'));
+    expect(header).toContain('pick');
+    const tuned = rows.filter((x) => x[header.indexOf('learner')] === 'tuned' && x[header.indexOf('role')] === 'test');
+    expect(tuned.length).toBe(report.plan.searchRows);
+    // each outer fold's pick, as the report names it
+    for (const f of report.outer.folds) {
+      const mine = tuned.filter((x) => Number(x[header.indexOf('fold')]) === f.fold + 1);
+      expect(mine.length).toBe(f.testRows);
+      expect(new Set(mine.map((x) => x[header.indexOf('pick')]))).toEqual(new Set([f.pickSpec]));
+    }
+    expect(rows.filter((x) => x[header.indexOf('role')] === 'holdout').length).toBe(report.holdout.testRows);
+    const s = await cli(['score', csv, '--json', '-']);
+    expect(s.code).toBe(0);
+    const scored = JSON.parse(s.stdout) as Report;
+    const t = scored.learners.find((l) => l.spec === 'tuned')!;
+    expect(t.summary).toEqual(report.outer.summary);
+    expect(t.pooled).toEqual(report.outer.pooled);
+    expect(t.final?.scores).toEqual(report.holdout.scores);
+  });
+});
+
+describe('eval --html draws the regression charts from the run\'s own predictions', () => {
+  it('all pooled predictions (1,368) where the JSON report keeps a sample of 1,000, and says so', async () => {
+    const html = join(tmp.dir, 'wide.html');
+    const json = join(tmp.dir, 'wide.json');
+    const r = await cli(['eval', penguins, '--target', 'Body Mass (g)', '--drop', 'Island', '--learner', 'linear', '--plan', 'kfold:4x4', '--no-timing', '--quiet', '--html', html, '--json', json]);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(readFileSync(json, 'utf8')) as Report;
+    const s = report.learners[1].pooledSample!;
+    expect(s.total).toBe(4 * report.data.rowsUsed);
+    expect(s.total).toBeGreaterThan(1000);
+    expect(s.actual.length).toBe(1000);
+    const page = readFileSync(html, 'utf8');
+    expect(page).toContain(`All ${s.total.toLocaleString('en-US')} pooled out-of-fold predictions of ${report.learners[1].spec}`);
+    expect(page).not.toContain('A sample of 1,000');
   });
 });
