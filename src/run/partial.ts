@@ -138,6 +138,9 @@ export function mergePartsWithRecords(
   const first = parts[0];
   parts.forEach((p, i) => {
     const diff = identityDiff(first.identity, p.identity);
+    // parts of another foldwise version may differ in ways the identity does not show
+    const version = (q: PartialReport): string => JSON.stringify(q.tool?.version ?? null);
+    if (version(p) !== version(first)) diff.unshift(`foldwise version (${version(first)} vs ${version(p)})`);
     if (diff.length) throw new InputError(`merge: ${names[i]} belongs to another run than ${names[0]}: it differs in ${diff.join(', ')}`);
     if (p.shard.count !== first.shard.count) throw new InputError(`merge: ${names[i]} is shard ${p.shard.index}/${p.shard.count}, ${names[0]} is of ${first.shard.count}`);
   });
