@@ -12,6 +12,12 @@ declare module 'jstat' {
   interface JStatNormal {
     /** P(X <= x) for the normal distribution with the given mean and standard deviation. */
     cdf(x: number, mean: number, sd: number): number;
+    /** The p-quantile of the normal distribution with the given mean and standard deviation. */
+    inv(p: number, mean: number, sd: number): number;
+  }
+  interface JStatNoncentralT {
+    /** P(T <= x) for the noncentral t with `dof` degrees of freedom and noncentrality `ncp`. */
+    cdf(x: number, dof: number, ncp: number): number;
   }
   interface JStatChiSquare {
     /** P(X <= x) for the chi-square distribution with `dof` degrees of freedom. */
@@ -20,6 +26,7 @@ declare module 'jstat' {
   interface JStat {
     readonly studentt: JStatStudentT;
     readonly normal: JStatNormal;
+    readonly noncentralt: JStatNoncentralT;
     readonly chisquare: JStatChiSquare;
     /** Pearson's correlation coefficient of two equally long arrays. */
     corrcoeff(a: readonly number[], b: readonly number[]): number;
