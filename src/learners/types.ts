@@ -105,6 +105,11 @@ export interface Learner {
   readonly openOptions?: boolean;
   /** where a learner from outside comes from: the program and its arguments, or the module path */
   readonly origin?: string;
+  /**
+   * Optional check of options that depend on the task (or on each other), run by
+   * resolveParams before any fit: a refusal naming the option and its rule, or undefined.
+   */
+  checkParams?(params: Params, task: Task): string | undefined;
   fit(X: Matrix, y: Target, params: Params, ctx: FitContext): Model;
   load(json: unknown): Model;
 }
