@@ -88,6 +88,11 @@ export interface Model {
   predictProba?(X: Matrix): Float64Array;
   /** A plain-JSON form that `Learner.load` turns back into an equal model. */
   toJSON(): unknown;
+  /**
+   * Facts about this fit that the report lists beside the fold's scores (for example the round
+   * early stopping chose); lower-case hyphenated names, finite numbers. Optional.
+   */
+  notes?(): Readonly<Record<string, number>>;
 }
 
 export interface Learner {

@@ -11,7 +11,7 @@ import type { Report } from '../report/types.js';
 import { VERSION } from '../version.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { identityDiff, type RunIdentity } from './identity.js';
-import { fromJsonNumbers } from './result-json.js';
+import { fromJsonNumbers, notesOf } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
 export const PARTIAL_FORMAT = 'foldwise-partial/1';
@@ -29,6 +29,7 @@ interface RecordJSON {
   readonly fitMs: number;
   readonly predictMs: number;
   readonly failed?: string;
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export interface PartialReport {
@@ -63,6 +64,7 @@ export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: Sh
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
+      ...(r.notes ? { notes: r.notes } : {}),
     })),
   };
 }
@@ -85,6 +87,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(fromJsonNumbers(j.predicted)),
     ...(j.proba ? { proba: Float64Array.from(fromJsonNumbers(j.proba)) } : {}),
     ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
+    ...(notesOf(j.notes) ? { notes: notesOf(j.notes) } : {}),
   };
 }
 

@@ -44,6 +44,8 @@ export interface BoostParts {
 
 export interface BoostModel extends Model {
   readonly task: Task;
+  /** the fitted parts (read only) */
+  readonly parts: BoostParts;
   readonly rounds: number;
   predict(X: Matrix): Int32Array | Float64Array;
   predictProba?(X: Matrix): Float64Array;
@@ -142,16 +144,20 @@ function classesOf(proba: Float64Array, n: number, C: number): Int32Array {
   return codes;
 }
 
+/** Predictions (and probabilities, for classes) from raw scores: what predict and predictProba give. */
+export function outputsOf(parts: BoostParts, F: Float64Array, rows: number): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
+  if (parts.task === 'regression') return { predicted: F };
+  const proba = probaOf(parts, F, rows);
+  return { predicted: classesOf(proba, rows, parts.classCount), proba };
+}
+
 export function makeBoostModel(parts: BoostParts): BoostModel {
   const R = parts.rounds;
-  const predictRounds = (X: Matrix, r: number): Int32Array | Float64Array => {
-    const [F] = scoresAt(parts, X, [r]);
-    if (parts.task === 'regression') return F;
-    return classesOf(probaOf(parts, F, X.rows), X.rows, parts.classCount);
-  };
+  const predictRounds = (X: Matrix, r: number): Int32Array | Float64Array => outputsOf(parts, scoresAt(parts, X, [r])[0], X.rows).predicted;
   const probaRounds = (X: Matrix, r: number): Float64Array => probaOf(parts, scoresAt(parts, X, [r])[0], X.rows);
   const base = {
     task: parts.task,
+    parts,
     rounds: R,
     predict: (X: Matrix) => predictRounds(X, R),
     predictRounds,
