@@ -39,16 +39,16 @@ describe('predictAll: boost candidates over rounds share one fit', () => {
       const test = Int32Array.from({ length: n }, (_, i) => i).filter((i) => i % 4 === 0);
       const train = Int32Array.from({ length: n }, (_, i) => i).filter((i) => i % 4 !== 0);
       const split = new SplitData(problem, train, test, 'median');
-      const specs = ['boost:rounds=5,row-share=0.7', 'boost:rounds=40,row-share=0.7', 'boost:rounds=0,row-share=0.7', 'boost:rounds=12,leaves=4', 'boost:rounds=25,leaves=4', 'boost:rounds=9,stop=3'];
+      const specs = ['boost:rounds=5,row-share=0.7', 'boost:rounds=40,row-share=0.7', 'boost:rounds=0,row-share=0.7', 'boost:rounds=12,leaves=4', 'boost:rounds=25,leaves=4', 'boost:rounds=9,stop=3', 'boost:rounds=30,stop=3'];
       const cands = candidates(specs, task);
       const work = newWorkCount();
       const preds = predictAll(split, problem.target, cands, 99, work);
-      expect(work.fits).toBe(3); // row-share=0.7, leaves=4, and the stop=3 one alone
-      expect(work.plainFits).toBe(6);
+      expect(work.fits).toBe(4); // row-share=0.7, leaves=4, and each stop=3 one alone
+      expect(work.plainFits).toBe(7);
       const seed = deriveSeed(99, 'boost');
       const Xtr = split.matrix('train', false);
       const Xte = split.matrix('test', false);
-      expect(cands.length).toBe(6);
+      expect(cands.length).toBe(7);
       for (const [i, c] of cands.entries()) {
         const m = boost.fit(Xtr, subsetTarget(problem.target, train), c.params, { rng: createRng(seed), seed });
         expect(Array.from(preds[i].predicted)).toEqual(Array.from(m.predict(Xte)));

@@ -82,6 +82,34 @@ describe('boost: one round, one split, computed by hand (Chen & Guestrin 2016 eq
   });
 });
 
+describe('boost: Huber loss (Friedman 2001, Algorithm 4, M_TreeBoost)', () => {
+  it('with the threshold at the largest residual nothing is clipped and a leaf takes its mean residual', () => {
+    // F0 = median = 9.5; residuals -8.5, -7.5, -0.5, 0.5, 1.5, 20.5; huber-quantile 1 puts delta at
+    // 20.5, so g = -residual. Gains (lambda 1) of x <= 1.5 .. 5.5: 33.0, 88.5, 94.7, 103.7, 120.0;
+    // the best isolates the last row. Left leaf: median -0.5 + mean(-8, -7, 0, 1, 2) = -2.9 (the
+    // mean residual), so 6.6; right leaf: 20.5, so 30.
+    const m = fit(col([1, 2, 3, 4, 5, 6]), reg([1, 2, 9, 10, 11, 30]), { ...ONE_SPLIT, loss: 'huber', 'huber-quantile': 1 });
+    expect(rootOf(m)).toEqual({ feature: 0, threshold: 5.5 });
+    const pred = m.predict(col([1, 6]));
+    close(pred[0], 6.6, 1e-12);
+    close(pred[1], 30, 1e-12);
+  });
+
+  it('a lower quantile clips the outlier: its leaf moves by at most delta from the median', () => {
+    // huber-quantile 0.5: delta = median of |residuals| 0.5, 0.5, 1.5, 7.5, 8.5, 20.5 = 4.5 (type 7);
+    // g = -clip(r, 4.5) = 4.5, 4.5, 0.5, -0.5, -1.5, -4.5. With leaf-rows 2 the gains of
+    // x <= 2.5, 3.5, 4.5 are 16.457, 15.920, 13.457: split at 2.5. Left leaf: residuals -8.5, -7.5,
+    // median -8, clipped deviations -0.5, 0.5: value -8, so 1.5. Right leaf: residuals -0.5, 0.5,
+    // 1.5, 20.5, median 1, deviations -1.5, -0.5, 0.5, 19.5 clipped to 4.5: mean 0.75, value 1.75,
+    // so 11.25 (unclipped it would be 14.5).
+    const m = fit(col([1, 2, 3, 4, 5, 6]), reg([1, 2, 9, 10, 11, 30]), { ...ONE_SPLIT, loss: 'huber', 'huber-quantile': 0.5, 'leaf-rows': 2 });
+    expect(rootOf(m)).toEqual({ feature: 0, threshold: 2.5 });
+    const pred = m.predict(col([1, 6]));
+    close(pred[0], 1.5, 1e-12);
+    close(pred[1], 11.25, 1e-12);
+  });
+});
+
 describe('boost: base score and exact fits (Friedman 2001, F_0 and Algorithm 1)', () => {
   it('zero rounds gives the training mean (squared), the median (absolute, huber)', () => {
     const X = col([1, 2, 3, 4, 5]);
@@ -119,6 +147,26 @@ describe('boost: base score and exact fits (Friedman 2001, F_0 and Algorithm 1)'
     expect(pred.length).toBe(20);
     for (let i = 0; i < 20; i++) close(pred[i], ys[i], 1e-12);
     expect(rootOf(m).threshold).toBe(7.5);
+  });
+
+  it('depth 2, four leaves, step 1, no penalty fits a function with a different split in each half exactly', () => {
+    // y = x1 > 0.3 ? 1 : 0 where x0 <= 0.5, and x1 > 0.7 ? 5 : 3 where x0 > 0.5: the children need
+    // their own histograms (one built from rows, the other by subtraction) to find 0.3 and 0.7
+    const xs: number[] = [];
+    const ys: number[] = [];
+    for (let a = 0; a < 10; a++) {
+      for (let b = 0; b < 20; b++) {
+        const x0 = (a + 0.5) / 10;
+        const x1 = (b + 0.5) / 20;
+        xs.push(x0, x1);
+        ys.push(x0 <= 0.5 ? (x1 > 0.3 ? 1 : 0) : x1 > 0.7 ? 5 : 3);
+      }
+    }
+    const X = { rows: 200, cols: 2, data: Float64Array.from(xs) };
+    const m = fit(X, reg(ys), { rounds: 1, step: 1, depth: 2, leaves: 4, 'leaf-rows': 1, ridge: 0 });
+    const pred = m.predict(X);
+    expect(pred.length).toBe(200);
+    for (let i = 0; i < 200; i++) close(pred[i], ys[i], 1e-12);
   });
 
   it('depth 1 on data with one informative split among noise features finds it', () => {
@@ -244,6 +292,12 @@ describe('boost: options are checked before any fit', () => {
 describe('boost: early stopping on an inner split of the training rows only', () => {
   it('the inner split is stratified by class and seeded', () => {
     const codes = Array.from({ length: 200 }, (_, i) => (i < 150 ? 0 : 1));
+    for (const seed of [1, 2, 3, 4, 5, 6]) {
+      // exactly 20% of each class, whatever the seed
+      const v = innerSplit(cls(codes), 0.2, seed).valid;
+      expect(v.length).toBe(40);
+      expect(Array.from(v).filter((i) => i >= 150).length).toBe(10);
+    }
     const s = innerSplit(cls(codes), 0.2, 77);
     expect(s.valid.length).toBe(40);
     expect(s.train.length).toBe(160);
@@ -266,6 +320,7 @@ describe('boost: early stopping on an inner split of the training rows only', ()
     expect(na['validation-rows']).toBe(80);
     expect(na['stopped-at']).toBeGreaterThan(50);
     expect(nb['stopped-at']).toBeLessThan(20);
+    expect(nb['rounds-run']).toBe(nb['stopped-at'] + 10);
   });
 
   it('stop-then=keep keeps the inner model cut at the chosen round; refit uses all rows', () => {

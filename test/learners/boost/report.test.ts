@@ -7,6 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { resultFromJSON, resultToJSON } from '../../../src/run/result-json.js';
 import { cli } from '../../helpers/cli.js';
 import { penguinsCsv } from '../../helpers/penguins.js';
 import { schemaCheck } from '../../helpers/schema.js';
@@ -16,6 +17,16 @@ const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
 const base = ['eval', penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--learner', 'boost:rounds=60,stop=5', '--learner', 'boost:rounds=20', '--plan', 'kfold:4', '--no-timing', '--quiet', '--no-audit'];
 const valid = schemaCheck('report.schema.json');
+
+describe('task results keep the notes', () => {
+  it('through the JSON of journals (resultToJSON / resultFromJSON), dropping malformed entries', () => {
+    const r = { id: 'r1.f1:boost', predicted: Float64Array.of(1.5), fitMs: 1, predictMs: 2, notes: { 'stopped-at': 17 } };
+    const back = resultFromJSON(JSON.parse(JSON.stringify(resultToJSON(r))), false, 'test');
+    expect(back.notes).toEqual({ 'stopped-at': 17 });
+    const odd = resultFromJSON({ ...resultToJSON(r), notes: { 'stopped-at': 'x', __proto__: 3, Fine: 1 } }, false, 'test');
+    expect(odd.notes).toBeUndefined();
+  });
+});
 
 describe('boost in eval', () => {
   it('reports the round each fold stopped at, the same for --jobs 1 and 2, and shards merged', async () => {
