@@ -11,6 +11,9 @@
  *   target species) and Seattle daily weather 2012-2015 (vega-datasets, NOAA National Climatic
  *   Data Center, a U.S. Government work; target the day's maximum temperature from its minimum,
  *   precipitation, wind, weather type and month). Goal: boost at least as good as forest.
+ * boost-tune: the whole nested `tune` (outer kfold:5, inner kfold:3) over rounds=50|100|200|400
+ *   against rounds=400 alone, on 1,500 x 10 synthetic rows. Goal: the grid costs about one fit
+ *   of the largest (candidates differing only in rounds share one model, scored per prefix).
  */
 import { readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
@@ -22,7 +25,8 @@ import { forest } from '../../src/learners/forest.js';
 import type { Matrix, Model, Target } from '../../src/learners/types.js';
 import { evaluate } from '../../src/run/evaluate.js';
 import { createRng } from '../../src/run/rng.js';
-import { type BenchCase, fixed, timeMedian, timeOnce } from '../case.js';
+import { tune } from '../../src/search/tune.js';
+import { type BenchCase, fixed, median, timeMedian, timeOnce } from '../case.js';
 import { syntheticProblem } from '../synthetic.js';
 
 const SEED = 7;
@@ -180,4 +184,52 @@ const versusForest: BenchCase = {
   },
 };
 
-export const cases: readonly BenchCase[] = [large, versusForest];
+/** One whole nested tune (outer kfold:5, inner kfold:3, the defaults) of `learner`; wall and CPU ms. */
+async function timeTune(text: string, learner: string, runs: number): Promise<{ ms: number; cpuMs: number; fits: number; plain: number; pick: string }> {
+  const ms: number[] = [];
+  const cpu: number[] = [];
+  let fits = 0;
+  let plain = 0;
+  let pick = '';
+  for (let r = 0; r < runs; r++) {
+    const c0 = process.cpuUsage();
+    const t0 = performance.now();
+    const table = await loadCsv({ text, name: 'bench.csv' });
+    const report = tune(table, { target: 'y', learners: [learner], seed: 1, timing: false, audit: false });
+    ms.push(performance.now() - t0);
+    const c = process.cpuUsage(c0);
+    cpu.push((c.user + c.system) / 1000);
+    fits = report.search.fits;
+    plain = report.search.plainLoopFits;
+    pick = report.recommendation.spec;
+  }
+  return { ms: median(ms), cpuMs: median(cpu), fits, plain, pick };
+}
+
+const tuneRounds: BenchCase = {
+  name: 'boost-tune',
+  doc: 'foldwise tune over boost rounds=50|100|200|400 vs rounds=400 alone (prefix scoring), 1,500 x 10',
+  async run({ runs, log }) {
+    const n = Math.min(runs, 3);
+    const text = syntheticCsv('classification', 1500, 10);
+    log('warming up...');
+    await timeTune(text, 'boost:rounds=5|10', 1);
+    log(`rounds=400 alone, ${n} runs`);
+    const one = await timeTune(text, 'boost:rounds=400', n);
+    log(`rounds grid, ${n} runs`);
+    const grid = await timeTune(text, 'boost:rounds=50|100|200|400', n);
+    const row = (label: string, spec: string, t: Awaited<ReturnType<typeof timeTune>>) => [label, spec, fixed(t.ms / 1000, 3), fixed(t.cpuMs / 1000, 3), t.fits, t.plain, t.pick];
+    return [
+      {
+        title: 'foldwise tune, outer kfold:5 x inner kfold:3 (load + whole nested search), boost rounds',
+        columns: ['case', 'search', 'wall s', 'CPU s', 'fits', 'plain-loop fits', 'recommended'],
+        rows: [row('largest alone', 'boost:rounds=400', one), row('4-value grid', 'boost:rounds=50|100|200|400', grid)],
+        notes: [
+          `grid / largest alone: wall ${fixed(grid.ms / one.ms, 3)}, CPU ${fixed(grid.cpuMs / one.cpuMs, 3)} (goal: about 1); median of ${n} runs after a warm-up`,
+        ],
+      },
+    ];
+  },
+};
+
+export const cases: readonly BenchCase[] = [large, versusForest, tuneRounds];
