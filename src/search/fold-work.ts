@@ -33,6 +33,7 @@ import { forest } from '../learners/forest.js';
 import { isCartModel } from '../learners/cart/model.js';
 import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
 import type { Learner, Params, Target } from '../learners/types.js';
+import { notesOf } from '../run/result-json.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { type SplitData, subsetTarget } from '../run/tasks.js';
 import type { Prediction } from '../run/scoring.js';
@@ -130,10 +131,11 @@ function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: nu
   const t1 = performance.now();
   const predicted = model.predict(Xtest);
   const proba = model.predictProba?.(Xtest);
+  const notes = notesOf(model.notes?.());
   work.fits += 1;
   work.fitMs += t1 - t0;
   work.predictMs += performance.now() - t1;
-  return proba ? { predicted, proba } : { predicted };
+  return { predicted, ...(proba ? { proba } : {}), ...(notes ? { notes } : {}) };
 }
 
 /**

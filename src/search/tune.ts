@@ -256,6 +256,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
       innerMean: stats[p.pick].mean!,
       innerSd: stats[p.pick].sd,
       scores: scoresOf(metrics, yTest, pred),
+      ...(pred.notes ? { notes: pred.notes } : {}),
     });
   }
 

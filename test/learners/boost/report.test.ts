@@ -69,6 +69,18 @@ describe('boost in eval', () => {
     expect(text).toContain(`- boost:rounds=60,stop=5: stopped-at per fold (in fold order): ${stops}`);
   });
 
+  it('tune lists the round each outer refit stopped at', async () => {
+    const r = await cli(['tune', penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--learner', 'boost:rounds=40,stop=3,leaves=4|8', '--plan', 'kfold:3', '--inner', 'kfold:2', '--json', '-', '--no-timing', '--no-audit']);
+    expect(r.code).toBe(0);
+    const report = JSON.parse(r.stdout);
+    schemaCheck('tune.schema.json')(report);
+    expect(report.outer.folds.length).toBe(3);
+    for (const f of report.outer.folds) {
+      expect(f.notes['stopped-at']).toBeGreaterThanOrEqual(0);
+      expect(f.notes['stopped-at']).toBeLessThanOrEqual(40);
+    }
+  });
+
   it('refuses loss=huber for a class target before any fit, exit 2, one line', async () => {
     const r = await cli(['eval', penguins, '--target', 'Species', '--learner', 'boost:loss=huber', '--json', '-', '--quiet']);
     expect(r.code).toBe(2);
