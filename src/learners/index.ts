@@ -4,6 +4,7 @@
 import { closeNames, UsageError } from '../errors.js';
 import { baseline } from './baseline.js';
 import { bayes } from './bayes.js';
+import { boost } from './boost/learner.js';
 import { forest } from './forest.js';
 import { forestRef } from './forest-ref.js';
 import { knn } from './knn.js';
@@ -18,7 +19,7 @@ import { externalKind, parseLearnerSpec } from './spec.js';
 import type { Learner, Task } from './types.js';
 
 export const LEARNERS: ReadonlyMap<string, Learner> = new Map(
-  [baseline, forest, tree, knn, knnRef, forestRef, linear, logistic, bayes].map((l) => [l.name, l] as const),
+  [baseline, forest, tree, knn, knnRef, forestRef, linear, logistic, bayes, boost].map((l) => [l.name, l] as const),
 );
 
 /** The learners evaluated when the user names none (the baseline is added separately). */

@@ -127,6 +127,8 @@ export function resolveParams(learner: Learner, spec: LearnerSpec, task: Task): 
     }
     params[key] = parseValue(learner.name, p, raw);
   }
+  const refusal = learner.checkParams?.(params, task);
+  if (refusal) throw new UsageError(`--learner ${spec.text}: ${refusal}`);
   return params;
 }
 

@@ -88,6 +88,11 @@ export interface Model {
   predictProba?(X: Matrix): Float64Array;
   /** A plain-JSON form that `Learner.load` turns back into an equal model. */
   toJSON(): unknown;
+  /**
+   * Facts about this fit that the report lists beside the fold's scores (for example the round
+   * early stopping chose); lower-case hyphenated names, finite numbers. Optional.
+   */
+  notes?(): Readonly<Record<string, number>>;
 }
 
 export interface Learner {
@@ -105,6 +110,11 @@ export interface Learner {
   readonly openOptions?: boolean;
   /** where a learner from outside comes from: the program and its arguments, or the module path */
   readonly origin?: string;
+  /**
+   * Optional check of options that depend on the task (or on each other), run by
+   * resolveParams before any fit: a refusal naming the option and its rule, or undefined.
+   */
+  checkParams?(params: Params, task: Task): string | undefined;
   fit(X: Matrix, y: Target, params: Params, ctx: FitContext): Model;
   load(json: unknown): Model;
 }

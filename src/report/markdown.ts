@@ -111,10 +111,23 @@ function failedLines(report: Report): string[] {
   });
 }
 
+/** One line per learner and note (Model.notes, such as boost's stopped-at) with its value in every fold. */
+function notesLines(report: Report): string[] {
+  return report.learners.flatMap((l) => {
+    const keys = [...new Set(l.folds.flatMap((f) => Object.keys(f.notes ?? {})))];
+    return keys.map((k) => {
+      const values = l.folds.map((f) => (f.notes && typeof f.notes[k] === 'number' ? String(f.notes[k]) : '-'));
+      const shown = values.length > 30 ? [...values.slice(0, 30), '…'] : values;
+      const final = l.final?.notes?.[k];
+      return `- ${cell(l.spec)}: ${cell(k)} per fold (in fold order): ${shown.join(', ')}${typeof final === 'number' ? `; final: ${final}` : ''}`;
+    });
+  });
+}
+
 /** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
 export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
   const head = report.metrics[0];
-  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ...failedLines(report), ''];
+  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ...failedLines(report), ...notesLines(report), ''];
 
   out.push(`## ${head} (headline)`, '');
   out.push(

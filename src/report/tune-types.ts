@@ -54,6 +54,8 @@ export interface TuneOuterFold {
   readonly innerSd: number | null;
   /** the pick, refitted on the fold's training rows, scored on its test rows */
   readonly scores: Readonly<Record<string, number | null>>;
+  /** what the pick's learner said about that refit (Model.notes), e.g. boost's stopped-at */
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export interface TuneWinner {

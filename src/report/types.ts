@@ -28,6 +28,8 @@ export interface FoldScores {
   readonly scores: Readonly<Record<string, number | null>>;
   /** why the fold failed (a command: learner under --on-fold-error skip); absent otherwise */
   readonly failed?: string;
+  /** what the learner said about this fit (Model.notes), e.g. boost's stopped-at; absent when nothing */
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export interface LearnerReport {
@@ -42,7 +44,13 @@ export interface LearnerReport {
   /** pooled confusion matrix: rows are actual classes, columns predicted, in data.classes order */
   readonly confusion?: readonly (readonly number[])[];
   /** scores on the holdout part, present only when it was scored (--final) */
-  readonly final?: { readonly trainRows: number; readonly testRows: number; readonly scores: Readonly<Record<string, number | null>>; readonly failed?: string };
+  readonly final?: {
+    readonly trainRows: number;
+    readonly testRows: number;
+    readonly scores: Readonly<Record<string, number | null>>;
+    readonly failed?: string;
+    readonly notes?: Readonly<Record<string, number>>;
+  };
   /** regression only: an evenly spaced sample of the pooled out-of-fold predictions (src/run/pooled-sample.ts) */
   readonly pooledSample?: PooledSample;
 }

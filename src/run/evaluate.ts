@@ -75,6 +75,8 @@ export interface TaskRecord {
   readonly keep?: readonly string[];
   /** tune: the candidate this outer fold picked (the predictions file's pick column) */
   readonly pick?: string;
+  /** the model's notes about this fit (Model.notes) */
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {
@@ -139,6 +141,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       ...(r.failed ? { failed: r.failed } : {}),
       rows: where.rows,
       lines: where.lines,
+      ...(r.notes ? { notes: r.notes } : {}),
     };
   });
 }
@@ -164,7 +167,9 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     preds: [] as Prediction[],
     actual: [] as Target[],
     times: { fitMs: 0, predictMs: 0 },
-    final: undefined as { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string } | undefined,
+    final: undefined as
+      | { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string; notes?: Readonly<Record<string, number>> }
+      | undefined,
   }));
   for (const r of records) {
     const l = perLearner[r.candidateIndex];
@@ -174,7 +179,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     for (const m of metrics) scores[m.name] = r.failed ? null : scoreOf(m, r.actual, r);
     const testRows = r.actual.task === 'classification' ? r.actual.codes.length : r.actual.values.length;
     if (r.foldIndex < 0) {
-      l.final = { trainRows: r.trainRows, testRows, scores, ...(r.failed ? { failed: r.failed } : {}) };
+      l.final = { trainRows: r.trainRows, testRows, scores, ...(r.failed ? { failed: r.failed } : {}), ...(r.notes ? { notes: r.notes } : {}) };
       continue;
     }
     if (r.failed) {
@@ -184,7 +189,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     }
     l.preds.push(r);
     l.actual.push(r.actual);
-    l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores });
+    l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores, ...(r.notes ? { notes: r.notes } : {}) });
   }
   const classes = frame.data.classes?.length ?? 0;
 

@@ -11,7 +11,7 @@ import type { Report } from '../report/types.js';
 import { VERSION } from '../version.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { identityDiff, type RunIdentity } from './identity.js';
-import { fromJsonNumbers } from './result-json.js';
+import { fromJsonNumbers, notesOf } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
 export const PARTIAL_FORMAT = 'foldwise-partial/1';
@@ -34,6 +34,7 @@ interface RecordJSON {
   readonly lines?: number[];
   /** --predictions-keep: the kept columns' text, row by row */
   readonly keep?: string[];
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export interface PartialReport {
@@ -80,6 +81,7 @@ export function makePartial(
       ...(r.rows ? { rows: Array.from(r.rows) } : {}),
       ...(r.lines ? { lines: Array.from(r.lines) } : {}),
       ...(r.keep ? { keep: [...r.keep] } : {}),
+      ...(r.notes ? { notes: r.notes } : {}),
     })),
     ...(keep.length ? { keep: [...keep] } : {}),
   };
@@ -106,6 +108,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     ...(Array.isArray(j.rows) ? { rows: Int32Array.from(j.rows) } : {}),
     ...(Array.isArray(j.lines) ? { lines: Int32Array.from(j.lines) } : {}),
     ...(Array.isArray(j.keep) ? { keep: j.keep.map(String) } : {}),
+    ...(notesOf(j.notes) ? { notes: notesOf(j.notes) } : {}),
   };
 }
 

@@ -11,6 +11,24 @@ export interface TaskResultJSON {
   readonly proba?: number[];
   readonly fitMs: number;
   readonly predictMs: number;
+  readonly notes?: Readonly<Record<string, number>>;
+}
+
+/**
+ * A model's notes as kept in results and reports: a fresh object of finite numbers under
+ * lower-case hyphenated names, or undefined when there are none (anything else is dropped).
+ */
+export function notesOf(v: unknown): Readonly<Record<string, number>> | undefined {
+  if (typeof v !== 'object' || v === null || Array.isArray(v)) return undefined;
+  const out: Record<string, number> = {};
+  let any = false;
+  for (const [k, x] of Object.entries(v)) {
+    if (/^[a-z][a-z0-9-]*$/.test(k) && typeof x === 'number' && Number.isFinite(x)) {
+      out[k] = x;
+      any = true;
+    }
+  }
+  return any ? out : undefined;
 }
 
 export function resultToJSON(r: TaskResult): TaskResultJSON {
@@ -20,6 +38,7 @@ export function resultToJSON(r: TaskResult): TaskResultJSON {
     ...(r.proba ? { proba: Array.from(r.proba) } : {}),
     fitMs: r.fitMs,
     predictMs: r.predictMs,
+    ...(r.notes ? { notes: r.notes } : {}),
   };
 }
 
@@ -33,7 +52,9 @@ export function resultFromJSON(j: unknown, classification: boolean, where: strin
   if (!o || typeof o.id !== 'string' || !numbers(o.predicted) || (o.proba !== undefined && !numbers(o.proba))) {
     throw new InputError(`${where}: not a task result`);
   }
+  const notes = notesOf(o.notes);
   return {
+    ...(notes ? { notes } : {}),
     id: o.id,
     predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(fromJsonNumbers(o.predicted)),
     ...(o.proba ? { proba: Float64Array.from(fromJsonNumbers(o.proba)) } : {}),

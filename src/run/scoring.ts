@@ -9,6 +9,8 @@ import type { Metric } from '../metrics/types.js';
 export interface Prediction {
   readonly predicted: Int32Array | Float64Array;
   readonly proba?: Float64Array;
+  /** the model's notes about the fit (Model.notes), where the caller keeps them (tune's outer refits) */
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 export function scoreOf(metric: Metric, actual: Target, pred: Prediction): number | null {

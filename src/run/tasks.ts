@@ -13,6 +13,7 @@ import { foldLabel } from '../report/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
 import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
+import { notesOf } from './result-json.js';
 import { createRng, deriveSeed } from './rng.js';
 
 export interface Candidate {
@@ -40,6 +41,8 @@ export interface TaskResult {
   readonly predictMs: number;
   /** why the task failed (a command: learner's fold under --on-fold-error skip) */
   readonly failed?: string;
+  /** the model's notes about this fit (Model.notes), when it gave any */
+  readonly notes?: Readonly<Record<string, number>>;
 }
 
 /** What to do when a fold of a learner from outside fails: stop the run, or record it and go on. */
@@ -167,7 +170,8 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
     const predicted = model.predict(Xtest);
     const proba = model.predictProba?.(Xtest);
     const t2 = performance.now();
-    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1 };
+    const notes = notesOf(model.notes?.());
+    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
   } catch (e) {
     if (!(e instanceof CommandFoldError) || ctx.onFoldError !== 'skip') throw e;
     const empty = ctx.problem.task === 'classification' ? new Int32Array(0) : new Float64Array(0);

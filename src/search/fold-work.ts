@@ -14,6 +14,12 @@
  *   predictProbaPrefix). Because every tree has its own generator derived from the fit seed
  *   (src/learners/forest.ts), the first t trees are exactly the forest of t trees fitted with
  *   that seed.
+ * - Boost: candidates that differ only in `rounds` (and have stop=0) share one model of the
+ *   largest round count; a candidate with r rounds is scored from the scores after r rounds,
+ *   which one walk over the trees gives for every r at once (scoresAt). Every round draws from
+ *   its own generator derived from the fit seed (src/learners/boost/fit.ts), so the first r
+ *   rounds are exactly the model of r rounds fitted with that seed. With stop > 0 the rounds
+ *   are chosen inside the fit, so those candidates are fitted one by one.
  * - Every other learner is fitted once per candidate.
  *
  * Seeds: every fit of learner L on this split uses deriveSeed(splitSeed, L), the same for all
@@ -21,10 +27,13 @@
  * above holds.
  */
 import { performance } from 'node:perf_hooks';
+import { boost } from '../learners/boost/learner.js';
+import { isBoostModel, outputsOf } from '../learners/boost/model.js';
 import { forest } from '../learners/forest.js';
 import { isCartModel } from '../learners/cart/model.js';
 import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
 import type { Learner, Params, Target } from '../learners/types.js';
+import { notesOf } from '../run/result-json.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { type SplitData, subsetTarget } from '../run/tasks.js';
 import type { Prediction } from '../run/scoring.js';
@@ -91,6 +100,29 @@ function forestGroup(split: SplitData, yTrain: Target, cands: readonly SearchCan
   work.predictMs += performance.now() - t1;
 }
 
+/** Params without `rounds`, as a key: candidates with the same key share one boosted model. */
+function boostKey(params: Params): string {
+  return JSON.stringify(boost.params.filter((p) => p.name !== 'rounds').map((p) => params[p.name]));
+}
+
+function boostGroup(split: SplitData, yTrain: Target, cands: readonly SearchCandidate[], out: Prediction[], at: readonly number[], seed: number, work: WorkCount): void {
+  const Xtrain = split.matrix('train', boost.needsScaling);
+  const Xtest = split.matrix('test', boost.needsScaling);
+  const maxRounds = Math.max(...cands.map((c) => Number(c.params.rounds)));
+  const t0 = performance.now();
+  const model = boost.fit(Xtrain, yTrain, { ...cands[0].params, rounds: maxRounds }, { rng: createRng(seed), seed });
+  const t1 = performance.now();
+  if (!isBoostModel(model)) throw new Error('internal: boost gave a model without round prefixes');
+  const rounds = cands.map((c) => Number(c.params.rounds));
+  const scores = model.scoresAt(Xtest, rounds);
+  cands.forEach((_, j) => {
+    out[at[j]] = outputsOf(model.parts, scores[j], Xtest.rows);
+  });
+  work.fits += 1;
+  work.fitMs += t1 - t0;
+  work.predictMs += performance.now() - t1;
+}
+
 function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: number, work: WorkCount): Prediction {
   const Xtrain = split.matrix('train', c.learner.needsScaling);
   const Xtest = split.matrix('test', c.learner.needsScaling);
@@ -99,10 +131,11 @@ function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: nu
   const t1 = performance.now();
   const predicted = model.predict(Xtest);
   const proba = model.predictProba?.(Xtest);
+  const notes = notesOf(model.notes?.());
   work.fits += 1;
   work.fitMs += t1 - t0;
   work.predictMs += performance.now() - t1;
-  return proba ? { predicted, proba } : { predicted };
+  return { predicted, ...(proba ? { proba } : {}), ...(notes ? { notes } : {}) };
 }
 
 /**
@@ -115,8 +148,15 @@ export function predictAll(split: SplitData, y: Target, cands: readonly SearchCa
   work.plainFits += cands.length;
   const knnAt: number[] = [];
   const forests = new Map<string, number[]>();
+  const boosts = new Map<string, number[]>();
   cands.forEach((c, i) => {
     if (c.learner === knn) knnAt.push(i);
+    else if (c.learner === boost && Number(c.params.stop) === 0) {
+      const key = boostKey(c.params);
+      const list = boosts.get(key);
+      if (list) list.push(i);
+      else boosts.set(key, [i]);
+    }
     else if (c.learner === forest) {
       const key = forestKey(c.params);
       const list = forests.get(key);
@@ -126,5 +166,6 @@ export function predictAll(split: SplitData, y: Target, cands: readonly SearchCa
   });
   if (knnAt.length) knnGroup(split, yTrain, knnAt.map((i) => cands[i]), out, knnAt, work);
   for (const at of forests.values()) forestGroup(split, yTrain, at.map((i) => cands[i]), out, at, fitSeed(splitSeed, forest), work);
+  for (const at of boosts.values()) boostGroup(split, yTrain, at.map((i) => cands[i]), out, at, fitSeed(splitSeed, boost), work);
   return out;
 }

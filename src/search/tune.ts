@@ -265,6 +265,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
       innerMean: stats[p.pick].mean!,
       innerSd: stats[p.pick].sd,
       scores: scoresOf(metrics, yTest, pred),
+      ...(pred.notes ? { notes: pred.notes } : {}),
     });
   }
 

@@ -24,7 +24,7 @@ const learners = [...LEARNERS.values()];
 
 describe('every learner', () => {
   it('is registered', () => {
-    expect(learners.map((l) => l.name).sort()).toEqual(['baseline', 'bayes', 'forest', 'forest-ref', 'knn', 'knn-ref', 'linear', 'logistic', 'tree']);
+    expect(learners.map((l) => l.name).sort()).toEqual(['baseline', 'bayes', 'boost', 'forest', 'forest-ref', 'knn', 'knn-ref', 'linear', 'logistic', 'tree']);
   });
 
   for (const learner of learners) {
