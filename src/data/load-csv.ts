@@ -314,6 +314,7 @@ export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Pro
     byName,
     lines: lineOf,
     warnings,
+    delimiter,
     fingerprint: {
       sha256: hash.digest('hex'),
       rows,

@@ -61,4 +61,6 @@ export interface Table {
   /** 1-based line number in the file of each data row (for error messages) */
   readonly lines: Int32Array;
   readonly warnings: readonly string[];
+  /** the field separator the file was read with (absent in tables not read from a CSV) */
+  readonly delimiter?: string;
 }
