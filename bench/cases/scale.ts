@@ -10,9 +10,9 @@
  * SCALE_ROWS: it gets the files and returns table rows; the columns are fixed below.
  */
 import { execFileSync } from 'node:child_process';
-import { mkdtempSync, rmSync } from 'node:fs';
+import { mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { type BenchCase, fixed } from '../case.js';
 import { scaleColumns, writeScaleCsv, type ScaleKind } from '../scale-data.js';
@@ -100,8 +100,41 @@ export const csvLoadRows: ScaleRowProducer = ({ files, log }) => {
   return rows;
 };
 
+/**
+ * One long quoted field (issue 26): a file holding a 12 MB and one holding a 50 MB field, each
+ * loaded in a child process. Linear time makes the ratio of the times about 50/12 = 4.2; the
+ * quadratic parse the issue measured took 1.4 s and 16.5 s (ratio 11.8).
+ */
+export const longFieldRows: ScaleRowProducer = ({ files, log }) => {
+  const dir = dirname(files[0].path);
+  const seconds: number[] = [];
+  const cpu: number[] = [];
+  const sized: ScaleFile[] = [];
+  for (const mb of [12, 50]) {
+    const path = join(dir, `field-${mb}mb.csv`);
+    const field = 'w'.repeat(mb * MB);
+    writeFileSync(path, `note,y\n"${field}",1\nshort,0\n`);
+    log(`load one ${mb} MB field`);
+    const r = child<LoadFigures>('scale-load.js', [path, 'foldwise']);
+    seconds.push(r.wallMs / 1000);
+    cpu.push(r.cpuMs / 1000);
+    sized.push({ kind: 'numeric', rows: 2, format: 'csv', path, bytes: statSync(path).size });
+    rmSync(path, { force: true });
+  }
+  const ratio = cpu[1] / cpu[0];
+  return [
+    {
+      measure: 'one long quoted field',
+      file: sized[1],
+      figure: `12 MB: ${fixed(seconds[0], 2)} s wall, ${fixed(cpu[0], 2)} s CPU; 50 MB: ${fixed(seconds[1], 2)} s wall, ${fixed(cpu[1], 2)} s CPU; CPU ratio ${fixed(ratio, 1)}`,
+      goal: 'linear: CPU ratio 50 MB / 12 MB <= 6 (4.2 when linear)',
+      met: ratio <= 6 ? 'yes' : 'no',
+    },
+  ];
+};
+
 /** Producers of the table's rows, in order. Add a line here for a new measure or format. */
-export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows];
+export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows];
 
 async function run({ log }: { log: (line: string) => void }) {
   const dir = mkdtempSync(join(tmpdir(), 'foldwise-scale-'));
@@ -124,7 +157,7 @@ async function run({ log }: { log: (line: string) => void }) {
         rows: out.map((r) => [
           r.measure,
           r.file.format,
-          `${r.file.kind} (${scaleColumns(r.file.kind).length} columns)`,
+          r.file.rows === 2 ? 'one long field' : `${r.file.kind} (${scaleColumns(r.file.kind).length} columns)`,
           r.file.rows,
           fixed(r.file.bytes / MB, 1),
           r.figure,
