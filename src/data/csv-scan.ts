@@ -67,11 +67,16 @@ export class CsvScanner {
   private rowLine = 1;
   private headerNames: string[] | null = [];
 
+  /** 1 for the bytes that end an unquoted field: the delimiter, LF and CR */
+  private readonly stops = new Uint8Array(256);
+
   constructor(
     private readonly delimiter: number,
     private readonly sink: ScanSink,
     private readonly sourceName: string,
-  ) {}
+  ) {
+    this.stops[delimiter] = this.stops[LF] = this.stops[CR] = 1;
+  }
 
   /** Scans one chunk; throws InputError on a malformed quote or a row of the wrong width. */
   push(buf: Uint8Array): void {
@@ -105,9 +110,10 @@ export class CsvScanner {
       if (state === UNQUOTED) {
         let k = i;
         let b = 0;
+        const stops = this.stops;
         while (k < n) {
           b = buf[k];
-          if (b === d || b === LF || b === CR) break;
+          if (stops[b] === 1) break;
           k++;
         }
         if (k === n) {
