@@ -9,6 +9,7 @@ import fc from 'fast-check';
 import { Readable } from 'node:stream';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { fastDecimal } from '../../src/data/column-build.js';
+import { eachRecord } from '../../src/data/records.js';
 import type { Table } from '../../src/data/types.js';
 import { tempFolder } from '../helpers/tmp.js';
 
@@ -173,6 +174,21 @@ describe('line ends and white space (issue 26)', () => {
     expect(t.warnings.join('\n')).toMatch(/mem\.csv: mixed line ends: line 1 ends with LF, line 3 with CRLF; each LF, CRLF and lone CR is read as one line end/);
     const plain = await loadCsv(text('x,y\r\n1,P\r\n'));
     expect(plain.warnings).toEqual([]);
+  });
+
+  it('split re-reads the same rows as the loader from a file with mixed line ends', async () => {
+    const csv = 'x,y\r\n1,P\n2,Q\r\n3,P\n';
+    const t = await loadCsv(text(csv));
+    const seen: string[][] = [];
+    eachRecord(csv, ',', (fields, row) => {
+      if (row >= 0) seen.push(fields);
+    });
+    expect(seen.length).toBe(t.rows);
+    expect(seen).toEqual([
+      ['1', 'P'],
+      ['2', 'Q'],
+      ['3', 'P'],
+    ]);
   });
 
   it('warns when two levels differ only by white space around them', async () => {
