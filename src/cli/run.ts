@@ -10,6 +10,7 @@ import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
+import { DATE_ORDERS, parseDateOrder } from '../data/dates.js';
 import type { ProblemOptions } from '../data/problem.js';
 import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
 import { LEARNERS } from '../learners/index.js';
@@ -83,6 +84,7 @@ export interface DataFlags {
   task?: Task;
   group?: string;
   order?: string;
+  dateFormat?: string;
   verbose?: boolean;
 }
 
@@ -97,7 +99,8 @@ export function addDataOptions(cmd: Command): Command {
     .option('--missing <tokens>', `comma-separated texts that mean missing, besides an empty cell (default ${DEFAULT_MISSING.filter(Boolean).join(',')})`)
     .addOption(new Option('--task <task>', 'force the task instead of inferring it from the target').choices(TASKS))
     .option('--group <column>', 'keep rows with the same value of this column on one side of every split')
-    .option('--order <column>', 'time order column (numbers or ISO dates) for forward plans')
+    .option('--order <column>', 'time order column (numbers or dates) for forward plans')
+    .option('--date-format <order>', `order of day, month and year in dates such as 01/31/2001: ${DATE_ORDERS.join(', ')}`)
     .option('--verbose', 'print stack traces of errors');
 }
 
@@ -119,6 +122,7 @@ export function loadOptionsOf(flags: DataFlags): LoadOptions {
     delimiter: parseDelimiter(flags.delimiter ?? ','),
     ...(flags.missing !== undefined ? { missing: parseMissing(flags.missing) } : {}),
     ...(flags.categorical ? { categorical: flags.categorical } : {}),
+    ...(flags.dateFormat !== undefined ? { dateFormat: parseDateOrder(flags.dateFormat) } : {}),
   };
 }
 

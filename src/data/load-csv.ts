@@ -1,30 +1,44 @@
 /**
  * Streams a CSV into typed columns.
  *
- * Bytes flow once: each chunk updates the SHA-256 fingerprint, is decoded as strict UTF-8 and
- * handed to papaparse, whose `step` callback sees one row at a time as an array of strings.
- * Every column is dictionary-encoded while streaming (a Map from cell text to a code, plus an
- * Int32Array of codes); at the end each column's distinct texts are parsed once to decide
- * whether it is numeric (every non-missing text is a decimal number, or every one an ISO date,
- * read as days since 1970-01-01 UTC) or categorical. No array of row objects is ever made.
+ * Bytes flow once: each chunk updates the SHA-256 fingerprint, is checked to be UTF-8 without
+ * NUL bytes, and goes to the byte scanner (`csv-scan.ts`), which hands every field to its
+ * column as bytes. A column starts on the numeric path, parsing decimal text straight into a
+ * growing Float64Array; it switches to dictionary coding at its first cell that is neither a
+ * number nor a missing token, or from the start when it is listed with --categorical
+ * (`column-build.ts`). At the end each column is typed by the README's rules: numeric when
+ * every non-missing text is a decimal number, dates when every one is a date of one shape
+ * (`dates.ts`), categorical otherwise. A column that switched after some numbers and ends
+ * categorical gets the texts of those rows from a second read of the source (the file again;
+ * for a stream, the bytes kept from the first read). No array of row objects is ever made.
  */
 import { createHash } from 'node:crypto';
+import { isUtf8 } from 'node:buffer';
 import { createReadStream } from 'node:fs';
 import { stat } from 'node:fs/promises';
-import { Readable, Transform, type TransformCallback } from 'node:stream';
-import Papa from 'papaparse';
+import { Readable } from 'node:stream';
 import { InputError } from '../errors.js';
-import type { CategoricalColumn, Column, NumericColumn, Table } from './types.js';
+import { ColumnBuilder, DECIMAL, INFINITE_WORD, PreSwitchCodes, trimmed } from './column-build.js';
+import { ByteDict, hashBytes } from './byte-dict.js';
+import { CsvScanner, type ScanSink } from './csv-scan.js';
+import { readDates, type DateOrder } from './dates.js';
+import { quoted } from './quote.js';
+import type { CategoricalColumn, Column, NumericColumn, Table, TypeBreak } from './types.js';
+
+export { isoDays } from './dates.js';
+export { quoted } from './quote.js';
 
 export const DEFAULT_MISSING = ['', 'NA', 'NaN', '?', 'null'] as const;
 
 export interface LoadOptions {
-  /** field separator, one character (default ","); never guessed */
+  /** field separator, one ASCII character (default ","); never guessed */
   readonly delimiter?: string;
   /** cell texts that mean "missing" (compared after trimming spaces) */
   readonly missing?: readonly string[];
   /** columns read as categorical even when every value is a number */
   readonly categorical?: readonly string[];
+  /** the order of day, month and year in N/N/YYYY and N-N-YYYY dates (--date-format) */
+  readonly dateFormat?: DateOrder;
   /** called as bytes are read: bytes so far and the total (undefined when unknown, as for stdin) */
   readonly onProgress?: (bytes: number, total: number | undefined) => void;
 }
@@ -35,62 +49,11 @@ export type CsvSource =
   | { readonly stream: Readable; readonly name: string }
   | { readonly text: string; readonly name: string };
 
-/** A decimal number as text: optional sign, digits with an optional point, optional exponent. */
-const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
-const INFINITE_WORD = /^[+-]?(?:inf|infinity)$/i;
-/** An ISO 8601 calendar date, optionally with a time: read as days since 1970-01-01 (UTC). */
-const ISO_DATE = /^\d{4}-\d{2}-\d{2}(?:[T ]\d{2}:\d{2}(?::\d{2}(?:\.\d+)?)?(?:Z|[+-]\d{2}:?\d{2})?)?$/;
-const DAY_MS = 86_400_000;
-
-/** Days since 1970-01-01 of an ISO date text, or NaN when it is not a valid date. */
-export function isoDays(text: string): number {
-  if (!ISO_DATE.test(text)) return NaN;
-  const withZone = text.length === 10 ? `${text}T00:00:00Z` : /Z|[+-]\d{2}:?\d{2}$/.test(text) ? text.replace(' ', 'T') : `${text.replace(' ', 'T')}Z`;
-  const ms = Date.parse(withZone);
-  if (Number.isNaN(ms)) return NaN;
-  // Date.parse rolls 2023-02-30 over to March; refuse dates that do not exist
-  if (new Date(ms).toISOString().slice(0, 10) !== text.slice(0, 10) && text.length === 10) return NaN;
-  return ms / DAY_MS;
-}
-/** Longest user text quoted whole in a message; longer texts are cut with "...". */
-const QUOTE_MAX = 80;
-
-/**
- * User text (a cell, a column name, an option value) quoted for a one-line message: JSON string
- * syntax, so line breaks and control characters are escaped and the message stays one line, and
- * cut to QUOTE_MAX characters so a 5 MB cell does not make a 5 MB message.
- */
-export function quoted(text: string): string {
-  return JSON.stringify(text.length > QUOTE_MAX ? `${text.slice(0, QUOTE_MAX - 3)}...` : text);
-}
-const INITIAL_CAPACITY = 1024;
-
-class GrowableCodes {
-  data = new Int32Array(INITIAL_CAPACITY);
-  length = 0;
-  push(v: number): void {
-    if (this.length === this.data.length) {
-      const next = new Int32Array(this.data.length * 2);
-      next.set(this.data);
-      this.data = next;
-    }
-    this.data[this.length++] = v;
-  }
-  view(): Int32Array {
-    return this.data.slice(0, this.length);
-  }
-}
-
-interface RawColumn {
-  readonly name: string;
-  readonly dict: Map<string, number>;
-  readonly levels: string[];
-  readonly codes: GrowableCodes;
-  missing: number;
-}
+/** Bytes read from a file at a time. */
+const CHUNK = 1 << 20;
 
 /** Count of "\n" bytes in `chunk[from, to)`. */
-function newlinesIn(chunk: Buffer, from: number, to: number): number {
+function newlinesIn(chunk: Uint8Array, from: number, to: number): number {
   let count = 0;
   for (let i = chunk.indexOf(10, from); i >= 0 && i < to; i = chunk.indexOf(10, i + 1)) count++;
   return count;
@@ -123,75 +86,78 @@ export function firstBadUtf8(bytes: Uint8Array): number {
   return -1;
 }
 
-/** The bytes at the end of `chunk` that begin a character the chunk does not finish. */
-function unfinishedTail(chunk: Buffer): Buffer {
+/** How many bytes at the end of `chunk` begin a character the chunk does not finish. */
+function unfinishedTail(chunk: Uint8Array): number {
   for (let back = 1; back <= Math.min(3, chunk.length); back++) {
     const b = chunk[chunk.length - back];
     if ((b & 0xc0) === 0x80) continue;
-    return sequenceLength(b) > back ? chunk.subarray(chunk.length - back) : chunk.subarray(chunk.length);
+    return sequenceLength(b) > back ? back : 0;
   }
-  return chunk.subarray(chunk.length);
+  return 0;
 }
 
 /**
- * Hashes bytes as they pass and decodes them as strict UTF-8; fails on the first NUL byte or
- * bad byte, naming its byte offset and line.
+ * Checks chunks for NUL bytes and well-formed UTF-8 as they pass (a character may be split
+ * between chunks); fails naming the byte offset and line.
  */
-class HashingDecoder extends Transform {
-  readonly hash = createHash('sha256');
-  private readonly decoder = new TextDecoder('utf-8', { fatal: true, ignoreBOM: false });
+class ByteCheck {
+  /** bytes checked so far */
   bytes = 0;
-  /** "\n" bytes in the chunks passed so far */
-  private newlines = 0;
-  /** the start of a character left unfinished by the previous chunk */
   private carry: Buffer = Buffer.alloc(0);
-  constructor(private readonly sourceName: string) {
-    super({ readableObjectMode: true });
-  }
-  override _transform(chunk: Buffer, _enc: BufferEncoding, done: TransformCallback): void {
-    this.hash.update(chunk);
+  constructor(private readonly sourceName: string) {}
+
+  /** `line`: the line the scanner is on at the start of the chunk. */
+  check(chunk: Buffer, line: number): void {
     const nul = chunk.indexOf(0);
     if (nul >= 0) {
-      const line = this.newlines + newlinesIn(chunk, 0, nul) + 1;
-      done(
-        new InputError(
-          `${this.sourceName}: byte ${this.bytes + nul} is a NUL byte (line ${line}); this looks like a binary file, not a CSV text file; give a CSV saved as UTF-8 text`,
-        ),
+      throw new InputError(
+        `${this.sourceName}: byte ${this.bytes + nul} is a NUL byte (line ${line + newlinesIn(chunk, 0, nul)}); this looks like a binary file, not a CSV text file; give a CSV saved as UTF-8 text`,
       );
-      return;
     }
-    let text: string;
-    try {
-      text = this.decoder.decode(chunk, { stream: true });
-    } catch {
-      // the carry bytes (no line breaks among them) come right before the chunk
-      const found = firstBadUtf8(Buffer.concat([this.carry, chunk]));
-      const at = found < 0 ? this.carry.length + chunk.length - 1 : found;
-      const line = this.newlines + newlinesIn(chunk, 0, Math.max(0, at - this.carry.length)) + 1;
-      done(new InputError(`${this.sourceName}: is not valid UTF-8 (line ${line}, byte ${this.bytes - this.carry.length + at}); save the file as UTF-8`));
-      return;
+    let body = chunk;
+    if (this.carry.length) {
+      const need = sequenceLength(this.carry[0]) - this.carry.length;
+      const joint = Buffer.concat([this.carry, chunk.subarray(0, need)]);
+      const bad = firstBadUtf8(joint);
+      if (bad >= 0 || joint.length < this.carry.length + need) {
+        if (bad >= 0) throw this.bad(line, this.bytes - this.carry.length + bad);
+        this.carry = joint; // still unfinished: a chunk of fewer bytes than the character needs
+        this.bytes += chunk.length;
+        return;
+      }
+      body = chunk.subarray(need);
+      this.carry = Buffer.alloc(0);
+    }
+    const tail = unfinishedTail(body);
+    const main = body.subarray(0, body.length - tail);
+    if (!isUtf8(main)) {
+      const at = firstBadUtf8(main);
+      const offset = at < 0 ? main.length - 1 : at;
+      throw this.bad(line + newlinesIn(chunk, 0, chunk.length - body.length + offset), this.bytes + chunk.length - body.length + offset);
+    }
+    if (tail) {
+      const rest = body.subarray(body.length - tail);
+      if (firstBadUtf8(rest) >= 0) throw this.bad(line + newlinesIn(chunk, 0, chunk.length), this.bytes + chunk.length - tail);
+      this.carry = Buffer.from(rest);
     }
     this.bytes += chunk.length;
-    this.newlines += newlinesIn(chunk, 0, chunk.length);
-    this.carry = Buffer.from(unfinishedTail(chunk.length >= 4 ? chunk : Buffer.concat([this.carry, chunk])));
-    if (text.length) this.push(text);
-    done();
   }
-  override _flush(done: TransformCallback): void {
-    try {
-      const tail = this.decoder.decode();
-      if (tail.length) this.push(tail);
-      done();
-    } catch {
-      done(new InputError(`${this.sourceName}: is not valid UTF-8 (line ${this.newlines + 1}: the file ends inside a character); save the file as UTF-8`));
+
+  end(line: number): void {
+    if (this.carry.length) {
+      throw new InputError(`${this.sourceName}: is not valid UTF-8 (line ${line}: the file ends inside a character); save the file as UTF-8`);
     }
+  }
+
+  private bad(line: number, byte: number): InputError {
+    return new InputError(`${this.sourceName}: is not valid UTF-8 (line ${line}, byte ${byte}); save the file as UTF-8`);
   }
 }
 
-async function openSource(source: CsvSource): Promise<{ stream: Readable; name: string; size?: number }> {
+async function openSource(source: CsvSource): Promise<{ stream: AsyncIterable<Buffer | string>; name: string; size?: number }> {
   if ('text' in source) {
     const bytes = Buffer.from(source.text, 'utf8');
-    return { stream: Readable.from([bytes]), name: source.name, size: bytes.length };
+    return { stream: [bytes] as unknown as AsyncIterable<Buffer>, name: source.name, size: bytes.length };
   }
   if ('stream' in source) return { stream: source.stream, name: source.name };
   const name = source.path;
@@ -202,7 +168,7 @@ async function openSource(source: CsvSource): Promise<{ stream: Readable; name: 
     throw fileError(name, e);
   }
   if (info.isDirectory()) throw new InputError(`${name}: is a directory, not a CSV file; give the path of a file`);
-  return { stream: createReadStream(name), name, size: info.size };
+  return { stream: createReadStream(name, { highWaterMark: CHUNK }), name, size: info.size };
 }
 
 function fileError(name: string, e: unknown): InputError {
@@ -218,111 +184,127 @@ function checkOptions(options: LoadOptions): { delimiter: string; missing: Set<s
   if ([...delimiter].length !== 1 || delimiter === '"' || delimiter === '\n' || delimiter === '\r') {
     throw new InputError(`--delimiter ${quoted(delimiter)}: expected one character other than a quote or a line break (use "\\t" for tab)`);
   }
+  if (delimiter.charCodeAt(0) > 0x7f) {
+    throw new InputError(`--delimiter ${quoted(delimiter)}: expected an ASCII character (one byte); re-save the file with a comma, semicolon or tab between fields`);
+  }
   return { delimiter, missing: new Set((options.missing ?? DEFAULT_MISSING).map((t) => t.trim())) };
+}
+
+function asBuffer(piece: Buffer | Uint8Array | string): Buffer {
+  if (typeof piece === 'string') return Buffer.from(piece, 'utf8');
+  return Buffer.isBuffer(piece) ? piece : Buffer.from(piece.buffer, piece.byteOffset, piece.byteLength);
+}
+
+/** Row line numbers, growing as rows arrive. */
+class Lines {
+  data = new Int32Array(1024);
+  length = 0;
+  push(v: number): void {
+    if (this.length === this.data.length) {
+      const next = new Int32Array(Math.ceil(this.data.length * 1.5));
+      next.set(this.data);
+      this.data = next;
+    }
+    this.data[this.length++] = v;
+  }
+  reserve(n: number): void {
+    if (n > this.data.length) {
+      const next = new Int32Array(n);
+      next.set(this.data.subarray(0, this.length));
+      this.data = next;
+    }
+  }
+  view(): Int32Array {
+    return this.data.length - this.length <= this.length / 16 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+  }
+}
+
+/** The first pass: columns on the numeric path or in dictionary coding, and row lines. */
+class TableSink implements ScanSink {
+  cols: ColumnBuilder[] = [];
+  readonly lines = new Lines();
+  /** rows expected, estimated from the first chunk and the file size */
+  capacity = 1024;
+  private readonly missingBytes = new ByteDict();
+  constructor(
+    private readonly name: string,
+    private readonly forced: ReadonlySet<string>,
+    private readonly missing: ReadonlySet<string>,
+  ) {
+    for (const t of missing) {
+      const b = Buffer.from(t, 'utf8');
+      const h = hashBytes(b, 0, b.length);
+      if (this.missingBytes.get(b, 0, b.length, h) < 0) this.missingBytes.add(b, 0, b.length, h);
+    }
+  }
+  header(names: string[]): void {
+    checkHeader(this.name, names);
+    for (const f of this.forced) {
+      if (!names.includes(f)) throw new InputError(`--categorical ${quoted(f)}: no such column in ${this.name}`);
+    }
+    this.cols = names.map((n) => new ColumnBuilder(n, this.forced.has(n), this.missing, this.missingBytes, this.capacity));
+    this.lines.reserve(this.capacity);
+  }
+  cell(j: number, buf: Uint8Array, start: number, end: number): void {
+    this.cols[j].add(buf as Buffer, start, end);
+  }
+  row(line: number): void {
+    this.lines.push(line);
+  }
 }
 
 /** Loads a CSV into a Table. Throws InputError naming the file, line or column on bad input. */
 export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Promise<Table> {
   const { delimiter, missing } = checkOptions(options);
   const { stream, name, size } = await openSource(source);
-  const decoder = new HashingDecoder(name);
-  if (options.onProgress) {
-    const report = options.onProgress;
-    let read = 0;
-    stream.on('data', (chunk: Buffer | string) => report((read += chunk.length), size));
+  const sink = new TableSink(name, new Set(options.categorical ?? []), missing);
+  const scanner = new CsvScanner(delimiter.charCodeAt(0), sink, name);
+  const hash = createHash('sha256');
+  const check = new ByteCheck(name);
+  // a stream cannot be read twice: keep its bytes in case a column needs a second pass
+  const kept: Buffer[] | undefined = 'stream' in source ? [] : undefined;
+  let bytes = 0;
+  try {
+    for await (const piece of stream) {
+      const chunk = asBuffer(piece);
+      hash.update(chunk);
+      check.check(chunk, scanner.line);
+      if (bytes === 0 && size !== undefined && chunk.length > 0) {
+        // size the column buffers once: rows in the file ~ line ends in the first chunk, scaled
+        sink.capacity = Math.min(2 ** 28, Math.ceil((newlinesIn(chunk, 0, chunk.length) * size) / chunk.length * 1.02) + 16);
+      }
+      scanner.push(chunk);
+      kept?.push(chunk);
+      bytes += chunk.length;
+      options.onProgress?.(bytes, size);
+    }
+    check.end(scanner.line);
+    scanner.end();
+  } catch (e) {
+    if ('destroy' in stream && typeof stream.destroy === 'function') (stream as Readable).destroy();
+    throw e instanceof InputError ? e : fileError(name, e);
   }
-  const raw: RawColumn[] = [];
-  const lines = new GrowableCodes();
-  let header: string[] | null = null;
-  let line = 1; // line number of the row papaparse hands us next
-  let rows = 0;
-  let failure = null as Error | null;
-
-  const onRow = (fields: string[], parser: Papa.Parser): void => {
-    const rowLine = line;
-    for (const f of fields) for (let i = f.indexOf('\n'); i >= 0; i = f.indexOf('\n', i + 1)) line++;
-    line++;
-    if (header === null) {
-      if (fields.length === 1 && fields[0] === '') return; // blank lines before the header
-      if (fields.length) fields[0] = fields[0].replace(/^\uFEFF/, '');
-      header = fields;
-      checkHeader(name, header);
-      for (const col of header) raw.push({ name: col, dict: new Map(), levels: [], codes: new GrowableCodes(), missing: 0 });
-      return;
-    }
-    if (fields.length === 1 && fields[0] === '' && header.length > 1) return; // a blank line
-    if (fields.length !== header.length) {
-      failure = new InputError(
-        `${name}: line ${rowLine} has ${fields.length} field${fields.length === 1 ? '' : 's'}, the header has ${header.length}; fix the row or check --delimiter`,
-      );
-      parser.abort();
-      return;
-    }
-    for (let j = 0; j < fields.length; j++) {
-      const col = raw[j];
-      const text = fields[j];
-      const edge = text.length > 0 && (text.charCodeAt(0) <= 32 || text.charCodeAt(text.length - 1) <= 32);
-      if (missing.has(edge ? text.trim() : text)) {
-        col.codes.push(-1);
-        col.missing++;
-        continue;
-      }
-      let code = col.dict.get(text);
-      if (code === undefined) {
-        code = col.levels.length;
-        col.dict.set(text, code);
-        col.levels.push(text);
-      }
-      col.codes.push(code);
-    }
-    lines.push(rowLine);
-    rows++;
-  };
-
-  await new Promise<void>((resolve, reject) => {
-    const fail = (e: unknown): void => {
-      failure ??= e instanceof InputError ? e : fileError(name, e);
-      resolve();
-    };
-    stream.on('error', fail);
-    decoder.on('error', fail);
-    stream.pipe(decoder);
-    Papa.parse<string[]>(decoder as unknown as NodeJS.ReadableStream as never, {
-      delimiter,
-      header: false,
-      dynamicTyping: false,
-      skipEmptyLines: false,
-      step: (results, parser) => {
-        if (failure) return;
-        const quoteError = results.errors.find((e) => e.type === 'Quotes');
-        if (quoteError) {
-          failure = new InputError(`${name}: line ${line}: ${quoteError.message.toLowerCase()}; check the quoting of that row`);
-          parser.abort();
-          return;
-        }
-        try {
-          onRow(results.data, parser);
-        } catch (e) {
-          failure = e as Error;
-          parser.abort();
-        }
-      },
-      complete: () => resolve(),
-      error: (e: Error) => reject(e),
-    });
-  });
-  if (failure) throw failure;
-  if (decoder.bytes === 0) throw new InputError(`${name}: the file is empty; expected a header row and data rows`);
-  if (header === null) throw new InputError(`${name}: has no header row; expected a header row and data rows`);
+  if (bytes === 0) throw new InputError(`${name}: the file is empty; expected a header row and data rows`);
+  if (scanner.width === 0) throw new InputError(`${name}: has no header row; expected a header row and data rows`);
+  const rows = scanner.rows;
   if (rows === 0) throw new InputError(`${name}: has a header but no data rows`);
 
-  const forced = new Set(options.categorical ?? []);
-  for (const f of forced) {
-    if (!raw.some((c) => c.name === f)) throw new InputError(`--categorical ${quoted(f)}: no such column in ${name}`);
-  }
   const warnings: string[] = [];
-  const lineOf = lines.view();
-  const columns: Column[] = raw.map((c, position) => finishColumn(name, c, position, forced.has(c.name), lineOf, warnings));
+  const mixed = lineEndWarning(name, scanner.ends);
+  if (mixed) warnings.push(mixed);
+  const lineOf = sink.lines.view();
+  const ctx: FinishContext = { name, rows, lineOf, warnings, dateFormat: options.dateFormat };
+  const decided = sink.cols.map((c, position) => decide(ctx, c, position));
+  const deferred = decided.flatMap((d, j) => (d === SECOND_PASS ? [{ j, pre: new PreSwitchCodes(sink.cols[j], rows, missing, name, lineOf) }] : []));
+  if (deferred.length) await secondPass(source, kept, delimiter, name, deferred);
+  const columns: Column[] = decided.map((d, position) => {
+    if (d !== SECOND_PASS) return d;
+    const c = sink.cols[position];
+    const { codes, levels } = deferred.find((x) => x.j === position)!.pre.finish();
+    c.dropValues();
+    return categorical(c, position, codes, levels, breakOf(c));
+  });
+  for (const c of columns) if (c.kind === 'categorical') whiteSpaceWarning(c, lineOf, warnings);
   const byName = new Map<string, Column>();
   for (const c of columns) byName.set(c.name, c);
   return {
@@ -332,8 +314,9 @@ export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Pro
     byName,
     lines: lineOf,
     warnings,
+    delimiter,
     fingerprint: {
-      sha256: decoder.hash.digest('hex'),
+      sha256: hash.digest('hex'),
       rows,
       columns: columns.length,
       schema: columns.map((c) => [c.name, c.kind] as const),
@@ -353,72 +336,213 @@ function checkHeader(name: string, header: readonly string[]): void {
   });
 }
 
-function firstLineWith(codes: Int32Array, code: number, lineOf: Int32Array): number {
-  for (let i = 0; i < codes.length; i++) if (codes[i] === code) return lineOf[i];
-  return -1;
+function lineEndWarning(name: string, ends: { lf: number; crlf: number; cr: number }): string | undefined {
+  const kinds = (['lf', 'crlf', 'cr'] as const).filter((k) => ends[k] > 0).sort((a, b) => ends[a] - ends[b]);
+  if (kinds.length < 2) return undefined;
+  const label = { lf: 'LF', crlf: 'CRLF', cr: 'CR' } as const;
+  const [first, second] = kinds;
+  return `${name}: mixed line ends: line ${ends[first]} ends with ${label[first]}, line ${ends[second]} with ${label[second]}; each LF, CRLF and lone CR is read as one line end, never as part of a value`;
 }
 
-function finishColumn(
-  name: string,
-  c: RawColumn,
-  position: number,
-  forceCategorical: boolean,
-  lineOf: Int32Array,
-  warnings: string[],
-): Column {
-  const codes = c.codes.view();
-  if (!forceCategorical) {
-    const values = new Float64Array(c.levels.length);
-    const textual: number[] = [];
-    let bigIntegers = false;
-    for (let k = 0; k < c.levels.length; k++) {
-      const t = c.levels[k].trim();
-      if (DECIMAL.test(t)) {
-        const v = Number(t);
-        if (!Number.isFinite(v)) {
-          throw new InputError(
-            `${name}: line ${firstLineWith(codes, k, lineOf)}, column ${quoted(c.name)}: ${quoted(t)} is too large for a double; fix the value or list it with --missing`,
-          );
-        }
-        if (Number.isInteger(v) && Math.abs(v) > Number.MAX_SAFE_INTEGER) bigIntegers = true;
-        values[k] = v;
-      } else {
-        textual.push(k);
-      }
+interface FinishContext {
+  readonly name: string;
+  readonly rows: number;
+  readonly lineOf: Int32Array;
+  readonly warnings: string[];
+  readonly dateFormat?: DateOrder;
+}
+
+const SECOND_PASS = Symbol('second pass');
+
+/** What a level text is to the numeric rule. */
+const NUMBER = 0;
+const TOO_LARGE = 1;
+const INFINITE = 2;
+const TEXT = 3;
+
+function levelKind(text: string): number {
+  const t = trimmed(text);
+  if (DECIMAL.test(t)) return Number.isFinite(Number(t)) ? NUMBER : TOO_LARGE;
+  return INFINITE_WORD.test(t) ? INFINITE : TEXT;
+}
+
+/** The first cells that broke each column's type, found while deciding (for breakOf). */
+const breaks = new WeakMap<ColumnBuilder, TypeBreak>();
+
+function breakOf(c: ColumnBuilder): TypeBreak | undefined {
+  return breaks.get(c);
+}
+
+/** Lines of the first `max` rows after the switch whose code satisfies `pick`. */
+function firstCells(c: ColumnBuilder, lineOf: Int32Array, pick: (code: number) => boolean, max: number): { line: number; text: string }[] {
+  const out: { line: number; text: string }[] = [];
+  for (let r = 0; r < c.codeLength && out.length < max; r++) {
+    const k = c.codes[r];
+    if (k >= 0 && pick(k)) out.push({ line: lineOf[c.switchRow + r], text: c.levels[k] });
+  }
+  return out;
+}
+
+function numericColumn(c: ColumnBuilder, position: number, values: Float64Array, extra: Partial<NumericColumn> = {}): NumericColumn {
+  return { kind: 'numeric', name: c.name, position, values, missing: c.missing, ...extra };
+}
+
+function categorical(c: ColumnBuilder, position: number, codes: Int32Array, levels: readonly string[], typeBreak?: TypeBreak): CategoricalColumn {
+  return { kind: 'categorical', name: c.name, position, codes, levels, missing: c.missing, ...(typeBreak ? { breaks: typeBreak } : {}) };
+}
+
+/** Codes for all rows of a column whose rows before the switch were all missing. */
+function fullCodes(c: ColumnBuilder, rows: number): Int32Array {
+  if (c.switchRow === 0 && c.codeLength === rows) return c.codes.length - rows <= rows / 16 ? c.codes.subarray(0, rows) : c.codes.slice(0, rows);
+  const out = new Int32Array(rows).fill(-1, 0, c.switchRow);
+  out.set(c.codes.subarray(0, c.codeLength), c.switchRow);
+  return out;
+}
+
+/** Types one column by the README's rules; SECOND_PASS when it ends categorical after numbers. */
+function decide(ctx: FinishContext, c: ColumnBuilder, position: number): Column | typeof SECOND_PASS {
+  const { name, rows, lineOf, warnings } = ctx;
+  if (c.numeric) {
+    if (c.numbers > 0) {
+      if (c.bigIntegers) warnings.push(`column ${quoted(c.name)} has integers beyond 2^53; they are read as the nearest double`);
+      return numericColumn(c, position, c.numericValues());
     }
-    const nonMissing = codes.length - c.missing;
-    if (textual.length === 0 && nonMissing > 0) {
-      if (bigIntegers) warnings.push(`column ${quoted(c.name)} has integers beyond 2^53; they are read as the nearest double`);
-      const out = new Float64Array(codes.length);
-      for (let i = 0; i < codes.length; i++) out[i] = codes[i] < 0 ? NaN : values[codes[i]];
-      return { kind: 'numeric', name: c.name, position, values: out, missing: c.missing } satisfies NumericColumn;
+    c.dropValues();
+    return categorical(c, position, new Int32Array(rows).fill(-1), []);
+  }
+  if (!c.forced) {
+    const kinds = c.levels.map(levelKind);
+    const count = (kind: number): number => kinds.filter((k) => k === kind).length;
+    const firstLine = (kind: number): number => firstCells(c, lineOf, (k) => kinds[k] === kind, 1)[0].line;
+    const firstText = (kind: number): string => c.levels[kinds.indexOf(kind)];
+    const hasNumbers = c.numbers > 0 || count(NUMBER) > 0;
+    if (count(TEXT) === 0 && count(TOO_LARGE) > 0) {
+      throw new InputError(
+        `${name}: line ${firstLine(TOO_LARGE)}, column ${quoted(c.name)}: ${quoted(trimmed(firstText(TOO_LARGE)))} is too large for a double; fix the value or list it with --missing`,
+      );
     }
-    if (textual.length > 0 && textual.length < c.levels.length) {
-      const inf = textual.find((k) => INFINITE_WORD.test(c.levels[k].trim()));
-      if (inf !== undefined && textual.every((k) => INFINITE_WORD.test(c.levels[k].trim()))) {
-        throw new InputError(
-          `${name}: line ${firstLineWith(codes, inf, lineOf)}, column ${quoted(c.name)}: ${quoted(c.levels[inf])} is not a finite number; fix it or list it with --missing`,
-        );
-      }
+    if (count(TEXT) === 0 && count(INFINITE) > 0 && hasNumbers) {
+      throw new InputError(`${name}: line ${firstLine(INFINITE)}, column ${quoted(c.name)}: ${quoted(firstText(INFINITE))} is not a finite number; fix it or list it with --missing`);
+    }
+    const nonMissing = rows - c.missing;
+    const textual = kinds.filter((k) => k !== NUMBER).length;
+    if (hasNumbers && textual > 0) {
       let textRows = 0;
-      const isText = new Uint8Array(c.levels.length);
-      for (const k of textual) isText[k] = 1;
-      for (let i = 0; i < codes.length; i++) if (codes[i] >= 0 && isText[codes[i]]) textRows++;
-      if (textual.length <= 3 && textRows <= 0.1 * nonMissing) {
-        const k = textual[0];
+      for (let r = 0; r < c.codeLength; r++) if (c.codes[r] >= 0 && kinds[c.codes[r]] !== NUMBER) textRows++;
+      if (textual <= 3 && textRows <= 0.1 * nonMissing) {
+        const cells = firstCells(c, lineOf, (k) => kinds[k] !== NUMBER, 3);
+        const k = kinds.findIndex((x) => x !== NUMBER);
         warnings.push(
-          `column ${quoted(c.name)} is numeric but for ${textRows} cell${textRows === 1 ? '' : 's'} such as ${quoted(c.levels[k])} (line ${firstLineWith(codes, k, lineOf)}): read as categorical; if that text means missing, add it with --missing`,
+          `column ${quoted(c.name)} is numeric but for ${textRows} cell${textRows === 1 ? '' : 's'} such as ${quoted(c.levels[k])} (line ${firstCells(c, lineOf, (x) => x === k, 1)[0].line}): read as categorical; if that text means missing, add it with --missing`,
+        );
+        breaks.set(c, { expected: 'numbers', cells: textRows, examples: cells });
+      }
+    }
+    if (c.numbers === 0 && c.levels.length > 0) {
+      const texts = c.levels.map(trimmed);
+      const cellsOf = (bad: readonly number[]): number => {
+        const isBad = new Uint8Array(c.levels.length);
+        for (const k of bad) isBad[k] = 1;
+        let n = 0;
+        for (let r = 0; r < c.codeLength; r++) if (c.codes[r] >= 0 && isBad[c.codes[r]]) n++;
+        return n;
+      };
+      const verdict = readDates(texts, ctx.dateFormat, (bad) => bad.length <= 3 && cellsOf(bad) <= 0.1 * nonMissing);
+      if (verdict.kind === 'dates') {
+        const out = new Float64Array(rows).fill(NaN, 0, c.switchRow);
+        for (let r = 0; r < c.codeLength; r++) out[c.switchRow + r] = c.codes[r] < 0 ? NaN : verdict.days[c.codes[r]];
+        return numericColumn(c, position, out, { dates: true, dateReading: verdict.shape.read });
+      }
+      if (verdict.kind === 'broken') {
+        const isBad = new Set(verdict.bad);
+        const cells = firstCells(c, lineOf, (k) => isBad.has(k), 3);
+        const n = cellsOf(verdict.bad);
+        warnings.push(
+          `column ${quoted(c.name)} holds dates (${verdict.shape.read}) but for ${n} cell${n === 1 ? '' : 's'} such as ${quoted(cells[0].text)} (line ${cells[0].line}), which ${n === 1 ? 'is' : 'are'} not a date that exists: read as categorical; fix the cell or list the text with --missing`,
+        );
+        breaks.set(c, { expected: 'dates', cells: n, examples: cells });
+      } else if (verdict.kind === 'ambiguous') {
+        const example = c.levels[verdict.example];
+        const fits = verdict.fits.length === 1 ? `; every value fits only ${verdict.fits[0]}` : '';
+        const sep = verdict.fits[0]?.[1] ?? (example.includes('/') ? '/' : '-');
+        warnings.push(
+          `column ${quoted(c.name)} holds dates such as ${quoted(example)} whose day and month order the file does not say: read as categorical; give --date-format d${sep}m${sep}y or m${sep}d${sep}y to read them as dates${fits}`,
         );
       }
     }
   }
-  if (!forceCategorical && c.levels.length > 0) {
-    const days = c.levels.map((t) => isoDays(t.trim()));
-    if (days.every((d) => !Number.isNaN(d))) {
-      const out = new Float64Array(codes.length);
-      for (let i = 0; i < codes.length; i++) out[i] = codes[i] < 0 ? NaN : days[codes[i]];
-      return { kind: 'numeric', name: c.name, position, values: out, missing: c.missing, dates: true } satisfies NumericColumn;
+  if (c.numbers > 0) return SECOND_PASS;
+  return categorical(c, position, fullCodes(c, rows), c.levels, breakOf(c));
+}
+
+/** Reads the source again for the texts of rows before each deferred column's switch. */
+async function secondPass(
+  source: CsvSource,
+  kept: Buffer[] | undefined,
+  delimiter: string,
+  name: string,
+  deferred: readonly { j: number; pre: PreSwitchCodes }[],
+): Promise<void> {
+  const wanted: (PreSwitchCodes | undefined)[] = [];
+  for (const d of deferred) wanted[d.j] = d.pre;
+  let open = deferred.length;
+  const done = new Error('enough rows');
+  const sink: ScanSink = {
+    header: () => {},
+    cell: (j, buf, s, e) => {
+      const p = wanted[j];
+      if (p?.wanted) p.add(buf as Buffer, s, e);
+    },
+    row: () => {
+      for (let j = 0; j < wanted.length; j++) {
+        const p = wanted[j];
+        if (p && !p.wanted) {
+          wanted[j] = undefined;
+          open--;
+        }
+      }
+      if (open === 0) throw done;
+    },
+  };
+  const scanner = new CsvScanner(delimiter.charCodeAt(0), sink, name);
+  const chunks: AsyncIterable<Buffer | string> | Iterable<Buffer> =
+    kept ?? ('text' in source ? [Buffer.from(source.text, 'utf8')] : createReadStream((source as { path: string }).path, { highWaterMark: CHUNK }));
+  try {
+    for await (const piece of chunks) scanner.push(asBuffer(piece));
+    scanner.end();
+  } catch (e) {
+    if (e === done) return;
+    throw e instanceof InputError ? e : fileError(name, e);
+  }
+  if (open > 0) throw new InputError(`${name}: changed while it was being read (it has fewer rows on the second read); load it again when nothing writes to it`);
+}
+
+/** Warns when two levels of a categorical column differ only by white space around them. */
+function whiteSpaceWarning(c: CategoricalColumn, lineOf: Int32Array, warnings: string[]): void {
+  const levels = c.levels;
+  if (!levels.some((t) => trimmed(t) !== t)) return;
+  const seen = new Map<string, number>();
+  let pairs = 0;
+  let first: [number, number] | undefined;
+  for (let k = 0; k < levels.length; k++) {
+    const t = levels[k].trim();
+    const before = seen.get(t);
+    if (before === undefined) seen.set(t, k);
+    else {
+      pairs++;
+      first ??= [before, k];
     }
   }
-  return { kind: 'categorical', name: c.name, position, codes, levels: c.levels, missing: c.missing } satisfies CategoricalColumn;
+  if (!first) return;
+  const [a, b] = first;
+  let line = -1;
+  for (let i = 0; i < c.codes.length; i++) {
+    if (c.codes[i] === b) {
+      line = lineOf[i];
+      break;
+    }
+  }
+  warnings.push(
+    `column ${quoted(c.name)} has values that differ only by white space around them (${pairs} level${pairs === 1 ? '' : 's'} repeating another), such as ${quoted(levels[a])} and ${quoted(levels[b])} (line ${line}): they are read as different values; remove the spaces in the file if they mean the same`,
+  );
 }

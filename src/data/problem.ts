@@ -6,6 +6,8 @@
 import { closeNames, InputError, UsageError } from '../errors.js';
 import type { Target, Task } from '../learners/types.js';
 import { quoted } from './load-csv.js';
+import { delimiterHint } from './delimiter-hint.js';
+import { numericTargetBreak, orderBreak } from './type-breaks.js';
 import type { DataSection } from '../report/types.js';
 import type { Column, Table } from './types.js';
 
@@ -43,7 +45,8 @@ export interface Problem {
 function columnOf(table: Table, name: string, option: string): Column {
   const col = table.byName.get(name);
   if (!col) {
-    const hint = closeNames(name, table.columns.map((c) => c.name));
+    const names = table.columns.map((c) => c.name);
+    const hint = delimiterHint(names, name, table.delimiter ?? ',') ?? closeNames(name, names);
     throw new UsageError(`${option} ${quoted(name)}: no such column in ${table.source}${hint ? `; ${hint}` : ''}`);
   }
   return col;
@@ -103,6 +106,8 @@ function regressionTarget(table: Table, col: Column, rows: Int32Array): Target {
 
 function orderValues(table: Table, col: Column, rows: Int32Array): Float64Array {
   if (col.kind !== 'numeric') {
+    const broken = orderBreak(table, col);
+    if (broken) throw new InputError(broken);
     const r = rows.find((row) => col.codes[row] >= 0) ?? rows[0];
     const text = col.codes[r] < 0 ? 'missing' : quoted(col.levels[col.codes[r]]);
     throw new InputError(
@@ -133,6 +138,10 @@ export function defineProblem(table: Table, options: ProblemOptions): Problem {
   for (let r = 0; r < table.rows; r++) if (present(targetCol, r)) used.push(r);
   const rows = Int32Array.from(used);
   if (rows.length === 0) throw new InputError(`${table.source}: target ${quoted(targetCol.name)} is missing in every row`);
+  if (options.task === undefined) {
+    const broken = numericTargetBreak(table, targetCol);
+    if (broken) throw new InputError(broken);
+  }
   const task = options.task ?? inferTask(targetCol);
   const target = task === 'classification' ? classificationTarget(table, targetCol, rows) : regressionTarget(table, targetCol, rows);
 
@@ -189,5 +198,14 @@ export function dataSection(problem: Problem): DataSection {
     ...(y.task === 'classification' ? { classes: y.classes } : {}),
     features: problem.features.map((f) => f.name),
     dropped: problem.dropped,
+    ...datesOf(problem),
   };
+}
+
+/** How each date column the problem uses (features, --order) was read, for the report. */
+function datesOf(problem: Problem): { dates?: { column: string; read: string }[] } {
+  const used = [...problem.features];
+  if (problem.orderName !== undefined) used.push(problem.table.byName.get(problem.orderName)!);
+  const dates = used.flatMap((c) => (c.kind === 'numeric' && c.dates ? [{ column: c.name, read: c.dateReading ?? 'ISO 8601 (year-month-day)' }] : []));
+  return dates.length ? { dates } : {};
 }

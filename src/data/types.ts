@@ -12,8 +12,19 @@ export interface NumericColumn {
   readonly position: number;
   readonly values: Float64Array;
   readonly missing: number;
-  /** true when the texts were ISO dates, read as days since 1970-01-01 UTC */
+  /** true when the texts were dates, read as days since 1970-01-01 UTC */
   readonly dates?: boolean;
+  /** for a date column, how its texts were read (e.g. "ISO 8601 (year-month-day)") */
+  readonly dateReading?: string;
+}
+
+/** The first cells that kept an otherwise numeric or date column from that type. */
+export interface TypeBreak {
+  readonly expected: 'numbers' | 'dates';
+  /** how many non-missing cells are not of the expected type */
+  readonly cells: number;
+  /** the first of them (at most 3), with their file lines */
+  readonly examples: readonly { readonly line: number; readonly text: string }[];
 }
 
 export interface CategoricalColumn {
@@ -25,6 +36,8 @@ export interface CategoricalColumn {
   /** level names in order of first appearance */
   readonly levels: readonly string[];
   readonly missing: number;
+  /** set when all but a few cells are numbers, or dates of one shape: the cells that are not */
+  readonly breaks?: TypeBreak;
 }
 
 export type Column = NumericColumn | CategoricalColumn;
@@ -48,4 +61,6 @@ export interface Table {
   /** 1-based line number in the file of each data row (for error messages) */
   readonly lines: Int32Array;
   readonly warnings: readonly string[];
+  /** the field separator the file was read with (absent in tables not read from a CSV) */
+  readonly delimiter?: string;
 }

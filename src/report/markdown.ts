@@ -51,6 +51,7 @@ function describe(report: Report): string[] {
   return [
     `- Data: ${cell(d.path)}, ${d.rowsUsed} of ${d.rows} rows used${excluded}; ${d.features.length} features; target ${cell(d.target)} (${task}); SHA-256 ${d.sha256.slice(0, 12)}`,
     `- Plan: ${p.text} (${p.folds} folds${p.repeats > 1 ? ` x ${p.repeats} repeats` : ''}), ${extras}; seed ${p.seed}`,
+    ...(d.dates?.length ? [`- Dates: ${d.dates.map((x) => `${cell(x.column)} read as ${x.read}`).join('; ')}`] : []),
     ...(p.holdoutRows !== undefined ? [`- Holdout: ${p.holdoutRows} rows, ${p.finalScored ? 'scored (--final)' : 'not scored (use --final to score it once)'}`] : []),
   ];
 }

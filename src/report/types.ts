@@ -84,6 +84,8 @@ export interface DataSection {
   readonly classes?: readonly string[];
   readonly features: readonly string[];
   readonly dropped: readonly string[];
+  /** how each date column among the features and --order was read (absent when there is none) */
+  readonly dates?: readonly { readonly column: string; readonly read: string }[];
 }
 
 /** Where a report's predictions came from, when not from a foldwise eval run. */

@@ -42,6 +42,7 @@ function dataItems(d: DataSection): string[] {
     item('target', esc(`${d.target} (${task})`)),
     item('features', esc(`${d.features.length}: ${d.features.join(', ')}`)),
     ...(d.dropped.length ? [item('dropped', esc(d.dropped.join(', ')))] : []),
+    ...(d.dates?.length ? [item('dates', esc(d.dates.map((x) => `${x.column} read as ${x.read}`).join('; ')))] : []),
   ];
 }
 

@@ -1,0 +1,186 @@
+/**
+ * The scale bench (issue 14): seeded files of 100,000 and 1,000,000 rows (bench/scale-data.ts),
+ * written to a temporary folder and removed afterwards, and one table of figures with their goals.
+ *
+ * Each figure is measured in a child process (bench/cases/scale-load.ts and the like), so its
+ * peak RSS is that of the step alone. The machine is shared: MB/s is given by wall time and by
+ * CPU time (user + system of the child), and beside the parser's own pass on the same file.
+ *
+ * To add rows (an audit, a forest fit, another input format), append a producer to
+ * SCALE_ROWS: it gets the files and returns table rows; the columns are fixed below.
+ */
+import { execFileSync } from 'node:child_process';
+import { mkdtempSync, rmSync, statSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { type BenchCase, fixed } from '../case.js';
+import { scaleColumns, writeScaleCsv, type ScaleKind } from '../scale-data.js';
+
+export interface ScaleFile {
+  readonly kind: ScaleKind;
+  readonly rows: number;
+  readonly format: 'csv';
+  readonly path: string;
+  readonly bytes: number;
+}
+
+export interface ScaleContext {
+  readonly files: readonly ScaleFile[];
+  readonly log: (line: string) => void;
+}
+
+/** One row of the table: what was measured, on which file, the figure and its goal. */
+export interface ScaleRow {
+  readonly measure: string;
+  readonly file: ScaleFile;
+  /** the figure as text, with its unit */
+  readonly figure: string;
+  readonly peakRssMb?: number;
+  /** the goal as text, '' when there is none */
+  readonly goal: string;
+  /** whether the goal is met: "yes", "no", or a qualified answer; undefined when there is no goal */
+  readonly met?: string;
+}
+
+export type ScaleRowProducer = (ctx: ScaleContext) => Promise<ScaleRow[]> | ScaleRow[];
+
+export const SCALE_SIZES = [100_000, 1_000_000] as const;
+export const SCALE_SEED = 20_140;
+
+const here = fileURLToPath(new URL('.', import.meta.url));
+
+/** Runs a child script of this folder and parses the JSON line it prints. */
+export function child<T>(script: string, args: readonly string[]): T {
+  const out = execFileSync(process.execPath, [join(here, script), ...args], { encoding: 'utf8', maxBuffer: 1 << 20 });
+  return JSON.parse(out.trim().split('\n').pop()!) as T;
+}
+
+interface LoadFigures {
+  rows: number;
+  wallMs: number;
+  cpuMs: number;
+  peakRssMb: number;
+  columnMb: number;
+}
+
+const MB = 1e6;
+/** Load speed goals of issue 14 (MB/s, by wall time on an idle machine). */
+const LOAD_GOAL: Record<ScaleKind, number> = { numeric: 60, 'half-categorical': 30 };
+
+/** CSV load: foldwise's loader and, as the ceiling, papaparse's own pass (no typing). */
+export const csvLoadRows: ScaleRowProducer = ({ files, log }) => {
+  const rows: ScaleRow[] = [];
+  for (const file of files) {
+    log(`load ${file.kind} ${file.rows} rows (${fixed(file.bytes / MB, 1)} MB)`);
+    const ours = child<LoadFigures>('scale-load.js', [file.path, 'foldwise']);
+    const parser = child<LoadFigures>('scale-load.js', [file.path, 'papaparse']);
+    if (ours.rows !== file.rows) throw new Error(`scale: loaded ${ours.rows} rows of ${file.path}, expected ${file.rows}`);
+    const mb = file.bytes / MB;
+    const wallRate = mb / (ours.wallMs / 1000);
+    const cpuRate = mb / (ours.cpuMs / 1000);
+    const bound = 2 * ours.columnMb * (2 ** 20 / MB) + 100;
+    rows.push({
+      measure: 'CSV load speed',
+      file,
+      figure: `${fixed(wallRate, 1)} MB/s wall (${fixed(ours.wallMs / 1000, 2)} s), ${fixed(cpuRate, 1)} MB/s CPU; papaparse alone ${fixed(mb / (parser.wallMs / 1000), 1)} wall, ${fixed(mb / (parser.cpuMs / 1000), 1)} CPU (ours/papaparse CPU time ${fixed(ours.cpuMs / parser.cpuMs, 2)})`,
+      peakRssMb: ours.peakRssMb,
+      goal: `>= ${LOAD_GOAL[file.kind]} MB/s`,
+      met: wallRate >= LOAD_GOAL[file.kind] ? 'yes' : cpuRate >= LOAD_GOAL[file.kind] ? 'by CPU time only' : 'no',
+    });
+    rows.push({
+      measure: 'CSV load peak RSS',
+      file,
+      figure: `${fixed(ours.peakRssMb, 0)} MB (loaded columns ${fixed(ours.columnMb * 2 ** 20 / MB, 0)} MB)`,
+      peakRssMb: ours.peakRssMb,
+      goal: `<= 2 x columns + 100 MB = ${fixed(bound, 0)} MB`,
+      met: ours.peakRssMb * (2 ** 20 / MB) <= bound ? 'yes' : 'no',
+    });
+  }
+  return rows;
+};
+
+/**
+ * One long quoted field (issue 26): a file holding a 12 MB and one holding a 50 MB field, each
+ * loaded in a child process. Linear time makes the ratio of the times about 50/12 = 4.2; the
+ * quadratic parse the issue measured took 1.4 s and 16.5 s (ratio 11.8).
+ */
+export const longFieldRows: ScaleRowProducer = ({ files, log }) => {
+  const dir = dirname(files[0].path);
+  const seconds: number[] = [];
+  const cpu: number[] = [];
+  const sized: ScaleFile[] = [];
+  for (const mb of [12, 50]) {
+    const path = join(dir, `field-${mb}mb.csv`);
+    const field = 'w'.repeat(mb * MB);
+    writeFileSync(path, `note,y\n"${field}",1\nshort,0\n`);
+    log(`load one ${mb} MB field`);
+    const r = child<LoadFigures>('scale-load.js', [path, 'foldwise']);
+    seconds.push(r.wallMs / 1000);
+    cpu.push(r.cpuMs / 1000);
+    sized.push({ kind: 'numeric', rows: 2, format: 'csv', path, bytes: statSync(path).size });
+    rmSync(path, { force: true });
+  }
+  const ratio = cpu[1] / cpu[0];
+  return [
+    {
+      measure: 'one long quoted field',
+      file: sized[1],
+      figure: `12 MB: ${fixed(seconds[0], 2)} s wall, ${fixed(cpu[0], 2)} s CPU; 50 MB: ${fixed(seconds[1], 2)} s wall, ${fixed(cpu[1], 2)} s CPU; CPU ratio ${fixed(ratio, 1)}`,
+      goal: 'linear: CPU ratio 50 MB / 12 MB <= 6 (4.2 when linear)',
+      met: ratio <= 6 ? 'yes' : 'no',
+    },
+  ];
+};
+
+/** Producers of the table's rows, in order. Add a line here for a new measure or format. */
+export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows];
+
+async function run({ log }: { log: (line: string) => void }) {
+  const dir = mkdtempSync(join(tmpdir(), 'foldwise-scale-'));
+  try {
+    const files: ScaleFile[] = [];
+    for (const rows of SCALE_SIZES) {
+      for (const kind of ['numeric', 'half-categorical'] as const) {
+        const path = join(dir, `${kind}-${rows}.csv`);
+        log(`writing ${path}`);
+        const bytes = await writeScaleCsv(path, kind, rows, SCALE_SEED);
+        files.push({ kind, rows, format: 'csv', path, bytes });
+      }
+    }
+    const out: ScaleRow[] = [];
+    for (const producer of SCALE_ROWS) out.push(...(await producer({ files, log })));
+    return [
+      {
+        title: 'Scale: data at 10^5 and 10^6 rows',
+        columns: ['measure', 'format', 'data', 'rows', 'MB', 'figure', 'peak RSS MB', 'goal', 'met'],
+        rows: out.map((r) => [
+          r.measure,
+          r.file.format,
+          r.file.rows === 2 ? 'one long field' : `${r.file.kind} (${scaleColumns(r.file.kind).length} columns)`,
+          r.file.rows,
+          fixed(r.file.bytes / MB, 1),
+          r.figure,
+          r.peakRssMb === undefined ? '' : fixed(r.peakRssMb, 0),
+          r.goal,
+          r.met ?? '',
+        ]),
+        notes: [
+          `Seeded files (seed ${SCALE_SEED}) from bench/scale-data.ts in a temporary folder; each figure from a child process.`,
+          'Goals are by wall time on an idle machine; on a shared machine compare the CPU figure and the ratio to papaparse on the same file.',
+          'Parquet and Arrow rows come with those readers (issue 14).',
+        ],
+      },
+    ];
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+export const cases: BenchCase[] = [
+  {
+    name: 'scale',
+    doc: 'data at 10^5 and 10^6 rows: CSV load MB/s and peak RSS per format, with the goals of issue 14',
+    run,
+  },
+];
