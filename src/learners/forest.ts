@@ -27,6 +27,7 @@ import { partsFromJSON } from './cart/flat-forest.js';
 import { type CartModel, isCartModel, makeModel } from './cart/model.js';
 import { numberOption, readOptions, stringOption } from './cart/options.js';
 import { parseSampleSize } from './cart/sample-size.js';
+import { REBALANCE_SPEC } from './class-balance.js';
 
 export type { CartModel } from './cart/model.js';
 export { isCartModel };
@@ -90,6 +91,7 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
       'bootstrap draws per tree: a fraction F (0 < F <= 1) of the training rows, rounded, or a ' +
       'count N >= 2 (capped at the row count); 1 = as many draws as rows',
   },
+  REBALANCE_SPEC,
 ];
 
 export const forest: Learner = {
@@ -115,6 +117,7 @@ export const forest: Learner = {
           bins: numberOption(o, 'bins'),
           bootstrap: true,
           sample: stringOption(o, 'sample'),
+          rebalance: stringOption(o, 'rebalance'),
         },
         ctx,
       ),

@@ -5,7 +5,8 @@
  * c = 0..K-1 present in the training rows and z a standardised row, the class probabilities are
  *   p_c(z) = exp(b_c + w_c . z) / sum_k exp(b_k + w_k . z)
  * and the fitted (b, w) minimise the penalised negative log-likelihood
- *   f = - sum_i log p_{y_i}(z_i) + (l2 / 2) * sum_c |w_c|^2      (intercepts not penalised).
+ *   f = - sum_i v_i log p_{y_i}(z_i) + (l2 / 2) * sum_c |w_c|^2      (intercepts not penalised),
+ * v_i = 1, or with rebalance=equal the class weight of row i (class-balance.ts).
  * Two parameterisations of the same family:
  * - two classes: the reference form, b_0 = 0 and w_0 = 0 fixed (ordinary binary logistic
  *   regression, p_1 = 1 / (1 + exp(-(b_1 + w_1 . z))));
@@ -30,7 +31,9 @@
 import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { checkFinite, fitStandardiser, standardise, type Standardiser } from './external/standardise.js';
-import type { Learner, Matrix, Model } from './types.js';
+import { numberOption, readOptions, stringOption } from './cart/options.js';
+import { REBALANCE_SPEC, classWeights } from './class-balance.js';
+import type { Learner, Matrix, Model, ParamSpec } from './types.js';
 
 export type LogisticForm = 'reference' | 'symmetric';
 
@@ -59,7 +62,18 @@ interface LogisticJSON {
  * the K modelled classes (0..K-1). Reference form: K = 2 and only class 1 is free.
  * Parameters are theta[c * P + u], u = 0 the intercept; `D = F * P` of them are free.
  */
-export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array, K: number, l2: number, form: LogisticForm, maxIter: number): {
+export function fitSoftmax(
+  Z: Float64Array,
+  n: number,
+  q: number,
+  y: Int32Array,
+  K: number,
+  l2: number,
+  form: LogisticForm,
+  maxIter: number,
+  /** per-row weights of the log-likelihood terms (null: all 1) */
+  rowWeight: Float64Array | null = null,
+): {
   theta: Float64Array;
   iterations: number;
   objective: number;
@@ -93,7 +107,7 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
       }
       let tot = 0;
       for (let c = 0; c < K; c++) tot += Math.exp(eta[c] - mx);
-      f -= eta[y[i]] - mx - Math.log(tot);
+      f -= (rowWeight ? rowWeight[i] : 1) * (eta[y[i]] - mx - Math.log(tot));
       if (keep) for (let c = 0; c < K; c++) prob[i * K + c] = Math.exp(eta[c] - mx) / tot;
     }
     let pen = 0;
@@ -128,7 +142,8 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
         rowScratch[i * F + a] = s;
         mean += prob[pi + free[a]] * s;
       }
-      for (let a = 0; a < F; a++) rowScratch[i * F + a] = prob[pi + free[a]] * (rowScratch[i * F + a] - mean);
+      const wi = rowWeight ? rowWeight[i] : 1;
+      for (let a = 0; a < F; a++) rowScratch[i * F + a] = wi * prob[pi + free[a]] * (rowScratch[i * F + a] - mean);
     }
     backward(out, v);
   };
@@ -159,10 +174,11 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
     diag.fill(0);
     for (let i = 0; i < n; i++) {
       const zi = i * q;
+      const wi = rowWeight ? rowWeight[i] : 1;
       for (let a = 0; a < F; a++) {
         const pc = prob[i * K + free[a]];
-        rowScratch[i * F + a] = pc - (y[i] === free[a] ? 1 : 0);
-        const h = pc * (1 - pc);
+        rowScratch[i * F + a] = wi * (pc - (y[i] === free[a] ? 1 : 0));
+        const h = wi * pc * (1 - pc);
         if (h === 0) continue;
         const o = a * P;
         diag[o] += h;
@@ -248,7 +264,15 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
 }
 
 /** Fits on a raw feature matrix; exported for the checks. `form` defaults by class count. */
-export function fitLogistic(X: Matrix, codes: Int32Array, classes: number, l2: number, maxIter: number, form?: LogisticForm): LogisticFit & { std: Standardiser } {
+export function fitLogistic(
+  X: Matrix,
+  codes: Int32Array,
+  classes: number,
+  l2: number,
+  maxIter: number,
+  form?: LogisticForm,
+  rebalance = 'none',
+): LogisticFit & { std: Standardiser } {
   if (X.rows === 0) throw new InputError('logistic: no training rows');
   checkFinite('logistic', X);
   const counts = new Int32Array(classes);
@@ -264,7 +288,9 @@ export function fitLogistic(X: Matrix, codes: Int32Array, classes: number, l2: n
   const Z = standardise(X, std);
   const y = Int32Array.from(codes, (c) => index[c]);
   const chosen = form ?? (present.length === 2 ? 'reference' : 'symmetric');
-  const r = fitSoftmax(Z, X.rows, q, y, present.length, l2, chosen, maxIter);
+  const cw = classWeights('logistic', rebalance, codes, classes);
+  const rowWeight = cw ? Float64Array.from(codes, (c) => cw[c]) : null;
+  const r = fitSoftmax(Z, X.rows, q, y, present.length, l2, chosen, maxIter, rowWeight);
   return { ...r, present, std };
 }
 
@@ -303,18 +329,22 @@ function model(json: LogisticJSON): Model {
   };
 }
 
+export const LOGISTIC_PARAMS: readonly ParamSpec[] = [
+  { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
+  { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps (each solved by conjugate gradients)' },
+  REBALANCE_SPEC,
+];
+
 export const logistic: Learner = {
   name: 'logistic',
   tasks: ['classification'],
-  params: [
-    { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
-    { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps (each solved by conjugate gradients)' },
-  ],
+  params: LOGISTIC_PARAMS,
   needsScaling: false,
   doc: 'logistic regression (binary, or multinomial for 3+ classes) with an L2 penalty, by Newton-CG steps',
   fit(X, y, params) {
     if (y.task !== 'classification') throw new InputError('logistic: does classification only');
-    const r = fitLogistic(X, y.codes, y.classes.length, Number(params.l2), Number(params.iterations));
+    const o = readOptions('logistic', LOGISTIC_PARAMS, params);
+    const r = fitLogistic(X, y.codes, y.classes.length, numberOption(o, 'l2'), numberOption(o, 'iterations'), undefined, stringOption(o, 'rebalance'));
     return model({
       learner: 'logistic',
       cols: X.cols,

@@ -330,7 +330,7 @@ describe('forest: options', () => {
 
   it('the spec list declares the documented defaults', () => {
     const byName = new Map(forest.params.map((s) => [s.name, s]));
-    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins', 'sample']);
+    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins', 'sample', 'rebalance']);
     expect(byName.get('trees')?.default).toBe(100);
     expect(byName.get('depth')?.default).toBe(32);
     expect(byName.get('minLeaf')?.default).toBe(1);

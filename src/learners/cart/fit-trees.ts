@@ -22,6 +22,7 @@ import type { FitContext, Matrix, Target } from '../types.js';
 import { binMatrix } from './bins.js';
 import { resolveFeatureCount } from './feature-count.js';
 import { resolveSampleSize } from './sample-size.js';
+import { classWeights } from '../class-balance.js';
 import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
 import { type Criterion, type GrowTarget, TreeGrower } from './grow.js';
 import { NodeStore } from './node-store.js';
@@ -37,6 +38,8 @@ export interface CartSettings {
   readonly bootstrap: boolean;
   /** canonical `sample` value (see sample-size.ts); forest only */
   readonly sample?: string;
+  /** `rebalance` (see ../class-balance.ts); none when absent */
+  readonly rebalance?: string;
 }
 
 /** Checks X and y agree and are usable; returns the classification class count (1 for regression). */
@@ -84,6 +87,8 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   }
   const grower = new TreeGrower(binned, target, { maxDepth: s.depth, minLeaf: s.minLeaf, mtry, criterion });
 
+  const rebalance = s.rebalance ?? 'none';
+  const cw = classWeights(kind, rebalance, y.task === 'classification' ? y.codes : null, classCount);
   const draws = s.bootstrap ? resolveSampleSize(s.sample ?? '1', n) : n;
   const store = new NodeStore(p);
   const weights = new Float64Array(n);
@@ -101,6 +106,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
       weights.fill(1);
       for (let i = 0; i < n; i++) rows[i] = i;
     }
+    if (cw && y.task === 'classification') for (let k = 0; k < m; k++) weights[rows[k]] *= cw[y.codes[rows[k]]];
     grower.grow(rows.subarray(0, m), weights, rng, store);
     if (t === 0 && s.trees > 1) store.expect(s.trees - 1);
   }
@@ -114,6 +120,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     ['criterion', criterion],
     ['bins', s.bins],
   ]);
+  if (rebalance !== 'none') settings.set('rebalance', rebalance);
   if (s.bootstrap) {
     settings.set('sample', s.sample ?? '1');
     settings.set('drawsPerTree', draws);
