@@ -4,7 +4,7 @@
  * regression one constant from the training targets, chosen by `constant`:
  *   mean    the training mean: the constant with the least squared error (rmse, r2)
  *   median  the training median (the mean of the two middle values for an even count): the
- *           constant with the least absolute error (mae, medae). Any value between the two middle
+ *           constant with the least absolute error (mae, and the median absolute error). Any value between the two middle
  *           values minimises the summed absolute error; the midpoint is the usual choice.
  * (Both are textbook facts: the mean minimises sum (y - c)^2, a median minimises sum |y - c|;
  * e.g. Hastie, Tibshirani & Friedman, ESL, 2nd ed., 2.4 and 10.6, free PDF.)
@@ -13,6 +13,9 @@
  * the metric's own. It ignores the features.
  */
 import { InputError } from '../errors.js';
+import { METRICS, type MetricName } from '../metrics/index.js';
+import { mae } from '../metrics/mae.js';
+import * as medianAbsolute from '../metrics/median-absolute-error.js';
 import { readOptions, stringOption } from './cart/options.js';
 import type { Learner, Matrix, Model, ParamSpec } from './types.js';
 
@@ -35,12 +38,16 @@ export const BASELINE_PARAMS: readonly ParamSpec[] = [
   },
 ];
 
-/** Metrics whose best constant prediction is the median (absolute-error metrics). */
-const MEDIAN_BEST = new Set(['mae', 'median_absolute_error', 'medae']);
+/**
+ * Metrics whose best constant prediction is the median: the absolute-error metrics, known by
+ * their functions (so a metric's name can change without this list).
+ */
+const MEDIAN_BEST: ReadonlySet<unknown> = new Set<unknown>([mae, ...Object.values(medianAbsolute)]);
 
-/** The regression constant that scores best on a metric: median for absolute errors, else mean. */
+/** The regression constant that scores best on a metric (by name): median for absolute errors, else mean. */
 export function baselineConstantFor(metric: string): 'mean' | 'median' {
-  return MEDIAN_BEST.has(metric) ? 'median' : 'mean';
+  const m = METRICS.get(metric as MetricName);
+  return m && MEDIAN_BEST.has(m.fn) ? 'median' : 'mean';
 }
 
 function median(values: Float64Array): number {
