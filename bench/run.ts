@@ -8,6 +8,7 @@ import type { BenchCase, BenchTable } from './case.js';
 const CASES: readonly BenchCase[] = [
   ...(await import('./cases/forest.js')).cases,
   ...(await import('./cases/boost.js')).cases,
+  ...(await import('./cases/logistic.js')).cases,
   ...(await import('./cases/knn.js')).cases,
   ...(await import('./cases/eval.js')).cases,
   ...(await import('./cases/honesty.js')).cases,

@@ -6,6 +6,10 @@
  *   2,000 x 10, accuracy within 0.02.
  * forest-large: 100 trees on 20,000 x 20, classification and regression, ours alone.
  *   Goal: a fit in at most 3 s on one core.
+ * forest-million (issue 14): 100 trees on 1,000,000 x 20, classification (seed 5), hold-out
+ *   accuracy on 200,000 fresh rows (seed 6); default options and sample=0.1, in one run.
+ *   Goals: default <= 150 s CPU; sample=0.1 <= 30 s CPU at accuracy within 0.01 of the default.
+ *   Slow (several minutes): run it alone, `npm run bench -- forest-million --runs 1`.
  */
 import { RandomForestClassifier } from 'ml-random-forest';
 import type { Matrix, Model, Target } from '../../src/learners/types.js';
@@ -150,4 +154,34 @@ const large: BenchCase = {
   },
 };
 
-export const cases: readonly BenchCase[] = [versusReference, large];
+const million: BenchCase = {
+  name: 'forest-million',
+  doc: `forest, ${TREES} trees on 1,000,000 x 20 classification: default vs sample=0.1 (slow)`,
+  run({ log }) {
+    const train = syntheticProblem('classification', 1_000_000, 20, 5);
+    const test = syntheticProblem('classification', 200_000, 20, 6);
+    const rows: (string | number)[][] = [];
+    const results = new Map<string, { cpu: number; acc: number }>();
+    for (const [name, params] of [
+      ['default', {}],
+      ['sample=0.1', { sample: '0.1' }],
+    ] as const) {
+      log(`${name}: one fit`);
+      const fit = timeOnce(() => fitOurs(train.X, train.y, params));
+      const acc = accuracy(fit.value.predict(test.X), test.y);
+      results.set(name, { cpu: fit.time.cpuMs / 1000, acc });
+      rows.push([name, fixed(fit.time.wallMs / 1000, 1), fixed(fit.time.cpuMs / 1000, 1), fixed(acc, 4), fixed(peakRssMb(), 0)]);
+    }
+    const d = results.get('default');
+    const s10 = results.get('sample=0.1');
+    const notes = ['one fit each, same rows and seed; CPU = user + system of this process (the fit runs on one thread).'];
+    if (d && s10) {
+      notes.push(`goal default <= 150 s CPU: ${d.cpu <= 150 ? 'met' : 'NOT met'} (${fixed(d.cpu, 1)} s)`);
+      notes.push(`goal sample=0.1 <= 30 s CPU: ${s10.cpu <= 30 ? 'met' : 'NOT met'} (${fixed(s10.cpu, 1)} s); ratio to default ${fixed(s10.cpu / d.cpu, 3)}`);
+      notes.push(`goal accuracy within 0.01 of the default: ${s10.acc >= d.acc - 0.01 ? 'met' : 'NOT met'} (sample=0.1 - default = ${fixed(s10.acc - d.acc, 4)})`);
+    }
+    return [{ title: `forest, ${TREES} trees, 1,000,000 x 20 classification`, columns: ['options', 'fit wall s', 'fit cpu s', 'hold-out accuracy (200,000)', 'peak RSS MB'], rows, notes }];
+  },
+};
+
+export const cases: readonly BenchCase[] = [versusReference, large, million];

@@ -3,7 +3,8 @@
  * Machine Learning 45:5-32, free: https://www.stat.berkeley.edu/~breiman/randomforest2001.pdf).
  *
  * Each of `trees` CART trees is grown on its own bootstrap sample of the training rows (n draws
- * with replacement), choosing every split among a fresh random draw of features (`features`).
+ * with replacement by default; `sample` sets a fraction or a count of draws, see
+ * cart/sample-size.ts), choosing every split among a fresh random draw of features (`features`).
  * Classification: probability of class k = mean over trees of the leaf's share of class k;
  * the predicted class is the most probable one (lowest code on a tie). Regression: the mean of
  * the trees' leaf means. Impurity: Gini or entropy for classes, variance for values.
@@ -25,6 +26,8 @@ import { fitCart } from './cart/fit-trees.js';
 import { partsFromJSON } from './cart/flat-forest.js';
 import { type CartModel, isCartModel, makeModel } from './cart/model.js';
 import { numberOption, readOptions, stringOption } from './cart/options.js';
+import { parseSampleSize } from './cart/sample-size.js';
+import { REBALANCE_SPEC } from './class-balance.js';
 
 export type { CartModel } from './cart/model.js';
 export { isCartModel };
@@ -79,6 +82,16 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
     simpler: 'lower',
     doc: `most quantile bins per feature, fixed on the training rows (2..${MAX_BINS})`,
   },
+  {
+    name: 'sample',
+    kind: 'text',
+    default: '1',
+    parse: parseSampleSize,
+    doc:
+      'bootstrap draws per tree: a fraction F (0 < F <= 1) of the training rows, rounded, or a ' +
+      'count N >= 2 (capped at the row count); 1 = as many draws as rows',
+  },
+  REBALANCE_SPEC,
 ];
 
 export const forest: Learner = {
@@ -103,6 +116,8 @@ export const forest: Learner = {
           criterion: crit === 'entropy' ? 'entropy' : 'gini',
           bins: numberOption(o, 'bins'),
           bootstrap: true,
+          sample: stringOption(o, 'sample'),
+          rebalance: stringOption(o, 'rebalance'),
         },
         ctx,
       ),

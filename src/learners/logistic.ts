@@ -5,7 +5,8 @@
  * c = 0..K-1 present in the training rows and z a standardised row, the class probabilities are
  *   p_c(z) = exp(b_c + w_c . z) / sum_k exp(b_k + w_k . z)
  * and the fitted (b, w) minimise the penalised negative log-likelihood
- *   f = - sum_i log p_{y_i}(z_i) + (l2 / 2) * sum_c |w_c|^2      (intercepts not penalised).
+ *   f = - sum_i v_i log p_{y_i}(z_i) + (l2 / 2) * sum_c |w_c|^2      (intercepts not penalised),
+ * v_i = 1, or with rebalance=equal the class weight of row i (class-balance.ts).
  * Two parameterisations of the same family:
  * - two classes: the reference form, b_0 = 0 and w_0 = 0 fixed (ordinary binary logistic
  *   regression, p_1 = 1 / (1 + exp(-(b_1 + w_1 . z))));
@@ -13,11 +14,16 @@
  *   penalty the same for every class (the intercepts are centred after the fit).
  * On two classes the symmetric form with penalty 2 * l2 has the optimum w_1 = -w_0 = w/2 of the
  * reference form with l2, so both give the same probabilities (checked in the tests).
- * f is convex; it is minimised by Newton's method with a backtracking (Armijo) line search, the
- * Hessian sum_i (diag(p) - p p') (x) [1 z][1 z]' + l2 * I_w factored by Cholesky with a tiny
- * diagonal shift when it is singular (Nocedal & Wright, Numerical Optimization, 2nd ed., 3.1 and
- * 3.4; Hastie, Tibshirani & Friedman, ESL, 4.4, free PDF). Iteration stops after the full Newton step
- * taken once the decrement g'H^-1 g / 2 is below 1e-12 * (1 + f), or after `iterations` steps.
+ * f is convex; it is minimised by truncated Newton steps (Newton-CG: Nocedal & Wright, Numerical
+ * Optimization, 2nd ed., 7.1 and algorithm 5.3; Hastie, Tibshirani & Friedman, ESL, 4.4, free PDF
+ * for the gradient and Hessian): the Newton system H d = g with
+ * H = sum_i (diag(p) - p p') (x) [1 z][1 z]' + l2 * I_w is solved by conjugate gradients that use H
+ * only through products H v (two passes over the rows, no D x D matrix), preconditioned by diag(H),
+ * to the relative residual min(0.5, sqrt |g|) (so the steps turn quadratic near the optimum), then
+ * a backtracking (Armijo) line search. The cost of a step grows with rows x classes x columns
+ * times the CG iterations, not with the square of the columns, and the memory is that of the data.
+ * Iteration stops after the full Newton step taken once the decrement g'd / 2 (d the CG solution)
+ * is below 1e-12 * (1 + f), or after `iterations` Newton steps.
  * Classes absent from the training rows get probability 0. With l2 = 0 on separable data the
  * coefficients grow without bound until `iterations` runs out (as the maximum-likelihood
  * estimate does not exist); a positive l2 always has a unique optimum.
@@ -25,7 +31,9 @@
 import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { checkFinite, fitStandardiser, standardise, type Standardiser } from './external/standardise.js';
-import type { Learner, Matrix, Model } from './types.js';
+import { numberOption, readOptions, stringOption } from './cart/options.js';
+import { REBALANCE_SPEC, classWeights } from './class-balance.js';
+import type { Learner, Matrix, Model, ParamSpec } from './types.js';
 
 export type LogisticForm = 'reference' | 'symmetric';
 
@@ -49,51 +57,23 @@ interface LogisticJSON {
   readonly theta: number[];
 }
 
-/** Cholesky solve of (H + shift I) d = rhs, shifting more until H + shift I is positive definite. */
-function solveSPD(H: Float64Array, D: number, rhs: Float64Array): Float64Array {
-  let diag = 0;
-  for (let i = 0; i < D; i++) diag = Math.max(diag, H[i * D + i]);
-  let shift = 0;
-  for (let attempt = 0; attempt < 30; attempt++) {
-    const L = new Float64Array(D * D);
-    let ok = true;
-    for (let i = 0; i < D && ok; i++) {
-      for (let j = 0; j <= i; j++) {
-        let s = H[i * D + j] + (i === j ? shift : 0);
-        for (let k = 0; k < j; k++) s -= L[i * D + k] * L[j * D + k];
-        if (i === j) {
-          if (!(s > 1e-14 * Math.max(diag, 1e-300))) {
-            ok = false;
-            break;
-          }
-          L[i * D + i] = Math.sqrt(s);
-        } else L[i * D + j] = s / L[j * D + j];
-      }
-    }
-    if (ok) {
-      const z = new Float64Array(D);
-      for (let i = 0; i < D; i++) {
-        let s = rhs[i];
-        for (let k = 0; k < i; k++) s -= L[i * D + k] * z[k];
-        z[i] = s / L[i * D + i];
-      }
-      for (let i = D - 1; i >= 0; i--) {
-        let s = z[i];
-        for (let k = i + 1; k < D; k++) s -= L[k * D + i] * z[k];
-        z[i] = s / L[i * D + i];
-      }
-      return z;
-    }
-    shift = shift === 0 ? 1e-10 * Math.max(diag, 1e-300) : shift * 10;
-  }
-  throw new InputError('logistic: Newton system could not be solved (non-finite values?)');
-}
-
 /**
  * Minimises f over the free classes. Z is row-major n x q standardised, y holds indices into
  * the K modelled classes (0..K-1). Reference form: K = 2 and only class 1 is free.
+ * Parameters are theta[c * P + u], u = 0 the intercept; `D = F * P` of them are free.
  */
-export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array, K: number, l2: number, form: LogisticForm, maxIter: number): {
+export function fitSoftmax(
+  Z: Float64Array,
+  n: number,
+  q: number,
+  y: Int32Array,
+  K: number,
+  l2: number,
+  form: LogisticForm,
+  maxIter: number,
+  /** per-row weights of the log-likelihood terms (null: all 1) */
+  rowWeight: Float64Array | null = null,
+): {
   theta: Float64Array;
   iterations: number;
   objective: number;
@@ -101,86 +81,152 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
 } {
   if (form === 'reference' && K !== 2) throw new InputError('logistic: the reference form needs exactly 2 classes');
   const P = q + 1;
-  const free = form === 'reference' ? [1] : Array.from({ length: K }, (_, c) => c);
+  const free = Int32Array.from(form === 'reference' ? [1] : Array.from({ length: K }, (_, c) => c));
   const F = free.length;
   const D = F * P;
   // theta over all K classes (fixed ones stay 0)
   let theta = new Float64Array(K * P);
+  /** per row and class: probabilities at the current theta (n x K) */
+  const prob = new Float64Array(n * K);
+  /** per row and free class: a scratch of linear scores, then of residuals (n x F) */
+  const rowScratch = new Float64Array(n * F);
   const eta = new Float64Array(K);
-  const prob = new Float64Array(K);
 
-  const rowProb = (th: Float64Array, i: number): number => {
-    // returns log p_{y_i}; fills prob
-    let mx = -Infinity;
-    for (let c = 0; c < K; c++) {
-      let s = th[c * P];
-      for (let k = 0; k < q; k++) s += th[c * P + 1 + k] * Z[i * q + k];
-      eta[c] = s;
-      if (s > mx) mx = s;
-    }
-    let tot = 0;
-    for (let c = 0; c < K; c++) {
-      prob[c] = Math.exp(eta[c] - mx);
-      tot += prob[c];
-    }
-    for (let c = 0; c < K; c++) prob[c] /= tot;
-    return eta[y[i]] - mx - Math.log(tot);
-  };
-  const objective = (th: Float64Array): number => {
+  /** eta_i = Theta z_i for every row (linear scores, all K classes); returns f and fills `prob` when asked. */
+  const objective = (th: Float64Array, keep: boolean): number => {
     let f = 0;
-    for (let i = 0; i < n; i++) f -= rowProb(th, i);
+    for (let i = 0; i < n; i++) {
+      const zi = i * q;
+      let mx = -Infinity;
+      for (let c = 0; c < K; c++) {
+        const tc = c * P;
+        let s = th[tc];
+        for (let k = 0; k < q; k++) s += th[tc + 1 + k] * Z[zi + k];
+        eta[c] = s;
+        if (s > mx) mx = s;
+      }
+      let tot = 0;
+      for (let c = 0; c < K; c++) tot += Math.exp(eta[c] - mx);
+      f -= (rowWeight ? rowWeight[i] : 1) * (eta[y[i]] - mx - Math.log(tot));
+      if (keep) for (let c = 0; c < K; c++) prob[i * K + c] = Math.exp(eta[c] - mx) / tot;
+    }
     let pen = 0;
     for (const c of free) for (let k = 1; k < P; k++) pen += th[c * P + k] * th[c * P + k];
     return f + 0.5 * l2 * pen;
   };
+  /** out (D) = sum_i R_i (x) [1 z_i] over the free classes, R = rowScratch (n x F), plus l2 * v on the weights */
+  const backward = (out: Float64Array, v: Float64Array): void => {
+    out.fill(0);
+    for (let i = 0; i < n; i++) {
+      const zi = i * q;
+      for (let a = 0; a < F; a++) {
+        const r = rowScratch[i * F + a];
+        if (r === 0) continue;
+        const o = a * P;
+        out[o] += r;
+        for (let k = 0; k < q; k++) out[o + 1 + k] += r * Z[zi + k];
+      }
+    }
+    for (let a = 0; a < F; a++) for (let k = 1; k < P; k++) out[a * P + k] += l2 * v[a * P + k];
+  };
+  /** Hessian-vector product at the theta `prob` belongs to: out = H v (v over the free classes) */
+  const hessTimes = (v: Float64Array, out: Float64Array): void => {
+    for (let i = 0; i < n; i++) {
+      const zi = i * q;
+      const pi = i * K;
+      let mean = 0;
+      for (let a = 0; a < F; a++) {
+        const o = a * P;
+        let s = v[o];
+        for (let k = 0; k < q; k++) s += v[o + 1 + k] * Z[zi + k];
+        rowScratch[i * F + a] = s;
+        mean += prob[pi + free[a]] * s;
+      }
+      const wi = rowWeight ? rowWeight[i] : 1;
+      for (let a = 0; a < F; a++) rowScratch[i * F + a] = wi * prob[pi + free[a]] * (rowScratch[i * F + a] - mean);
+    }
+    backward(out, v);
+  };
 
-  let f = objective(theta);
+  const thetaFree = (th: Float64Array): Float64Array => {
+    const v = new Float64Array(D);
+    for (let a = 0; a < F; a++) v.set(th.subarray(free[a] * P, free[a] * P + P), a * P);
+    return v;
+  };
+  const dot = (a: Float64Array, b: Float64Array): number => {
+    let s = 0;
+    for (let r = 0; r < D; r++) s += a[r] * b[r];
+    return s;
+  };
+
+  let f = objective(theta, true);
   let iterations = 0;
   let converged = false;
   const g = new Float64Array(D);
-  const H = new Float64Array(D * D);
-  const x = new Float64Array(P);
+  const diag = new Float64Array(D);
+  const d = new Float64Array(D);
+  const r = new Float64Array(D);
+  const s = new Float64Array(D);
+  const u = new Float64Array(D);
+  const Hu = new Float64Array(D);
   while (iterations < maxIter) {
-    g.fill(0);
-    H.fill(0);
+    // gradient: residuals p - 1[y = c]; Jacobi preconditioner: diag H = sum_i p(1 - p) [1 z]^2 (+ l2)
+    diag.fill(0);
     for (let i = 0; i < n; i++) {
-      rowProb(theta, i);
-      x[0] = 1;
-      for (let k = 0; k < q; k++) x[k + 1] = Z[i * q + k];
+      const zi = i * q;
+      const wi = rowWeight ? rowWeight[i] : 1;
       for (let a = 0; a < F; a++) {
-        const ca = free[a];
-        const r = prob[ca] - (y[i] === ca ? 1 : 0);
-        for (let u = 0; u < P; u++) g[a * P + u] += r * x[u];
-        for (let b = 0; b <= a; b++) {
-          const cb = free[b];
-          const h = prob[ca] * ((ca === cb ? 1 : 0) - prob[cb]);
-          if (h === 0) continue;
-          for (let u = 0; u < P; u++) {
-            const hu = h * x[u];
-            const row = (a * P + u) * D + b * P;
-            for (let v = 0; v < P; v++) H[row + v] += hu * x[v];
-          }
-        }
+        const pc = prob[i * K + free[a]];
+        rowScratch[i * F + a] = wi * (pc - (y[i] === free[a] ? 1 : 0));
+        const h = wi * pc * (1 - pc);
+        if (h === 0) continue;
+        const o = a * P;
+        diag[o] += h;
+        for (let k = 0; k < q; k++) diag[o + 1 + k] += h * Z[zi + k] * Z[zi + k];
       }
     }
-    for (let a = 0; a < F; a++) {
-      const c = free[a];
-      for (let k = 1; k < P; k++) {
-        g[a * P + k] += l2 * theta[c * P + k];
-        H[(a * P + k) * D + a * P + k] += l2;
-      }
+    backward(g, thetaFree(theta));
+    for (let a = 0; a < F; a++) for (let k = 1; k < P; k++) diag[a * P + k] += l2;
+    let gg = 0;
+    for (let t = 0; t < D; t++) {
+      gg += g[t] * g[t];
+      if (!(diag[t] > 0)) diag[t] = 1;
     }
-    // fill the upper triangle from the lower one
-    for (let r = 0; r < D; r++) for (let s = r + 1; s < D; s++) H[r * D + s] = H[s * D + r];
-    const d = solveSPD(H, D, g); // step is -d
-    let dec = 0;
-    for (let r = 0; r < D; r++) dec += g[r] * d[r];
+    const gnorm = Math.sqrt(gg);
+    // preconditioned conjugate gradients on H d = g (Nocedal & Wright, algorithm 5.3), stopped at
+    // the relative residual min(0.5, sqrt |g|) of the truncated-Newton forcing sequence (7.3);
+    // a direction of (numerically) zero curvature ends it (H is singular in the symmetric form with l2 = 0)
+    const tol = Math.min(0.5, Math.sqrt(gnorm)) * gnorm;
+    d.fill(0);
+    r.set(g);
+    for (let t = 0; t < D; t++) s[t] = r[t] / diag[t];
+    u.set(s);
+    let rs = dot(r, s);
+    for (let cg = 0; cg < 2 * D + 10 && Math.sqrt(dot(r, r)) > tol; cg++) {
+      hessTimes(u, Hu);
+      const curv = dot(u, Hu);
+      if (!(curv > 1e-14 * dot(u, u) * Math.max(1, l2))) {
+        if (cg === 0) d.set(s); // no curvature along the first direction: a preconditioned gradient step
+        break;
+      }
+      const alpha = rs / curv;
+      for (let t = 0; t < D; t++) {
+        d[t] += alpha * u[t];
+        r[t] -= alpha * Hu[t];
+        s[t] = r[t] / diag[t];
+      }
+      const rsNext = dot(r, s);
+      const beta = rsNext / rs;
+      rs = rsNext;
+      for (let t = 0; t < D; t++) u[t] = s[t] + beta * u[t];
+    }
+    const dec = dot(g, d); // the Newton decrement g'H^-1 g (step is -d)
     iterations++;
     if (!(dec / 2 > 1e-12 * (1 + Math.abs(f)))) {
       // close to the optimum: one last full Newton step (quadratic convergence squares the error)
       const last = theta.slice();
-      for (let a = 0; a < F; a++) for (let u = 0; u < P; u++) last[free[a] * P + u] -= d[a * P + u];
-      const fl = objective(last);
+      for (let a = 0; a < F; a++) for (let t = 0; t < P; t++) last[free[a] * P + t] -= d[a * P + t];
+      const fl = objective(last, false);
       if (fl <= f) {
         theta = last;
         f = fl;
@@ -188,15 +234,15 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
       converged = true;
       break;
     }
-    let t = 1;
+    let step = 1;
     let next = theta;
     let fn = Infinity;
     for (let ls = 0; ls < 60; ls++) {
       next = theta.slice();
-      for (let a = 0; a < F; a++) for (let u = 0; u < P; u++) next[free[a] * P + u] -= t * d[a * P + u];
-      fn = objective(next);
-      if (fn <= f - 1e-4 * t * dec) break;
-      t /= 2;
+      for (let a = 0; a < F; a++) for (let t = 0; t < P; t++) next[free[a] * P + t] -= step * d[a * P + t];
+      fn = objective(next, true); // the accepted point's probabilities stay in `prob`
+      if (fn <= f - 1e-4 * step * dec) break;
+      step /= 2;
     }
     if (!(fn < f)) {
       converged = true; // no further decrease is possible in floating point
@@ -218,7 +264,15 @@ export function fitSoftmax(Z: Float64Array, n: number, q: number, y: Int32Array,
 }
 
 /** Fits on a raw feature matrix; exported for the checks. `form` defaults by class count. */
-export function fitLogistic(X: Matrix, codes: Int32Array, classes: number, l2: number, maxIter: number, form?: LogisticForm): LogisticFit & { std: Standardiser } {
+export function fitLogistic(
+  X: Matrix,
+  codes: Int32Array,
+  classes: number,
+  l2: number,
+  maxIter: number,
+  form?: LogisticForm,
+  rebalance = 'none',
+): LogisticFit & { std: Standardiser } {
   if (X.rows === 0) throw new InputError('logistic: no training rows');
   checkFinite('logistic', X);
   const counts = new Int32Array(classes);
@@ -234,7 +288,9 @@ export function fitLogistic(X: Matrix, codes: Int32Array, classes: number, l2: n
   const Z = standardise(X, std);
   const y = Int32Array.from(codes, (c) => index[c]);
   const chosen = form ?? (present.length === 2 ? 'reference' : 'symmetric');
-  const r = fitSoftmax(Z, X.rows, q, y, present.length, l2, chosen, maxIter);
+  const cw = classWeights('logistic', rebalance, codes, classes);
+  const rowWeight = cw ? Float64Array.from(codes, (c) => cw[c]) : null;
+  const r = fitSoftmax(Z, X.rows, q, y, present.length, l2, chosen, maxIter, rowWeight);
   return { ...r, present, std };
 }
 
@@ -273,18 +329,22 @@ function model(json: LogisticJSON): Model {
   };
 }
 
+export const LOGISTIC_PARAMS: readonly ParamSpec[] = [
+  { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
+  { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps (each solved by conjugate gradients)' },
+  REBALANCE_SPEC,
+];
+
 export const logistic: Learner = {
   name: 'logistic',
   tasks: ['classification'],
-  params: [
-    { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
-    { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps' },
-  ],
+  params: LOGISTIC_PARAMS,
   needsScaling: false,
-  doc: 'logistic regression (binary, or multinomial for 3+ classes) with an L2 penalty, by Newton steps',
+  doc: 'logistic regression (binary, or multinomial for 3+ classes) with an L2 penalty, by Newton-CG steps',
   fit(X, y, params) {
     if (y.task !== 'classification') throw new InputError('logistic: does classification only');
-    const r = fitLogistic(X, y.codes, y.classes.length, Number(params.l2), Number(params.iterations));
+    const o = readOptions('logistic', LOGISTIC_PARAMS, params);
+    const r = fitLogistic(X, y.codes, y.classes.length, numberOption(o, 'l2'), numberOption(o, 'iterations'), undefined, stringOption(o, 'rebalance'));
     return model({
       learner: 'logistic',
       cols: X.cols,

@@ -28,6 +28,7 @@ export const TREE_PARAMS: readonly ParamSpec[] = [
   { ...shared('minLeaf'), doc: 'minimum number of training rows in a leaf' } as ParamSpec,
   shared('criterion'),
   shared('bins'),
+  shared('rebalance'),
 ];
 
 export const tree: Learner = {
@@ -52,6 +53,7 @@ export const tree: Learner = {
           criterion: crit === 'entropy' ? 'entropy' : 'gini',
           bins: numberOption(o, 'bins'),
           bootstrap: false,
+          rebalance: stringOption(o, 'rebalance'),
         },
         ctx,
       ),

@@ -3,6 +3,7 @@
  * learners, all validated. It is a pure function of the table and the options, so a worker
  * thread or another shard that prepares the same run gets the same tasks.
  */
+import { baselineConstantFor } from '../learners/baseline.js';
 import { defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { quoted } from '../data/load-csv.js';
@@ -64,10 +65,12 @@ export function checkSeed(seed: number): number {
   return seed;
 }
 
-function resolveCandidates(problem: Problem, options: EvaluateOptions): Candidate[] {
+function resolveCandidates(problem: Problem, options: EvaluateOptions, headline: string): Candidate[] {
   const specs = options.learners?.length ? options.learners : defaultLearnerSpecs(problem.task);
   const list: Candidate[] = [];
-  const withBaseline = options.baseline !== false ? ['baseline', ...specs.filter((s) => s.trim() !== 'baseline')] : specs;
+  // the automatic baseline is the best constant for the headline metric (see learners/baseline.ts)
+  const auto = problem.task === 'regression' && baselineConstantFor(headline) === 'median' ? 'baseline:constant=median' : 'baseline';
+  const withBaseline = options.baseline !== false ? [auto, ...specs.filter((s) => s.trim() !== 'baseline')] : specs;
   for (const text of withBaseline) {
     const parsed = parseLearnerSpec(text);
     const learner = getLearner(parsed.name);
@@ -113,7 +116,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   const problem = defineProblem(table, options);
   const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
   const metrics = resolveMetrics(problem, options.metrics);
-  const candidates = resolveCandidates(problem, options);
+  const candidates = resolveCandidates(problem, options, metrics[0].name);
   const impute = options.impute ?? 'median';
   if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
   const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);

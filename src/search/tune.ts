@@ -31,7 +31,7 @@ import { quickSuspects } from '../audit/quick-audit.js';
 import { pairedStats } from '../compare/paired-stats.js';
 import type { ReportComparisons } from '../compare/types.js';
 import { COMPARISON_LEVEL } from '../compare/within-report.js';
-import { baseline } from '../learners/baseline.js';
+import { baseline, baselineConstantFor } from '../learners/baseline.js';
 import { performance } from 'node:perf_hooks';
 import { dataSection, defineProblem, type Problem, type ProblemOptions } from '../data/problem.js';
 import type { Table } from '../data/types.js';
@@ -248,7 +248,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     outerPreds.push(pred);
     outerActual.push(yTest);
     // the baseline on the same outer split, for the paired comparison of the tuned estimate
-    const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), {}, { rng: createRng(0), seed: 0 });
+    const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), { constant: baselineConstantFor(head.name) }, { rng: createRng(0), seed: 0 });
     const bTest = split.matrix('test', false);
     const bPred: Prediction = { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) };
     baselineScores.push(scoreOf(head, yTest, bPred));

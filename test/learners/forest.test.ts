@@ -12,6 +12,7 @@ import { RandomForestClassifier } from 'ml-random-forest';
 import { describe, expect, it } from 'vitest';
 import { InputError, UsageError } from '../../src/errors.js';
 import { parseFeatureCount, resolveFeatureCount } from '../../src/learners/cart/feature-count.js';
+import { parseSampleSize, resolveSampleSize } from '../../src/learners/cart/sample-size.js';
 import { forest, isCartModel } from '../../src/learners/forest.js';
 import type { Matrix, Target } from '../../src/learners/types.js';
 import { type Rng, createRng } from '../../src/run/rng.js';
@@ -329,11 +330,62 @@ describe('forest: options', () => {
 
   it('the spec list declares the documented defaults', () => {
     const byName = new Map(forest.params.map((s) => [s.name, s]));
-    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins']);
+    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins', 'sample', 'rebalance']);
     expect(byName.get('trees')?.default).toBe(100);
     expect(byName.get('depth')?.default).toBe(32);
     expect(byName.get('minLeaf')?.default).toBe(1);
     expect(byName.get('features')?.default).toBe('auto');
     expect(byName.get('criterion')?.default).toBe('gini');
+    expect(byName.get('sample')?.default).toBe('1');
+  });
+});
+
+describe('forest: bootstrap sample size (sample, issue 14)', () => {
+  const { rows, codes } = synthetic(71, 400);
+  const X = matrix(rows);
+  const y = classes(codes, 2);
+  const Q = matrix(synthetic(72, 100).rows);
+
+  it('reads fractions and counts, and refuses anything else naming the option and its limits', () => {
+    expect(parseSampleSize(' 0.10 ')).toBe('0.1');
+    expect(parseSampleSize('1.0')).toBe('1');
+    expect(parseSampleSize('5000')).toBe('5000');
+    for (const bad of ['0', '-0.5', '1.5', '1e400', 'half', '']) expect(() => parseSampleSize(bad)).toThrow(UsageError);
+    expect(() => forest.fit(X, y, { sample: '1.5' }, ctx(1))).toThrow(
+      'forest: option "sample" must be a fraction F with 0 < F <= 1 of the training rows, or a whole number N >= 2 of rows, got "1.5"',
+    );
+    expect(resolveSampleSize('0.1', 1000)).toBe(100);
+    expect(resolveSampleSize('0.0001', 1000)).toBe(1); // at least one draw
+    expect(resolveSampleSize('250', 1000)).toBe(250);
+    expect(resolveSampleSize('5000', 1000)).toBe(1000); // capped at the row count
+  });
+
+  it('the default (1: n draws) is the forest of Breiman 2001, identical to giving no option', () => {
+    const a = forest.fit(X, y, { trees: 15 }, ctx(3));
+    const b = forest.fit(X, y, { trees: 15, sample: '1' }, ctx(3));
+    const c = forest.fit(X, y, { trees: 15, sample: '400' }, ctx(3));
+    expect(Array.from(b.predictProba!(Q))).toEqual(Array.from(a.predictProba!(Q)));
+    expect(Array.from(c.predictProba!(Q))).toEqual(Array.from(a.predictProba!(Q)));
+  });
+
+  it('N draws give trees on at most N distinct rows: at most 2N - 1 nodes each (a binary tree with at most N leaves)', () => {
+    const m = forest.fit(X, y, { trees: 20, sample: '12' }, ctx(5));
+    expect(isCartModel(m)).toBe(true);
+    if (!isCartModel(m)) throw new Error('not a cart model');
+    const sizes = m.treeSizes();
+    expect(sizes.length).toBe(20);
+    for (const s of sizes) expect(s).toBeLessThanOrEqual(2 * 12 - 1);
+    // the full-size forest on the same rows grows trees far larger than that
+    const full = forest.fit(X, y, { trees: 20 }, ctx(5));
+    if (!isCartModel(full)) throw new Error('not a cart model');
+    expect(Math.min(...full.treeSizes())).toBeGreaterThan(2 * 12 - 1);
+    // the draw count is kept with the model's settings
+    expect(JSON.stringify(m.toJSON())).toContain('["drawsPerTree",12]');
+  });
+
+  it('same seed, same smaller forest', () => {
+    const a = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
+    const b = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
+    expect(Array.from(a.predictProba!(Q))).toEqual(Array.from(b.predictProba!(Q)));
   });
 });

@@ -144,3 +144,32 @@ describe('logistic', () => {
     expect(() => resolveParams(l, parseLearnerSpec('logistic'), 'regression')).toThrow(/does not do regression/);
   });
 });
+
+describe('logistic on many columns (issue 25, item 1)', () => {
+  it('fits 30 rows x 70,000 columns to zero gradient, where a full Hessian could not be stored', () => {
+    // 70,001 parameters: a dense Hessian would need 4.9e9 entries, more than a typed array
+    // holds; a method on Hessian-vector products needs memory in the data only
+    const { X, codes } = seeded(30, 70_000, 2, 21);
+    expect(new Set(codes).size).toBe(2);
+    expect(gradientAtFit(X, codes, 2, 1)).toBeLessThan(1e-7);
+  });
+
+  it('multinomial on one-hot columns (collinear with the intercept) reaches zero gradient', () => {
+    // two categorical columns of 6 levels, one-hot: each block sums to 1, so the standardised
+    // columns are exactly collinear and only the penalty makes the optimum unique
+    const rng = createRng(33);
+    const n = 600;
+    const p = 12;
+    const data = new Float64Array(n * p);
+    const codes = new Int32Array(n);
+    for (let i = 0; i < n; i++) {
+      const a = rng.int(6);
+      const b = rng.int(6);
+      data[i * p + a] = 1;
+      data[i * p + 6 + b] = 1;
+      codes[i] = Math.min(2, Math.floor((a + b + rng.next() * 4) / 4.5));
+    }
+    expect(new Set(codes).size).toBe(3);
+    for (const l2 of [0.01, 1]) expect(gradientAtFit({ rows: n, cols: p, data }, codes, 3, l2)).toBeLessThan(1e-7);
+  });
+});

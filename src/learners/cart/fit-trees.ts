@@ -3,7 +3,8 @@
  *
  * Forest (Breiman 2001, "Random Forests", Machine Learning 45:5-32, free:
  * https://www.stat.berkeley.edu/~breiman/randomforest2001.pdf): tree t is grown on a bootstrap
- * sample (n draws with replacement from the n training rows, kept as per-row draw counts) with a
+ * sample (n draws with replacement from the n training rows, or the `sample` size; kept as
+ * per-row draw counts) with a
  * fresh feature draw at every node. Tree t's generator is createRng(deriveSeed(seed, "forest",
  * "tree", t)), so a tree depends only on the fit's seed and its index: not on the order trees
  * are grown in, and the first k trees of a forest of T trees equal the forest of k trees.
@@ -20,6 +21,8 @@ import { type Rng, createRng, deriveSeed } from '../../run/rng.js';
 import type { FitContext, Matrix, Target } from '../types.js';
 import { binMatrix } from './bins.js';
 import { resolveFeatureCount } from './feature-count.js';
+import { resolveSampleSize } from './sample-size.js';
+import { classWeights } from '../class-balance.js';
 import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
 import { type Criterion, type GrowTarget, TreeGrower } from './grow.js';
 import { NodeStore } from './node-store.js';
@@ -33,6 +36,10 @@ export interface CartSettings {
   readonly criterion: 'gini' | 'entropy';
   readonly bins: number;
   readonly bootstrap: boolean;
+  /** canonical `sample` value (see sample-size.ts); forest only */
+  readonly sample?: string;
+  /** `rebalance` (see ../class-balance.ts); none when absent */
+  readonly rebalance?: string;
 }
 
 /** Checks X and y agree and are usable; returns the classification class count (1 for regression). */
@@ -80,6 +87,9 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   }
   const grower = new TreeGrower(binned, target, { maxDepth: s.depth, minLeaf: s.minLeaf, mtry, criterion });
 
+  const rebalance = s.rebalance ?? 'none';
+  const cw = classWeights(kind, rebalance, y.task === 'classification' ? y.codes : null, classCount);
+  const draws = s.bootstrap ? resolveSampleSize(s.sample ?? '1', n) : n;
   const store = new NodeStore(p);
   const weights = new Float64Array(n);
   const rows = new Int32Array(n);
@@ -89,13 +99,14 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     if (s.bootstrap) {
       rng = createRng(deriveSeed(ctx.seed, 'forest', 'tree', t));
       weights.fill(0);
-      for (let i = 0; i < n; i++) weights[rng.int(n)] += 1;
+      for (let i = 0; i < draws; i++) weights[rng.int(n)] += 1;
       m = 0;
       for (let i = 0; i < n; i++) if (weights[i] > 0) rows[m++] = i;
     } else {
       weights.fill(1);
       for (let i = 0; i < n; i++) rows[i] = i;
     }
+    if (cw && y.task === 'classification') for (let k = 0; k < m; k++) weights[rows[k]] *= cw[y.codes[rows[k]]];
     grower.grow(rows.subarray(0, m), weights, rng, store);
     if (t === 0 && s.trees > 1) store.expect(s.trees - 1);
   }
@@ -109,5 +120,10 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     ['criterion', criterion],
     ['bins', s.bins],
   ]);
+  if (rebalance !== 'none') settings.set('rebalance', rebalance);
+  if (s.bootstrap) {
+    settings.set('sample', s.sample ?? '1');
+    settings.set('drawsPerTree', draws);
+  }
   return finishForest(kind, y.task, classCount, settings, store);
 }

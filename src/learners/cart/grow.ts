@@ -31,9 +31,14 @@
  * ascending order. A node of fewer than 256 rows marks its occupied bins in a 256-bit mask and
  * walks only those; a node of at most 16 rows sorts its codes instead (insertion sort); a
  * two-row node takes the first drawn feature that tells its rows apart. So a small node costs
- * time in its size, not in the number of bins. (Histogram subtraction between siblings is not
- * used: with a fresh feature draw at every node the parent's histograms are mostly for other
- * features, and building all p of them to subtract would cost p / 2 passes instead of mtry.)
+ * time in its size, not in the number of bins. A node holding fewer than one in BATCH_SPARSITY
+ * of the training rows fills the histograms of all its first `mtry` drawn features in one pass
+ * over its rows, reading the row-major copy of the codes: deep in a tree on many rows a node's
+ * rows lie far apart, and a column lookup per row and feature would touch one memory line each.
+ * The draws, the sums (in row order) and the walk order are those of the one-feature scans, so
+ * the trees are identical. (Histogram subtraction between siblings is not used: with a fresh
+ * feature draw at every node the parent's histograms are mostly for other features, and
+ * building all p of them to subtract would cost p / 2 passes instead of mtry.)
  * Splitting a node is a stable partition of its rows, so rows stay in ascending order and
  * the code lookups walk memory forwards.
  *
@@ -84,6 +89,9 @@ function transpose(codes: Uint8Array, n: number, p: number): Uint8Array {
 /** Nodes with at most this many distinct rows are searched by sorting codes, not by histogram. */
 const SMALL_NODE = 16;
 
+/** A node whose rows are fewer than one in this many of the training rows is scanned in batch. */
+const BATCH_SPARSITY = 8;
+
 /**
  * Grows trees on one binned matrix; scratch buffers are allocated once and reused, so one
  * grower serves all the trees of a forest (one at a time).
@@ -111,7 +119,10 @@ export class TreeGrower {
   // scratch
   private readonly hist: Float64Array;
   private readonly histW: Float64Array;
-  private readonly mask = new Uint32Array(8);
+  /** per histogram slot: a 256-bit mask of the bins to walk */
+  private readonly mask: Uint32Array;
+  /** the features of a batched scan, slot by slot */
+  private readonly batch: Int32Array;
   private readonly tot: Float64Array;
   private readonly leftTot: Float64Array;
   private readonly perm: Int32Array;
@@ -142,8 +153,11 @@ export class TreeGrower {
     this.tmpC = new Int32Array(this.isClasses ? this.n : 0);
     this.rowCodes = transpose(this.codes, this.n, this.p);
     const width = this.classCount;
-    this.hist = new Float64Array(256 * Math.max(2, width));
-    this.histW = new Float64Array(256);
+    const slots = Math.max(1, settings.mtry);
+    this.hist = new Float64Array(slots * 256 * Math.max(2, width));
+    this.histW = new Float64Array(slots * 256);
+    this.mask = new Uint32Array(slots * 8);
+    this.batch = new Int32Array(slots);
     this.tot = new Float64Array(width);
     this.leftTot = new Float64Array(width);
     this.perm = new Int32Array(this.p);
@@ -331,23 +345,57 @@ export class TreeGrower {
     const at1 = two ? rows[start + 1] * p : 0;
     const rowCodes = this.rowCodes;
     this.bestGain = -Infinity;
-    let tried = 0;
-    for (let j = 0; j < p && (tried < mtry || this.bestFeature < 0); j++) {
-      let f: number;
-      if (drawAll) f = j;
-      else {
-        const k = j + rng.int(p - j);
-        f = perm[k];
-        perm[k] = perm[j];
-        perm[j] = f;
+    const draw = (j: number): number => {
+      if (drawAll) return j;
+      const k = j + rng.int(p - j);
+      const f = perm[k];
+      perm[k] = perm[j];
+      perm[j] = f;
+      return f;
+    };
+    let j = 0;
+    if (!small && this.batchRows(end - start)) {
+      // the first mtry draws are made whatever the scans find, so they can be scanned together:
+      // one pass over the node's rows fills every drawn feature's histogram from the row-major
+      // codes (one memory line per row instead of one per row and feature), then each is walked
+      // in draw order, which keeps the tie rule and the generator's sequence unchanged
+      const batch = this.batch;
+      let k = 0;
+      for (; j < p && j < mtry; j++) {
+        const f = draw(j);
+        if (this.binCounts[f] >= 2) batch[k++] = f;
       }
+      if (this.isClasses) this.fillClassesBatch(k, rows, start, end);
+      else this.fillValuesBatch(k, rows, start, end);
+      for (let a = 0; a < k; a++) {
+        if (this.isClasses) this.walkClasses(batch[a], a);
+        else this.walkValues(batch[a], a);
+      }
+    }
+    let tried = j;
+    for (; j < p && (tried < mtry || this.bestFeature < 0); j++) {
+      const f = draw(j);
       tried++;
       if (this.binCounts[f] < 2) continue;
       if (two && (this.bestFeature >= 0 || rowCodes[at0 + f] === rowCodes[at1 + f])) continue;
       if (small) this.scanSmall(f, rows, start, end);
-      else if (this.isClasses) this.scanClasses(f, rows, start, end);
-      else this.scanValues(f, rows, start, end);
+      else if (this.isClasses) {
+        this.fillClasses(f, rows, start, end);
+        this.walkClasses(f, 0);
+      } else {
+        this.fillValues(f, rows, start, end);
+        this.walkValues(f, 0);
+      }
     }
+  }
+
+  /**
+   * Whether a node of m positions fills its histograms from the row-major codes in one pass:
+   * when its rows are sparse in the column-major codes (fewer than one in BATCH_SPARSITY), where
+   * each column lookup would touch its own memory line.
+   */
+  private batchRows(m: number): boolean {
+    return this.settings.mtry > 1 && m * BATCH_SPARSITY < this.n;
   }
 
   private consider(gain: number, f: number, bin: number): void {
@@ -359,20 +407,22 @@ export class TreeGrower {
   }
 
   /**
-   * Marks the bins to walk: for a node of fewer than 256 rows, the bins its rows fall in (kept
-   * while filling, see the scans); for a larger one, simply all of the feature's bins.
+   * Marks the bins to walk in histogram slot `slot`: for a node of fewer than 256 rows, the bins
+   * its rows fall in (kept while filling, see the fills); for a larger one, simply all of the
+   * feature's bins.
    */
-  private markAllBins(f: number): void {
+  private markAllBins(f: number, slot: number): void {
     const bins = this.binCounts[f];
     const mask = this.mask;
+    const o = slot * 8;
     for (let word = 0; word < 8; word++) {
       const lo = word << 5;
-      mask[word] = bins >= lo + 32 ? 0xffffffff : bins > lo ? (1 << (bins - lo)) - 1 : 0;
+      mask[o + word] = bins >= lo + 32 ? 0xffffffff : bins > lo ? (1 << (bins - lo)) - 1 : 0;
     }
   }
 
-  /** Classification split search on a histogram of class weights per bin. */
-  private scanClasses(f: number, rows: Int32Array, start: number, end: number): void {
+  /** Histogram of class weights per bin of feature f, in slot 0. */
+  private fillClasses(f: number, rows: Int32Array, start: number, end: number): void {
     const C = this.classCount;
     const codes = this.codes;
     const base = f * this.n;
@@ -388,7 +438,7 @@ export class TreeGrower {
         hist[b * C + posC[i]] += w;
         histW[b] += w;
       }
-      this.markAllBins(f);
+      this.markAllBins(f, 0);
     } else {
       for (let i = start; i < end; i++) {
         const b = codes[base + rows[i]];
@@ -398,6 +448,41 @@ export class TreeGrower {
         mask[b >>> 5] |= 1 << (b & 31);
       }
     }
+  }
+
+  /** Histograms of class weights of the features batch[0..k) in slots 0..k-1, in one pass over the rows. */
+  private fillClassesBatch(k: number, rows: Int32Array, start: number, end: number): void {
+    const C = this.classCount;
+    const p = this.p;
+    const codes = this.rowCodes;
+    const batch = this.batch;
+    const posW = this.posW;
+    const posC = this.posC;
+    const hist = this.hist;
+    const histW = this.histW;
+    const mask = this.mask;
+    const marking = end - start < 256;
+    for (let i = start; i < end; i++) {
+      const o = rows[i] * p;
+      const w = posW[i];
+      const c = posC[i];
+      for (let a = 0; a < k; a++) {
+        const b = codes[o + batch[a]];
+        const sb = (a << 8) | b;
+        hist[sb * C + c] += w;
+        histW[sb] += w;
+        if (marking) mask[(a << 3) | (b >>> 5)] |= 1 << (b & 31);
+      }
+    }
+    if (!marking) for (let a = 0; a < k; a++) this.markAllBins(batch[a], a);
+  }
+
+  /** Walks the class histogram in slot `slot` (feature f) in ascending bins, clearing it. */
+  private walkClasses(f: number, slot: number): void {
+    const C = this.classCount;
+    const hist = this.hist;
+    const histW = this.histW;
+    const mask = this.mask;
     const weight = this.nodeWeight;
     const tot = this.tot;
     const L = this.leftTot;
@@ -414,19 +499,21 @@ export class TreeGrower {
       parentScore = sqR / weight;
     }
     let wL = 0;
+    const slotBin = slot << 8;
     for (let word = 0; word < 8; word++) {
-      let bits = mask[word];
+      let bits = mask[slot * 8 + word];
       if (bits === 0) continue;
-      mask[word] = 0;
+      mask[slot * 8 + word] = 0;
       while (bits !== 0) {
         const low = bits & -bits;
         bits ^= low;
         const b = (word << 5) | (31 - Math.clz32(low));
-        const wb = histW[b];
+        const sb = slotBin | b;
+        const wb = histW[sb];
         if (wb === 0) continue;
-        histW[b] = 0;
+        histW[sb] = 0;
         wL += wb;
-        const hb = b * C;
+        const hb = sb * C;
         for (let k = 0; k < C; k++) {
           const c = hist[hb + k];
           if (c !== 0) {
@@ -465,8 +552,8 @@ export class TreeGrower {
     return parent - (xlogx(wL) - sl) - (xlogx(wR) - sr);
   }
 
-  /** Regression split search on a histogram of weights and weighted target sums per bin. */
-  private scanValues(f: number, rows: Int32Array, start: number, end: number): void {
+  /** Histogram of weights and weighted target sums per bin of feature f, in slot 0. */
+  private fillValues(f: number, rows: Int32Array, start: number, end: number): void {
     const codes = this.codes;
     const base = f * this.n;
     const posW = this.posW;
@@ -481,7 +568,7 @@ export class TreeGrower {
         hist[b2] += w * posY[i];
         hist[b2 + 1] += w;
       }
-      this.markAllBins(f);
+      this.markAllBins(f, 0);
     } else {
       for (let i = start; i < end; i++) {
         const b = codes[base + rows[i]];
@@ -491,26 +578,59 @@ export class TreeGrower {
         mask[b >>> 5] |= 1 << (b & 31);
       }
     }
+  }
+
+  /** The value histograms of batch[0..k) in slots 0..k-1, in one pass over the rows (same sums, same order). */
+  private fillValuesBatch(k: number, rows: Int32Array, start: number, end: number): void {
+    const p = this.p;
+    const codes = this.rowCodes;
+    const batch = this.batch;
+    const posW = this.posW;
+    const posY = this.posY;
+    const hist = this.hist;
+    const mask = this.mask;
+    const marking = end - start < 256;
+    for (let i = start; i < end; i++) {
+      const o = rows[i] * p;
+      const w = posW[i];
+      const wy = w * posY[i];
+      for (let a = 0; a < k; a++) {
+        const b = codes[o + batch[a]];
+        const sb2 = ((a << 8) | b) << 1;
+        hist[sb2] += wy;
+        hist[sb2 + 1] += w;
+        if (marking) mask[(a << 3) | (b >>> 5)] |= 1 << (b & 31);
+      }
+    }
+    if (!marking) for (let a = 0; a < k; a++) this.markAllBins(batch[a], a);
+  }
+
+  /** Walks the value histogram in slot `slot` (feature f) in ascending bins, clearing it. */
+  private walkValues(f: number, slot: number): void {
+    const hist = this.hist;
+    const mask = this.mask;
     const weight = this.nodeWeight;
     const total = this.tot[0];
     const parentScore = (total * total) / weight;
     const minLeaf = this.settings.minLeaf;
     let wL = 0;
     let sL = 0;
+    const slotBin = slot << 8;
     for (let word = 0; word < 8; word++) {
-      let bits = mask[word];
+      let bits = mask[slot * 8 + word];
       if (bits === 0) continue;
-      mask[word] = 0;
+      mask[slot * 8 + word] = 0;
       while (bits !== 0) {
         const low = bits & -bits;
         bits ^= low;
         const b = (word << 5) | (31 - Math.clz32(low));
-        const wb = hist[2 * b + 1];
+        const sb2 = (slotBin | b) << 1;
+        const wb = hist[sb2 + 1];
         if (wb === 0) continue;
         wL += wb;
-        sL += hist[2 * b];
-        hist[2 * b] = 0;
-        hist[2 * b + 1] = 0;
+        sL += hist[sb2];
+        hist[sb2] = 0;
+        hist[sb2 + 1] = 0;
         const wR = weight - wL;
         if (wR <= 0 || wL < minLeaf || wR < minLeaf) continue;
         const sR = total - sL;
