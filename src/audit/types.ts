@@ -169,7 +169,7 @@ export interface FeatureScore {
 export interface SingleFeatureScores {
   /** the plan the scores were cross-validated with (the run's, or kfold:5 when it has too many folds) */
   readonly plan: string;
-  readonly metric: 'balanced_accuracy' | 'r2';
+  readonly metric: 'balanced-accuracy' | 'r2';
   readonly scores: readonly FeatureScore[];
 }
 

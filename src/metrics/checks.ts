@@ -7,9 +7,9 @@
  *   accuracy: actual and predicted must not be empty
  *   accuracy: classes must be a positive integer (got 0)
  *   accuracy: actual[5] = 7 is not a class code in 0..2
- *   log_loss: needs class probabilities, but proba is missing
- *   log_loss: proba must have 3 x 2 = 6 entries (got 5)
- *   log_loss: proba at row 1, class 0 is 1.5, not a probability in [0, 1]
+ *   log-loss: needs class probabilities, but proba is missing
+ *   log-loss: proba must have 3 x 2 = 6 entries (got 5)
+ *   log-loss: proba at row 1, class 0 is 1.5, not a probability in [0, 1]
  *   rmse: predicted[2] is NaN, not a finite number
  *
  * Probabilities may overshoot [0, 1] by at most PROBA_SLACK (1e-9), to absorb rounding in a

@@ -2,7 +2,7 @@
  * Log loss (cross-entropy of the predicted probabilities): the mean over rows of minus the
  * natural logarithm of the probability given to the row's actual class,
  *
- *   log_loss = -(1/n) * sum_i ln(clip(p_i,actual_i))
+ *   log-loss = -(1/n) * sum_i ln(clip(p_i,actual_i))
  *
  * Each probability is first clipped to [1e-15, 1 - 1e-15], so a confident wrong answer costs
  * at most -ln(1e-15) ~ 34.54 instead of Infinity. Probabilities are used as given: a row is
@@ -21,7 +21,7 @@ import type { ClassificationInput } from './types.js';
 export const LOG_LOSS_EPS = 1e-15;
 
 export function logLoss(input: ClassificationInput): number {
-  const proba = checkProbabilities('log_loss', input);
+  const proba = checkProbabilities('log-loss', input);
   const { actual, classes } = input;
   const lo = LOG_LOSS_EPS;
   const hi = 1 - LOG_LOSS_EPS;

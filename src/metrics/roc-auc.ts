@@ -26,7 +26,7 @@ import { checkProbabilities } from './checks.js';
 import type { ClassificationInput } from './types.js';
 
 export function rocAuc(input: ClassificationInput): number {
-  const proba = checkProbabilities('roc_auc', input);
+  const proba = checkProbabilities('roc-auc', input);
   const { actual, classes } = input;
   const n = actual.length;
   // two buffers reused for every class: scores of the positive rows, of the negative rows

@@ -86,7 +86,7 @@ describe('foldwise compare A.json B.json', () => {
     const m = await cli(['compare', a, kappa]);
     expect(m.code).toBe(2);
     expect(oneLine(m.stderr)).toBe(
-      'foldwise: compare: the runs differ in metrics (accuracy,balanced_accuracy,log_loss,macro_f1 vs accuracy,kappa); they are not comparable',
+      'foldwise: compare: the runs differ in metrics (accuracy,balanced-accuracy,log-loss,macro-f1 vs accuracy,kappa); they are not comparable',
     );
   });
 

@@ -190,7 +190,7 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
     const r = await gate(good, kappa);
     expect(r.code).toBe(2);
     expect(oneLine(r.stderr)).toBe(
-      'foldwise: gate: the runs differ in metrics (accuracy,balanced_accuracy,log_loss,macro_f1 vs accuracy,kappa); they are not comparable',
+      'foldwise: gate: the runs differ in metrics (accuracy,balanced-accuracy,log-loss,macro-f1 vs accuracy,kappa); they are not comparable',
     );
   });
 
@@ -221,7 +221,7 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
       [['--alpha', 'abc'], 'foldwise: --alpha abc: expected a number above 0 and below 0.5 (such as 0.05)'],
       [['--max-drop', '-0.1'], "foldwise: --max-drop -0.1: expected a number >= 0, in the metric's units"],
       [['--absolute-min', 'x'], "foldwise: --absolute-min x: expected a number, in the metric's units"],
-      [['--metric', 'kappa'], 'foldwise: --metric kappa: the reports do not score it (they score accuracy, balanced_accuracy, macro_f1, log_loss)'],
+      [['--metric', 'kappa'], 'foldwise: --metric kappa: the reports do not score it (they score accuracy, balanced-accuracy, macro-f1, log-loss)'],
     ];
     for (const [extra, message] of bad) {
       const r = await gate(good, good, ...extra);

@@ -33,7 +33,7 @@ const ok: ClassificationInput = {
 describe('classification input checks, for every classification metric', () => {
   it('has the ten classification metrics and three with probabilities', () => {
     expect(classification.length).toBe(10);
-    expect(withProba.map((m) => m.name)).toEqual(['log_loss', 'brier', 'roc_auc']);
+    expect(withProba.map((m) => m.name)).toEqual(['log-loss', 'brier', 'roc-auc']);
   });
   for (const m of classification) {
     const fn = m.fn as (input: ClassificationInput) => number;

@@ -11,7 +11,7 @@ const input: ClassificationInput = {
   proba: Float64Array.from([0.8, 0.2, 0.3, 0.7, 0.6, 0.4]),
 };
 
-describe('log_loss', () => {
+describe('log-loss', () => {
   it('matches a hand computation', () => {
     // -(ln .8 + ln .7 + ln .4) / 3 = (0.223144 + 0.356675 + 0.916291) / 3 = 0.498703
     expect(Math.abs(logLoss(input) - -(Math.log(0.8) + Math.log(0.7) + Math.log(0.4)) / 3)).toBeLessThan(1e-12);

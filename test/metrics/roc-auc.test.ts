@@ -3,7 +3,7 @@ import { createRng } from '../../src/run/rng.js';
 import { rocAuc } from '../../src/metrics/roc-auc.js';
 import { binaryScores } from './helpers.js';
 
-describe('roc_auc, two classes', () => {
+describe('roc-auc, two classes', () => {
   it('Fawcett (2006) Fig. 3: 20 instances, AUC 0.68', () => {
     // Fawcett, "An introduction to ROC analysis", Pattern Recognition Letters 27:861-874,
     // Fig. 3: instance classes (p/n) and scores. Recalled from memory and matched against a
@@ -76,7 +76,7 @@ describe('roc_auc, two classes', () => {
   });
 });
 
-describe('roc_auc, more classes: macro one-vs-rest', () => {
+describe('roc-auc, more classes: macro one-vs-rest', () => {
   it('averages the one-vs-rest areas of the classes with positives and negatives (by hand)', () => {
     // 4 classes, class 3 never occurs in actual (no positives), so it is left out.
     // rows: actual, proba (p0, p1, p2, p3)

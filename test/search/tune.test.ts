@@ -115,7 +115,7 @@ describe('tune on the Palmer penguins file', () => {
   });
 
   it('searches several learners together, sharing forest fits across tree counts', () => {
-    const m = run({ learners: ['knn:k=5|15', 'forest:trees=5|10|20,depth=3'], metrics: ['balanced_accuracy', 'accuracy'], inner: 'kfold:2' });
+    const m = run({ learners: ['knn:k=5|15', 'forest:trees=5|10|20,depth=3'], metrics: ['balanced-accuracy', 'accuracy'], inner: 'kfold:2' });
     checkInvariants(m);
     expect(m.candidates.length).toBe(5);
     // per split: one neighbour search and one forest (for 3 tree counts) = 2 fits
@@ -124,7 +124,7 @@ describe('tune on the Palmer penguins file', () => {
       'knn: k (higher simpler), weights (uniform < distance)',
       'forest: depth (lower simpler), minLeaf (higher simpler), trees (lower simpler), bins (lower simpler)',
     ]);
-    expect(Object.keys(m.outer.summary)).toEqual(['balanced_accuracy', 'accuracy']);
+    expect(Object.keys(m.outer.summary)).toEqual(['balanced-accuracy', 'accuracy']);
   });
 
   it('random search reports the grid size and the number tried', () => {
