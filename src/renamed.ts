@@ -40,15 +40,17 @@ const VALUES: ReadonlyMap<string, ReadonlyMap<string, ReadonlyMap<string, string
 export function renamedOptionMessage(learner: string, key: string, raw: string, where: string): string | undefined {
   const r = OPTIONS.get(learner)?.get(key);
   if (!r) return undefined;
-  const value = r.values?.get(raw) ?? raw;
+  const value = raw.split('|').map((v) => r.values?.get(v.trim()) ?? v.trim()).join('|');
   const values = r.values ? ` and its values ${[...r.values.keys()].join('/')} are now ${[...r.values.values()].join('/')}` : '';
   return `${where}: option "${key}" is now "${r.to}"${values}; write ${r.to}=${value}`;
 }
 
 /** The message for an old value of an option that kept its name, or undefined. */
 export function renamedValueMessage(learner: string, key: string, raw: string, where: string): string | undefined {
-  const to = VALUES.get(learner)?.get(key)?.get(raw.trim().toLowerCase());
-  return to === undefined ? undefined : `${where}: ${key}=${raw} is now ${key}=${to}`;
+  const renames = VALUES.get(learner)?.get(key);
+  const items = raw.split('|').map((v) => v.trim());
+  if (!renames || !items.some((v) => renames.has(v.toLowerCase()))) return undefined;
+  return `${where}: ${key}=${raw} is now ${key}=${items.map((v) => renames.get(v.toLowerCase()) ?? v).join('|')}`;
 }
 
 /** Old metric names, in kebab-case, and their new names. */

@@ -6,7 +6,7 @@
  * - Preprocessing: the split's SplitData (src/run/tasks.ts) fits imputation, scaling and one-hot
  *   encoding once on the training rows; every candidate reads the same matrices.
  * - kNN: the neighbours of every test row are found once, for the largest k of the candidates
- *   (capped at the training rows), with `nearest`; each (k, weights) candidate is scored from
+ *   (capped at the training rows), with `nearest`; each (k, vote) candidate is scored from
  *   the first k entries of that list by `predictFromNeighbours`, which gives exactly knn's own
  *   predictions (see src/learners/knn.ts).
  * - Forest: candidates that differ only in `trees` share one forest of the largest tree count;
@@ -23,7 +23,7 @@
 import { performance } from 'node:perf_hooks';
 import { forest } from '../learners/forest.js';
 import { isCartModel } from '../learners/cart/model.js';
-import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
+import { KNN_VOTES, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
 import type { Learner, Params, Target } from '../learners/types.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { type SplitData, subsetTarget } from '../run/tasks.js';
@@ -59,8 +59,8 @@ function knnGroup(split: SplitData, yTrain: Target, cands: readonly SearchCandid
   const classes = yTrain.task === 'classification' ? yTrain.classes.length : 0;
   const list = { index, dist2, stride: K, rows: Xtest.rows };
   cands.forEach((c, j) => {
-    const weights = String(c.params.weights) as (typeof KNN_WEIGHTS)[number];
-    out[at[j]] = predictFromNeighbours(list, y, Xtrain.rows, classes, Number(c.params.k), weights);
+    const vote = String(c.params.vote) as (typeof KNN_VOTES)[number];
+    out[at[j]] = predictFromNeighbours(list, y, Xtrain.rows, classes, Number(c.params.k), vote);
   });
   work.fits += 1;
   work.fitMs += t1 - t0;

@@ -63,7 +63,7 @@ export const TUNE_SCHEMA = 'foldwise-tune/1';
 export const DEFAULT_OUTER_PLAN = 'kfold:5';
 export const DEFAULT_INNER_PLAN = 'kfold:3';
 /** The search when no --learner is given: kNN over seven k values and both weightings. */
-export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,weights=uniform|distance'];
+export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,vote=equal|inverse'];
 
 export interface TuneOptions extends ProblemOptions {
   /** run the quick data audit first and record its findings in the report's `audit` (default true) */

@@ -23,7 +23,7 @@ const ARGS = ['tune', penguins, '--target', 'Species', '--drop', 'Island', '--dr
 
 describe('foldwise tune', () => {
   it('prints the candidate count up front and a schema-valid JSON report', async () => {
-    const r = await cli([...ARGS, '--learner', 'knn:k=1|5|15,weights=uniform|distance', '--json', '-']);
+    const r = await cli([...ARGS, '--learner', 'knn:k=1|5|15,vote=equal|inverse', '--json', '-']);
     expect(r.code).toBe(0);
     expect(r.stderr.split('\n')[0]).toBe('foldwise: tune: 6 candidates in a grid of 6; outer kfold:5, inner kfold:3');
     const report = JSON.parse(r.stdout) as TuneReport;
@@ -179,7 +179,7 @@ describe('tune --html and render of a tune report', () => {
   it('writes the page with --html FILE (nothing on standard output), and render of the JSON writes the same page', async () => {
     const html = join(tmp.dir, 'tune.html');
     const js = join(tmp.dir, 'tune-for-html.json');
-    const r = await cli([...ARGS, '--learner', 'knn:k=3|9,weights=uniform|distance', '--plan', 'kfold:3', '--html', html, '--json', js]);
+    const r = await cli([...ARGS, '--learner', 'knn:k=3|9,vote=equal|inverse', '--plan', 'kfold:3', '--html', html, '--json', js]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     const page = readFileSync(html, 'utf8');

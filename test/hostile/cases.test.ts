@@ -416,7 +416,7 @@ const cases: Case[] = [
   { name: 'learner option out of range (k=0)', input: smallCsv, args: [...RUN, '--learner', 'knn:k=0'], expect: /^--learner knn: k=0: must be at least 1$/ },
   { name: 'learner option not whole (k=2.5)', input: smallCsv, args: [...RUN, '--learner', 'knn:k=2.5'], expect: /^--learner knn: k=2.5: expected a whole number$/ },
   { name: 'learner option overflowing (k=1e400)', input: smallCsv, args: [...RUN, '--learner', 'knn:k=1e400'], expect: /^--learner knn: k=1e400: / },
-  { name: 'learner option not a choice', input: smallCsv, args: [...RUN, '--learner', 'knn:weights=heavy'], expect: /^--learner knn: weights=heavy: expected one of / },
+  { name: 'learner option not a choice', input: smallCsv, args: [...RUN, '--learner', 'knn:vote=heavy'], expect: /^--learner knn: vote=heavy: expected one of / },
   { name: 'the same learner twice', input: smallCsv, args: [...RUN, '--learner', 'knn:k=1'], expect: /^--learner knn:k=1: the same learner and options are given twice/ },
   { name: 'malformed plan: unknown kind', input: smallCsv, args: [...RUN, '--plan', 'kfld:3'], expect: /^--plan "kfld:3": unknown plan "kfld"; expected one of kfold, loo, shuffle, holdout, forward; did you mean "kfold"\?$/ },
   { name: 'malformed plan: kfold:1', input: smallCsv, args: [...RUN, '--plan', 'kfold:1'], expect: /^--plan "kfold:1": expected kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1$/ },

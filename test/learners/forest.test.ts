@@ -203,7 +203,7 @@ describe('forest: seeds, prefixes, round trip', () => {
   });
 
   it('probabilities are the mean over trees of leaf class shares (Breiman 2001), rows sum to 1', () => {
-    const m = forest.fit(X, y, { trees: 7, minLeaf: 5 }, ctx(8));
+    const m = forest.fit(X, y, { trees: 7, 'min-leaf': 5 }, ctx(8));
     const j = m.toJSON() as { roots: number[]; feature: number[]; threshold: number[]; left: number[]; right: number[]; offset: number[]; values: number[] };
     const proba = m.predictProba?.(test) as Float64Array;
     expect(proba.length).toBe(test.rows * 2);
@@ -257,8 +257,8 @@ describe('forest: impurity importance (mean decrease in impurity; Louppe et al. 
       rows.push(x);
       codes.push(x[2] + 0.3 * gauss(rng) > 0 ? 1 : 0);
     }
-    for (const criterion of ['gini', 'entropy']) {
-      const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 30, criterion }, ctx(4));
+    for (const impurity of ['gini', 'entropy']) {
+      const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 30, impurity }, ctx(4));
       if (!isCartModel(m)) throw new Error('not a forest model');
       const imp = Array.from(m.importance());
       expect(imp.length).toBe(5);
@@ -299,14 +299,14 @@ describe('forest: options', () => {
     expect(fit({ trees: 0 })).toThrow('forest: option "trees" must be an integer >= 1, got 0');
     expect(fit({ trees: 2.5 })).toThrow('forest: option "trees" must be an integer >= 1, got 2.5');
     expect(fit({ depth: 0 })).toThrow('forest: option "depth" must be an integer >= 1, got 0');
-    expect(fit({ minLeaf: -1 })).toThrow('forest: option "minLeaf" must be an integer >= 1, got -1');
+    expect(fit({ 'min-leaf': -1 })).toThrow('forest: option "min-leaf" must be an integer >= 1, got -1');
     expect(fit({ bins: 1 })).toThrow('forest: option "bins" must be an integer between 2 and 255, got 1');
-    expect(fit({ criterion: 'mse' })).toThrow('forest: option "criterion" must be one of gini, entropy, got "mse"');
+    expect(fit({ impurity: 'mse' })).toThrow('forest: option "impurity" must be one of gini, entropy, got "mse"');
     expect(fit({ features: 'frac:0' })).toThrow('forest: option "features" must be frac:F with 0 < F <= 1, got "frac:0"');
     expect(fit({ features: 'frac:1.5' })).toThrow('frac:F with 0 < F <= 1');
     expect(fit({ features: 'count:0' })).toThrow('forest: option "features" must be count:M with M an integer >= 1, got "count:0"');
     expect(fit({ features: 'count:2.5' })).toThrow('count:M with M an integer >= 1');
-    expect(fit({ features: 'half' })).toThrow('forest: option "features" must be auto, sqrt, log2, all, frac:F');
+    expect(fit({ features: 'half' })).toThrow('forest: option "features" must be breiman, sqrt, log2, all, frac:F');
     expect(fit({ features: 3 })).toThrow('forest: option "features" must be a string, got 3');
     expect(fit({ tree: 3 })).toThrow('forest: unknown option "tree"');
     expect(fit({ tree: 3 })).toThrow('did you mean "trees"');
@@ -316,10 +316,10 @@ describe('forest: options', () => {
     expect(parseFeatureCount('SQRT')).toBe('sqrt');
     expect(parseFeatureCount(' frac:0.50 ')).toBe('frac:0.5');
     expect(parseFeatureCount('count:03')).toBe('count:3');
-    // auto: sqrt(p) for classification, p/3 for regression (common practice: Liaw & Wiener 2002)
-    expect(resolveFeatureCount('auto', 20, 'classification')).toBe(4);
-    expect(resolveFeatureCount('auto', 20, 'regression')).toBe(6);
-    expect(resolveFeatureCount('auto', 2, 'regression')).toBe(1);
+    // breiman: sqrt(p) for classification, p/3 for regression (common practice: Liaw & Wiener 2002)
+    expect(resolveFeatureCount('breiman', 20, 'classification')).toBe(4);
+    expect(resolveFeatureCount('breiman', 20, 'regression')).toBe(6);
+    expect(resolveFeatureCount('breiman', 2, 'regression')).toBe(1);
     expect(resolveFeatureCount('log2', 20, 'classification')).toBe(4);
     expect(resolveFeatureCount('all', 7, 'classification')).toBe(7);
     expect(resolveFeatureCount('frac:0.29', 100, 'classification')).toBe(29);
@@ -329,11 +329,11 @@ describe('forest: options', () => {
 
   it('the spec list declares the documented defaults', () => {
     const byName = new Map(forest.params.map((s) => [s.name, s]));
-    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins']);
+    expect([...byName.keys()]).toEqual(['trees', 'depth', 'min-leaf', 'features', 'impurity', 'bins']);
     expect(byName.get('trees')?.default).toBe(100);
     expect(byName.get('depth')?.default).toBe(32);
-    expect(byName.get('minLeaf')?.default).toBe(1);
-    expect(byName.get('features')?.default).toBe('auto');
-    expect(byName.get('criterion')?.default).toBe('gini');
+    expect(byName.get('min-leaf')?.default).toBe(1);
+    expect(byName.get('features')?.default).toBe('breiman');
+    expect(byName.get('impurity')?.default).toBe('gini');
   });
 });

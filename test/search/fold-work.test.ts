@@ -31,8 +31,8 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
   const y = problem.target;
   const splitSeed = 12345;
 
-  it('kNN: one neighbour search for a grid of k and weights, identical to fitting each', () => {
-    const cands = candidates(['knn:k=1', 'knn:k=4', 'knn:k=9,weights=distance', 'knn:k=30', 'knn:k=2,weights=distance']);
+  it('kNN: one neighbour search for a grid of k and vote, identical to fitting each', () => {
+    const cands = candidates(['knn:k=1', 'knn:k=4', 'knn:k=9,vote=inverse', 'knn:k=30', 'knn:k=2,vote=inverse']);
     const work = newWorkCount();
     const preds = predictAll(split, y, cands, splitSeed, work);
     expect(work.fits).toBe(1);

@@ -45,7 +45,7 @@ function checkInvariants(r: TuneReport): void {
 }
 
 describe('tune on the Palmer penguins file', () => {
-  const r = run({ learners: ['knn:k=1|3|5|9|15,weights=uniform|distance'], seed: 3 });
+  const r = run({ learners: ['knn:k=1|3|5|9|15,vote=equal|inverse'], seed: 3 });
 
   it('reports a schema-valid nested search with an outer estimate, a recommendation and stability', () => {
     checkInvariants(r);
@@ -75,7 +75,7 @@ describe('tune on the Palmer penguins file', () => {
   });
 
   it('is deterministic for a seed, and uses eval\'s outer folds (same sizes, same single-candidate scores)', () => {
-    expect(JSON.stringify(run({ learners: ['knn:k=1|3|5|9|15,weights=uniform|distance'], seed: 3 }))).toBe(JSON.stringify(r));
+    expect(JSON.stringify(run({ learners: ['knn:k=1|3|5|9|15,vote=equal|inverse'], seed: 3 }))).toBe(JSON.stringify(r));
     // with one candidate the nested search must refit exactly that model on each outer fold:
     // eval with plan kfold:5 and the same seed has the same folds, so the same fold scores
     const one = run({ learners: ['knn:k=7'], seed: 3 });
@@ -121,14 +121,14 @@ describe('tune on the Palmer penguins file', () => {
     // per split: one neighbour search and one forest (for 3 tree counts) = 2 fits
     expect(m.search.fits).toBe(2 * (5 * 2 + 2) + 5);
     expect(m.selection.complexity).toEqual([
-      'knn: k (higher simpler), weights (uniform < distance)',
-      'forest: depth (lower simpler), minLeaf (higher simpler), trees (lower simpler), bins (lower simpler)',
+      'knn: k (higher simpler), vote (equal < inverse)',
+      'forest: depth (lower simpler), min-leaf (higher simpler), trees (lower simpler), bins (lower simpler)',
     ]);
     expect(Object.keys(m.outer.summary)).toEqual(['balanced-accuracy', 'accuracy']);
   });
 
   it('random search reports the grid size and the number tried', () => {
-    const s = run({ learners: ['knn:k=1..60,weights=uniform|distance'], sample: 8, seed: 4 });
+    const s = run({ learners: ['knn:k=1..60,vote=equal|inverse'], sample: 8, seed: 4 });
     checkInvariants(s);
     expect(s.search).toMatchObject({ gridSize: 120, tried: 8, sampled: true });
   });
