@@ -25,7 +25,7 @@ function model(json: BaselineJSON): Model {
   for (let c = 1; c < values.length; c++) if (values[c] > values[best]) best = c;
   return {
     predict: (X: Matrix) => new Int32Array(X.rows).fill(best),
-    predictProba: (X: Matrix) => {
+    probabilities: (X: Matrix) => {
       const out = new Float64Array(X.rows * values.length);
       for (let i = 0; i < X.rows; i++) out.set(values, i * values.length);
       return out;

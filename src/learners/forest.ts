@@ -16,7 +16,7 @@
  * Missing values: fit throws InputError on NaN or infinite features (impute first); predict
  * sends NaN to the left child (x <= threshold is taken as "not x > threshold").
  * Model extras: importance() (mean decrease in impurity, summing to 1), predictPrefix(X, k),
- * predictProbaPrefix(X, k), treeSizes(); see cart/model.ts.
+ * probabilitiesPrefix(X, k), treeSizes(); see cart/model.ts.
  */
 import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from './types.js';
 import { MAX_BINS } from './cart/bins.js';

@@ -135,7 +135,7 @@ export interface NeighbourList {
  * weightings from one list). The list of the K nearest is sorted by (distance, training row),
  * so its first k entries are exactly the list `nearest` gives for k; the votes, the 1/d weights
  * with the distance-0 rule and the tie rule below are those of the model's predict and
- * predictProba, step for step, so the results are identical (test/search/knn-shared.test.ts).
+ * probabilities, step for step, so the results are identical (test/search/knn-shared.test.ts).
  *
  * `y` holds the training targets as the model stores them (class codes as doubles, or values);
  * `trainRows` the number of training rows (k is capped at it, as in the model); `classes` is 0
@@ -148,7 +148,7 @@ export function predictFromNeighbours(
   classes: number,
   k: number,
   vote: (typeof KNN_VOTES)[number],
-): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
+): { predicted: Int32Array | Float64Array; probs?: Float64Array } {
   const kk = Math.min(k, trainRows);
   if (!(kk >= 1 && kk <= list.stride)) {
     throw new InputError(`knn: ${k} neighbours asked from a list of ${list.stride} per query`);
@@ -191,7 +191,7 @@ export function predictFromNeighbours(
     for (let c = 0; c < C; c++) s += v[i * C + c];
     for (let c = 0; c < C; c++) v[i * C + c] /= s;
   }
-  return { predicted, proba: v };
+  return { predicted, probs: v };
 }
 
 interface KnnState {
@@ -266,7 +266,7 @@ function knnModel(st: KnnState): Model {
       }
       return out;
     },
-    predictProba(X) {
+    probabilities(X) {
       const { v } = votes(X);
       for (let i = 0; i < X.rows; i++) {
         let s = 0;

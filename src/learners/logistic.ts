@@ -246,7 +246,7 @@ function model(json: LogisticJSON): Model {
   const q = used.length;
   const P = q + 1;
   const theta = Float64Array.from(json.theta);
-  const proba = (X: Matrix): Float64Array => {
+  const probs = (X: Matrix): Float64Array => {
     if (X.cols !== cols) throw new InputError(`logistic: ${X.cols} feature columns, the model has ${cols}`);
     const out = new Float64Array(X.rows * C);
     const eta = new Float64Array(K);
@@ -267,8 +267,8 @@ function model(json: LogisticJSON): Model {
     return out;
   };
   return {
-    predict: (X) => argmaxRows(proba(X), C),
-    predictProba: proba,
+    predict: (X) => argmaxRows(probs(X), C),
+    probabilities: probs,
     toJSON: () => json,
   };
 }

@@ -21,13 +21,13 @@ import type { ClassificationInput } from './types.js';
 export const LOG_LOSS_EPS = 1e-15;
 
 export function logLoss(input: ClassificationInput): number {
-  const proba = checkProbabilities('log-loss', input);
+  const probs = checkProbabilities('log-loss', input);
   const { actual, classes } = input;
   const lo = LOG_LOSS_EPS;
   const hi = 1 - LOG_LOSS_EPS;
   let sum = 0;
   for (let i = 0; i < actual.length; i++) {
-    let p = proba[i * classes + actual[i]];
+    let p = probs[i * classes + actual[i]];
     if (p < lo) p = lo;
     else if (p > hi) p = hi;
     sum -= Math.log(p);

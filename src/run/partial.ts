@@ -25,7 +25,7 @@ interface RecordJSON {
   readonly trainRows: number;
   readonly actual: number[];
   readonly predicted: number[];
-  readonly proba?: number[];
+  readonly probs?: number[];
   readonly fitMs: number;
   readonly predictMs: number;
   readonly failed?: string;
@@ -59,7 +59,7 @@ export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: Sh
       trainRows: r.trainRows,
       actual: Array.from(r.actual.task === 'classification' ? r.actual.codes : r.actual.values),
       predicted: Array.from(r.predicted),
-      ...(r.proba ? { proba: Array.from(r.proba) } : {}),
+      ...(r.probs ? { probs: Array.from(r.probs) } : {}),
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
@@ -83,7 +83,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     predictMs: j.predictMs,
     actual,
     predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(fromJsonNumbers(j.predicted)),
-    ...(j.proba ? { proba: Float64Array.from(fromJsonNumbers(j.proba)) } : {}),
+    ...(j.probs ? { probs: Float64Array.from(fromJsonNumbers(j.probs)) } : {}),
     ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
   };
 }

@@ -11,7 +11,7 @@
  *   predictions (see src/learners/knn.ts).
  * - Forest: candidates that differ only in `trees` share one forest of the largest tree count;
  *   a candidate with t trees is scored from the first t trees (predictPrefix /
- *   predictProbaPrefix). Because every tree has its own generator derived from the fit seed
+ *   probabilitiesPrefix). Because every tree has its own generator derived from the fit seed
  *   (src/learners/forest.ts), the first t trees are exactly the forest of t trees fitted with
  *   that seed.
  * - Every other learner is fitted once per candidate.
@@ -83,8 +83,8 @@ function forestGroup(split: SplitData, yTrain: Target, cands: readonly SearchCan
   cands.forEach((c, j) => {
     const t = Number(c.params.trees);
     const predicted = t === maxTrees ? model.predict(Xtest) : model.predictPrefix(Xtest, t);
-    const proba = t === maxTrees ? model.predictProba?.(Xtest) : model.predictProbaPrefix?.(Xtest, t);
-    out[at[j]] = proba ? { predicted, proba } : { predicted };
+    const probs = t === maxTrees ? model.probabilities?.(Xtest) : model.probabilitiesPrefix?.(Xtest, t);
+    out[at[j]] = probs ? { predicted, probs } : { predicted };
   });
   work.fits += 1;
   work.fitMs += t1 - t0;
@@ -98,11 +98,11 @@ function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: nu
   const model = c.learner.fit(Xtrain, yTrain, c.params, { rng: createRng(seed), seed, fold: split.view('search', c.learner.needsScaling) });
   const t1 = performance.now();
   const predicted = model.predict(Xtest);
-  const proba = model.predictProba?.(Xtest);
+  const probs = model.probabilities?.(Xtest);
   work.fits += 1;
   work.fitMs += t1 - t0;
   work.predictMs += performance.now() - t1;
-  return proba ? { predicted, proba } : { predicted };
+  return probs ? { predicted, probs } : { predicted };
 }
 
 /**

@@ -243,7 +243,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     // the baseline on the same outer split, for the paired comparison of the tuned estimate
     const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), {}, { rng: createRng(0), seed: 0 });
     const bTest = split.matrix('test', false);
-    baselineScores.push(scoreOf(head, yTest, { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) }));
+    baselineScores.push(scoreOf(head, yTest, { predicted: bModel.predict(bTest), probs: bModel.probabilities?.(bTest) }));
     outerFolds.push({
       repeat: f.repeat,
       fold: f.fold,
@@ -292,7 +292,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     const values = outerFolds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
     const missing = outerFolds.length - values.length;
     if (missing > 0 && missing < outerFolds.length) warnings.push(`outer estimate: ${m.name} is undefined in ${missing} of ${outerFolds.length} outer folds; its summary uses the other folds`);
-    if (m.needsProba && !pooledPred.proba) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
+    if (m.needsProba && !pooledPred.probs) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
     summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
     pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
   }

@@ -154,7 +154,7 @@ describe('forest: regression', () => {
       const tr = y.map((_, i) => i).filter((i) => i % k !== f);
       const te = y.map((_, i) => i).filter((i) => i % k === f);
       const m = forest.fit(matrix(tr.map((i) => rows[i])), { task: 'regression', values: Float64Array.from(tr.map((i) => y[i])) }, {}, ctx(f));
-      expect(m.predictProba).toBeUndefined();
+      expect(m.probabilities).toBeUndefined();
       const pred = m.predict(matrix(te.map((i) => rows[i])));
       te.forEach((i, t) => {
         sse += (pred[t] - y[i]) ** 2;
@@ -177,9 +177,9 @@ describe('forest: seeds, prefixes, round trip', () => {
     const b = forest.fit(X, y, { trees: 20 }, ctx(5));
     const c = forest.fit(X, y, { trees: 20 }, ctx(6));
     expect(JSON.stringify(a.toJSON())).toBe(JSON.stringify(b.toJSON()));
-    expect(Array.from(a.predictProba?.(test) ?? [])).toEqual(Array.from(b.predictProba?.(test) ?? [1]));
+    expect(Array.from(a.probabilities?.(test) ?? [])).toEqual(Array.from(b.probabilities?.(test) ?? [1]));
     expect(JSON.stringify(a.toJSON())).not.toBe(JSON.stringify(c.toJSON()));
-    expect(Array.from(a.predictProba?.(test) ?? [])).not.toEqual(Array.from(c.predictProba?.(test) ?? []));
+    expect(Array.from(a.probabilities?.(test) ?? [])).not.toEqual(Array.from(c.probabilities?.(test) ?? []));
   });
 
   it('the seed is taken from ctx.seed, not from the state of ctx.rng', () => {
@@ -195,7 +195,7 @@ describe('forest: seeds, prefixes, round trip', () => {
     if (!isCartModel(big) || !isCartModel(small)) return;
     expect(big.treeCount).toBe(12);
     expect(Array.from(big.predictPrefix(test, 5))).toEqual(Array.from(small.predict(test)));
-    expect(Array.from(big.predictProbaPrefix?.(test, 5) ?? [])).toEqual(Array.from(small.predictProba?.(test) ?? [1]));
+    expect(Array.from(big.probabilitiesPrefix?.(test, 5) ?? [])).toEqual(Array.from(small.probabilities?.(test) ?? [1]));
     expect(Array.from(big.predictPrefix(test, 12))).toEqual(Array.from(big.predict(test)));
     expect(Array.from(big.treeSizes().slice(0, 5))).toEqual(Array.from(small.treeSizes()));
     expect(() => big.predictPrefix(test, 0)).toThrow(UsageError);
@@ -205,8 +205,8 @@ describe('forest: seeds, prefixes, round trip', () => {
   it('probabilities are the mean over trees of leaf class shares (Breiman 2001), rows sum to 1', () => {
     const m = forest.fit(X, y, { trees: 7, 'min-leaf': 5 }, ctx(8));
     const j = m.toJSON() as { roots: number[]; feature: number[]; threshold: number[]; left: number[]; right: number[]; offset: number[]; values: number[] };
-    const proba = m.predictProba?.(test) as Float64Array;
-    expect(proba.length).toBe(test.rows * 2);
+    const probs = m.probabilities?.(test) as Float64Array;
+    expect(probs.length).toBe(test.rows * 2);
     for (let i = 0; i < test.rows; i++) {
       const x = test.data.subarray(i * 6, (i + 1) * 6);
       const mean = [0, 0];
@@ -216,24 +216,24 @@ describe('forest: seeds, prefixes, round trip', () => {
         mean[0] += j.values[j.offset[node]] / j.roots.length;
         mean[1] += j.values[j.offset[node] + 1] / j.roots.length;
       }
-      expect(Math.abs(proba[2 * i] - mean[0])).toBeLessThan(1e-12);
-      expect(Math.abs(proba[2 * i + 1] - mean[1])).toBeLessThan(1e-12);
-      expect(Math.abs(proba[2 * i] + proba[2 * i + 1] - 1)).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i] - mean[0])).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i + 1] - mean[1])).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i] + probs[2 * i + 1] - 1)).toBeLessThan(1e-12);
     }
     const pred = m.predict(test);
-    for (let i = 0; i < test.rows; i++) expect(pred[i]).toBe(proba[2 * i + 1] > proba[2 * i] ? 1 : 0);
+    for (let i = 0; i < test.rows; i++) expect(pred[i]).toBe(probs[2 * i + 1] > probs[2 * i] ? 1 : 0);
   });
 
   it('toJSON / load through JSON text gives identical predictions (classification and regression)', () => {
     const m = forest.fit(X, y, { trees: 15 }, ctx(1));
     const back = forest.load(JSON.parse(JSON.stringify(m.toJSON())));
     expect(Array.from(back.predict(test))).toEqual(Array.from(m.predict(test)));
-    expect(Array.from(back.predictProba?.(test) ?? [])).toEqual(Array.from(m.predictProba?.(test) ?? [1]));
+    expect(Array.from(back.probabilities?.(test) ?? [])).toEqual(Array.from(m.probabilities?.(test) ?? [1]));
     const values = Float64Array.from(rows, (x) => Math.sin(3 * x[0]) + x[1] * x[1]);
     const r = forest.fit(X, { task: 'regression', values }, { trees: 15 }, ctx(1));
     const rb = forest.load(JSON.parse(JSON.stringify(r.toJSON())));
     expect(Array.from(rb.predict(test))).toEqual(Array.from(r.predict(test)));
-    expect(rb.predictProba).toBeUndefined();
+    expect(rb.probabilities).toBeUndefined();
     if (isCartModel(rb) && isCartModel(r)) expect(Array.from(rb.importance())).toEqual(Array.from(r.importance()));
   });
 
@@ -282,7 +282,7 @@ describe('forest: missing values', () => {
     const probe = rows.slice(0, 20).map((r) => r.slice());
     const withNaN = probe.map((r) => [NaN, ...r.slice(1)]);
     const withNegInf = probe.map((r) => [-Infinity, ...r.slice(1)]);
-    expect(Array.from(m.predictProba?.(matrix(withNaN)) ?? [])).toEqual(Array.from(m.predictProba?.(matrix(withNegInf)) ?? [1]));
+    expect(Array.from(m.probabilities?.(matrix(withNaN)) ?? [])).toEqual(Array.from(m.probabilities?.(matrix(withNegInf)) ?? [1]));
   });
   it('predict rejects a matrix with the wrong number of features', () => {
     const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 2 }, ctx(1));

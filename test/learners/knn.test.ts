@@ -53,7 +53,7 @@ describe('knn', () => {
     const m = knn.fit(X, y, { k: 3, vote: 'inverse' }, ctx);
     const at2 = { rows: 1, cols: 1, data: Float64Array.from([2]) };
     expect(Array.from(m.predict(at2))).toEqual([1]);
-    expect(Array.from(m.predictProba!(at2))).toEqual([0, 1]);
+    expect(Array.from(m.probabilities!(at2))).toEqual([0, 1]);
   });
 
   it('averages neighbour values for regression, uniformly or by 1/d', () => {
@@ -73,7 +73,7 @@ describe('knn', () => {
     const m = knn.fit(X, y, { k: 5, vote: 'inverse' }, ctx);
     const back = knn.load(JSON.parse(JSON.stringify(m.toJSON())));
     expect(Array.from(back.predict(Q))).toEqual(Array.from(m.predict(Q)));
-    expect(Array.from(back.predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(back.probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     const ref = knnRef.fit(X, y, { k: 5 }, ctx);
     expect(Array.from(knnRef.load(JSON.parse(JSON.stringify(ref.toJSON()))).predict(Q))).toEqual(Array.from(ref.predict(Q)));
   });

@@ -263,7 +263,7 @@ describe('tree: regression', () => {
       y.push(x[0] < 0.3 ? -2 : x[0] < 0.7 ? 5 : 1);
     }
     const m = tree.fit(matrix(rows), { task: 'regression', values: Float64Array.from(y) }, {}, ctx(1));
-    expect(m.predictProba).toBeUndefined();
+    expect(m.probabilities).toBeUndefined();
     const pred = m.predict(matrix(rows));
     expect(Array.from(pred)).toEqual(y);
     const j = m.toJSON() as unknown as TreeJson;
@@ -312,7 +312,7 @@ describe('tree: caps, determinism, round trip', () => {
     const back = tree.load(JSON.parse(JSON.stringify(m.toJSON())));
     const test = matrix(curved(9, 200).rows);
     expect(Array.from(back.predict(test))).toEqual(Array.from(m.predict(test)));
-    expect(Array.from(back.predictProba?.(test) ?? [])).toEqual(Array.from(m.predictProba?.(test) ?? [1]));
+    expect(Array.from(back.probabilities?.(test) ?? [])).toEqual(Array.from(m.probabilities?.(test) ?? [1]));
     const r = tree.fit(X, { task: 'regression', values: Float64Array.from(rows.map((x) => x[0] * 3 + x[2])) }, {}, ctx(1));
     const rb = tree.load(JSON.parse(JSON.stringify(r.toJSON())));
     expect(Array.from(rb.predict(test))).toEqual(Array.from(r.predict(test)));

@@ -32,8 +32,8 @@ describe('metric registry', () => {
   it('records direction and probability needs', () => {
     const lower = METRIC_NAMES.filter((n) => !getMetric(n).higherIsBetter);
     expect(lower).toEqual(['log-loss', 'brier', 'mae', 'rmse', 'medae']);
-    const proba = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
-    expect(proba).toEqual(['log-loss', 'brier', 'roc-auc']);
+    const probs = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
+    expect(probs).toEqual(['log-loss', 'brier', 'roc-auc']);
     const regression = METRIC_NAMES.filter((n) => getMetric(n).task === 'regression');
     expect(regression).toEqual(['mae', 'rmse', 'r2', 'medae']);
   });

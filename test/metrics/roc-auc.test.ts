@@ -79,7 +79,7 @@ describe('roc-auc, two classes', () => {
 describe('roc-auc, more classes: macro one-vs-rest', () => {
   it('averages the one-vs-rest areas of the classes with positives and negatives (by hand)', () => {
     // 4 classes, class 3 never occurs in actual (no positives), so it is left out.
-    // rows: actual, proba (p0, p1, p2, p3)
+    // rows: actual, probs (p0, p1, p2, p3)
     //  0: .6 .2 .1 .1
     //  0: .3 .4 .2 .1
     //  1: .2 .5 .2 .1
@@ -93,12 +93,12 @@ describe('roc-auc, more classes: macro one-vs-rest', () => {
     // class 2, positives {.6, .3}, negatives {.1, .2, .2, .1}
     //   both beat all 4 -> 8; AUC_2 = 1
     // macro = (0.8125 + 0.8125 + 1) / 3 = 0.875
-    const proba = Float64Array.from([
+    const probs = Float64Array.from([
       0.6, 0.2, 0.1, 0.1, 0.3, 0.4, 0.2, 0.1, 0.2, 0.5, 0.2, 0.1, 0.5, 0.3, 0.1, 0.1, 0.1, 0.2, 0.6, 0.1, 0.3,
       0.3, 0.3, 0.1,
     ]);
     const actual = Int32Array.from([0, 0, 1, 1, 2, 2]);
     const predicted = Int32Array.from([0, 1, 1, 0, 2, 0]);
-    expect(Math.abs(rocAuc({ actual, predicted, classes: 4, proba }) - 0.875)).toBeLessThan(1e-12);
+    expect(Math.abs(rocAuc({ actual, predicted, classes: 4, probs }) - 0.875)).toBeLessThan(1e-12);
   });
 });

@@ -43,7 +43,7 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
     for (const [i, c] of cands.entries()) {
       const model = c.learner.fit(Xtr, subsetTarget(y, train), c.params, { rng: createRng(1), seed: 1 });
       expect(Array.from(preds[i].predicted)).toEqual(Array.from(model.predict(Xte)));
-      expect(Array.from(preds[i].proba!)).toEqual(Array.from(model.predictProba!(Xte)));
+      expect(Array.from(preds[i].probs!)).toEqual(Array.from(model.probabilities!(Xte)));
     }
   });
 
@@ -61,7 +61,7 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
     for (const [i, c] of cands.entries()) {
       const model = forest.fit(Xtr, subsetTarget(y, train), c.params, { rng: createRng(seed), seed });
       expect(Array.from(preds[i].predicted)).toEqual(Array.from(model.predict(Xte)));
-      expect(Array.from(preds[i].proba!)).toEqual(Array.from(model.predictProba!(Xte)));
+      expect(Array.from(preds[i].probs!)).toEqual(Array.from(model.probabilities!(Xte)));
     }
   });
 

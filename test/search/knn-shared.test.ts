@@ -17,7 +17,7 @@ function rowsOf(X: Matrix, from: number, to: number): Matrix {
 }
 
 describe('predictFromNeighbours: every k and weighting from one neighbour list equals knn itself', () => {
-  // The reference here is knn's own predict / predictProba (the brief: the votes and tie rules
+  // The reference here is knn's own predict / probabilities (the brief: the votes and tie rules
   // must equal knn's exactly). Tied data on purpose: coarse grid features make equal distances,
   // copied rows make distance 0 (the 1/d rule's special case), and 3 classes make tied votes.
   const X = gridMatrix(150, 3, 7, 4);
@@ -37,7 +37,7 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
         const model = knn.fit(X, y, { k, vote }, ctx);
         const shared = predictFromNeighbours(list, Float64Array.from(codes), X.rows, 3, k, vote);
         expect(Array.from(shared.predicted)).toEqual(Array.from(model.predict(Q)));
-        expect(Array.from(shared.proba!)).toEqual(Array.from(model.predictProba!(Q)));
+        expect(Array.from(shared.probs!)).toEqual(Array.from(model.probabilities!(Q)));
         checked++;
       }
     }
@@ -60,7 +60,7 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
         const model = knn.fit(X, yr, { k, vote }, ctx);
         const shared = predictFromNeighbours(list, values, X.rows, 0, k, vote);
         expect(Array.from(shared.predicted)).toEqual(Array.from(model.predict(Q)));
-        expect(shared.proba).toBeUndefined();
+        expect(shared.probs).toBeUndefined();
       }
     }
   });
