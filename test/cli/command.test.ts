@@ -284,7 +284,7 @@ describe('--on-fold-error skip', () => {
     const header = page.slice(0, page.indexOf('</header>'));
     expect(header).toContain(`Failed folds: ${spec.replace(/&/g, '&amp;')} failed in 1 of 5 folds (r1.f2)`);
 
-    const g = await foldwise(['gate', '--baseline', file, '--current', file, '--learner', spec], root);
+    const g = await foldwise(['gate', '--previous', file, '--current', file, '--learner', spec], root);
     expect(g.code).toBe(2);
     expect(g.stderr).toMatch(/gate: .*with-failed\.json: command:shares;mode=fail-on=r1\.f2 failed in 1 of 5 folds \(repeat 1 fold 2\); fix the learner and rerun before gating; they are not comparable/);
   });
