@@ -7,7 +7,7 @@
  *
  * The old spellings are kept here in kebab-case pieces, the way the messages print them.
  */
-import { UsageError } from './errors.js';
+import { InputError, UsageError } from './errors.js';
 
 interface RenamedOption {
   /** the new option name */
@@ -72,4 +72,18 @@ const PLAN_KINDS: ReadonlyMap<string, string> = new Map([['shuffle', 'resplit']]
 /** The new name of an old plan kind, or undefined. */
 export function renamedPlanKind(kind: string): string | undefined {
   return PLAN_KINDS.get(kind);
+}
+
+/**
+ * Throws when `found` (a file's format field) is the format 1 of the same kind as `current`
+ * (`foldwise-report/1` for `foldwise-report/2`): files of foldwise 0.1 name metrics, options and
+ * plans by the old names, so they are refused with one line saying what to do, not misread.
+ */
+export function refuseOldFormat(where: string, found: unknown, current: string, redo: string): void {
+  const family = current.slice(0, current.lastIndexOf('/') + 1);
+  if (typeof found === 'string' && found.startsWith(family) && found !== current && /\/1$/.test(found)) {
+    throw new InputError(
+      `${where}: format ${found} is from foldwise 0.1, before metrics, learner options and plan kinds were renamed; this foldwise reads ${current}: ${redo}`,
+    );
+  }
 }

@@ -117,7 +117,7 @@ export function registerGate(prog: Command, io: Io, setCode: (code: number) => v
     .option('--alpha <a>', 'one-sided level of the test that the drop exceeds --max-drop beyond fold noise', String(DEFAULT_ALPHA))
     .option('--absolute-min <x>', 'also fail when the current mean is worse than this limit (a floor; a ceiling for lower-is-better metrics)')
     .option('--accept', 'when the gate passes, replace the previous report by the current one, atomically')
-    .option('--json <file>', 'write the verdict as JSON (format foldwise-gate/1) to a file, or - for standard output')
+    .option('--json <file>', 'write the verdict as JSON (format foldwise-gate/2) to a file, or - for standard output')
     .option('--verbose', 'print stack traces of errors')
     .action((flags: GateFlags) => setCode(runGate(flags, io)));
 }

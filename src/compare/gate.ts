@@ -28,7 +28,7 @@ import { baselineOf, bestBy, findLearner } from './select.js';
 import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest } from './gate-rule.js';
 import type { GateVerdict } from './types.js';
 
-export const GATE_SCHEMA = 'foldwise-gate/1';
+export const GATE_SCHEMA = 'foldwise-gate/2';
 export const DEFAULT_MAX_DROP = 0;
 export const DEFAULT_ALPHA = 0.05;
 

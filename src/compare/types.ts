@@ -97,9 +97,9 @@ export interface CrossComparison {
   readonly warnings: readonly string[];
 }
 
-/** A gate verdict (format foldwise-gate/1, JSON Schema in schema/gate.schema.json). */
+/** A gate verdict (format foldwise-gate/2, JSON Schema in schema/gate.schema.json). */
 export interface GateVerdict {
-  readonly schema: 'foldwise-gate/1';
+  readonly schema: 'foldwise-gate/2';
   readonly verdict: 'pass' | 'fail';
   /** why it failed: a drop beyond fold noise, and/or the current score worse than --absolute-min */
   readonly reasons: readonly ('regression' | 'floor')[];

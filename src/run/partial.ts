@@ -6,6 +6,7 @@
  * the report exactly as a single run would have (byte-identical with --no-timing).
  */
 import { InputError } from '../errors.js';
+import { refuseOldFormat } from '../renamed.js';
 import type { Target } from '../learners/types.js';
 import type { Report } from '../report/types.js';
 import { VERSION } from '../version.js';
@@ -14,7 +15,7 @@ import { identityDiff, type RunIdentity } from './identity.js';
 import { fromJsonNumbers } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
-export const PARTIAL_FORMAT = 'foldwise-partial/1';
+export const PARTIAL_FORMAT = 'foldwise-partial/2';
 
 interface RecordJSON {
   readonly id: string;
@@ -96,6 +97,7 @@ export function parsePartial(text: string, name: string): PartialReport {
   } catch {
     throw new InputError(`${name}: not JSON; expected a part written by foldwise eval --shard`);
   }
+  refuseOldFormat(name, j?.schema, PARTIAL_FORMAT, 'rerun the shards with this foldwise');
   if (j?.schema !== PARTIAL_FORMAT || !j.identity || !j.frame || !Array.isArray(j.tasks) || !Array.isArray(j.records) || !j.shard) {
     throw new InputError(`${name}: not a foldwise part (${PARTIAL_FORMAT}); expected a part written by foldwise eval --shard`);
   }

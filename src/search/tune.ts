@@ -59,7 +59,7 @@ import { allRows, planOver, type SubsetPlan } from './plan-over.js';
 import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../run/scoring.js';
 import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
 
-export const TUNE_SCHEMA = 'foldwise-tune/1';
+export const TUNE_SCHEMA = 'foldwise-tune/2';
 export const DEFAULT_OUTER_PLAN = 'kfold:5';
 export const DEFAULT_INNER_PLAN = 'kfold:3';
 /** The search when no --learner is given: kNN over seven k values and both weightings. */

@@ -212,7 +212,7 @@ describe('tune --html and render of a tune report', () => {
     const out = join(tmp.dir, 'never.html');
     const r = await cli(['render', bad, '--html', out]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/^foldwise: render .*tune-broken\.json: not a valid foldwise-tune\/1 report \(at \/: must have required property 'recommendation'\)\n$/);
+    expect(r.stderr).toMatch(/^foldwise: render .*tune-broken\.json: not a valid foldwise-tune\/2 report \(at \/: must have required property 'recommendation'\)\n$/);
     expect(existsSync(out)).toBe(false);
   });
 });

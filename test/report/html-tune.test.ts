@@ -214,7 +214,7 @@ describe('HTML tune page of a two-option knn grid (penguins)', async () => {
     expect(footer).toContain(esc(report.plan.outer.text));
     expect(footer).toContain(esc(report.plan.inner.text));
     expect(footer).toContain(`<dt>seed</dt><dd>${report.plan.seed}</dd>`);
-    expect(footer).toContain(esc(`foldwise ${report.tool.version}, report format foldwise-tune/1`));
+    expect(footer).toContain(esc(`foldwise ${report.tool.version}, report format foldwise-tune/2`));
     // the quick audit's suspects (report.audit) and the other warnings both reach the footer
     expect(report.warnings.length + (report.audit?.suspects.length ?? 0)).toBeGreaterThan(0);
     for (const w of report.warnings) expect(footer).toContain(esc(w));

@@ -193,11 +193,11 @@ describe('render refuses what it cannot draw', () => {
     const p = tmp.file('other.json', '{"schema":"something/1"}');
     const r = await cli(['render', p, '--html', join(tmp.dir, 'x.html')]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/^foldwise: render .*other\.json: not a file foldwise can render .*foldwise-report\/1.*foldwise-gate\/1/);
-    const q = tmp.file('bad.json', '{"schema":"foldwise-report/1"}');
+    expect(r.stderr).toMatch(/^foldwise: render .*other\.json: not a file foldwise can render .*foldwise-report\/2.*foldwise-gate\/2/);
+    const q = tmp.file('bad.json', '{"schema":"foldwise-report/2"}');
     const s = await cli(['render', q, '--html', join(tmp.dir, 'y.html')]);
     expect(s.code).toBe(2);
-    expect(s.stderr).toMatch(/not a valid foldwise-report\/1 report/);
+    expect(s.stderr).toMatch(/not a valid foldwise-report\/2 report/);
     expect(() => renderFile(join(tmp.dir, 'missing.json'))).toThrow(/cannot be read \(ENOENT\)/);
   });
 });

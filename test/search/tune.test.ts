@@ -49,7 +49,7 @@ describe('tune on the Palmer penguins file', () => {
 
   it('reports a schema-valid nested search with an outer estimate, a recommendation and stability', () => {
     checkInvariants(r);
-    expect(r.schema).toBe('foldwise-tune/1');
+    expect(r.schema).toBe('foldwise-tune/2');
     expect(r.plan.outer).toEqual({ kind: 'kfold', text: 'kfold:5', folds: 5, repeats: 1, stratified: true });
     expect(r.plan.inner).toEqual({ kind: 'kfold', text: 'kfold:3', folds: 3, repeats: 1, stratified: true });
     expect(r.plan.searchRows).toBe(344);

@@ -1,5 +1,5 @@
 /**
- * The HTML page of a gate verdict (format foldwise-gate/1): the verdict and its reasons in
+ * The HTML page of a gate verdict (format foldwise-gate/2): the verdict and its reasons in
  * words, the previous and current means side by side, the change chart (src/report/html/
  * gate-chart.ts), and the rule's figures, paths and warnings in a footer block.
  */
