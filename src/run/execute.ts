@@ -91,7 +91,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   const frame = frameOf(prepared);
   if (exec.shard) {
     const records = recordsOf(prepared, ordered, new Set(mine.map((t) => t.id)));
-    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records) };
+    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, options.timing !== false) };
   }
   const totalMs = options.timing === false ? undefined : performance.now() - started;
   return { kind: 'report', report: assembleReport(frame, recordsOf(prepared, ordered), totalMs) };

@@ -36,6 +36,8 @@ export interface PartialReport {
   readonly schema: typeof PARTIAL_FORMAT;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
   readonly shard: ShardSpec;
+  /** false when the part was made with --no-timing: the merged report then has no timing either */
+  readonly timing: boolean;
   readonly identity: RunIdentity;
   readonly frame: ReportFrame;
   /** every task id of the whole run, in the run's order */
@@ -43,11 +45,12 @@ export interface PartialReport {
   readonly records: readonly RecordJSON[];
 }
 
-export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: ShardSpec, allTasks: readonly string[], records: readonly TaskRecord[]): PartialReport {
+export function makePartial(identity: RunIdentity, frame: ReportFrame, shard: ShardSpec, allTasks: readonly string[], records: readonly TaskRecord[], timing = true): PartialReport {
   return {
     schema: PARTIAL_FORMAT,
     tool: { name: 'foldwise', version: VERSION },
     shard,
+    timing,
     identity,
     frame,
     tasks: allTasks,
@@ -132,6 +135,7 @@ export function mergeParts(parts: readonly PartialReport[], names: readonly stri
   ];
   if (problems.length) throw new InputError(`merge: ${problems.join('; ')}; run or add the missing shards`);
   const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
-  const total = timing ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
+  // the parts carry the --no-timing choice of their runs; merge --no-timing also leaves it out
+  const total = timing && parts.every((p) => p.timing !== false) ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
   return assembleReport(first.frame, ordered, total);
 }
