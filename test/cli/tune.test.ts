@@ -216,3 +216,30 @@ describe('tune --html and render of a tune report', () => {
     expect(existsSync(out)).toBe(false);
   });
 });
+
+describe('foldwise tune: small defects of #19', () => {
+  it('Markdown escapes | only inside tables', async () => {
+    const space = 'knn:k=1|3,vote=equal|inverse';
+    const r = await cli([...ARGS, '--learner', space, '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit']);
+    expect(r.code).toBe(0);
+    const lines = r.stdout.split('\n');
+    const prose = lines.filter((l) => !l.startsWith('|'));
+    expect(prose.length).toBeGreaterThan(5);
+    expect(prose.filter((l) => l.includes('\\|'))).toEqual([]);
+    expect(r.stdout).toContain(`\`${space}\``);
+    // inside a table cell the | is still escaped (GitHub Flavored Markdown, tables extension)
+    expect(lines.some((l) => l.startsWith('|') && l.includes('k=1') && !l.includes('|3'))).toBe(true);
+  });
+
+  it('--quiet leaves out the notes on standard error, as in eval', async () => {
+    const loud = await cli([...ARGS, '--learner', 'knn:k=1|3', '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit']);
+    expect(loud.stderr).toMatch(/^foldwise: tune: 2 candidates in a grid of 2/);
+    const quiet = await cli([...ARGS, '--learner', 'knn:k=1|3', '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit', '--quiet']);
+    expect(quiet.code).toBe(0);
+    // warnings still print; only the note goes
+    const lines = (t: string) => t.split('\n').filter(Boolean);
+    expect(lines(quiet.stderr).every((l) => l.startsWith('foldwise: warning: '))).toBe(true);
+    expect(lines(quiet.stderr)).toEqual(lines(loud.stderr).slice(1));
+    expect(quiet.stdout).toBe(loud.stdout);
+  });
+});
