@@ -72,7 +72,7 @@ export const bayes: Learner = {
       kind: 'number',
       min: 0,
       max: 1,
-      default: 1e-9,
+      default: 1e-6,
       simpler: 'higher',
       doc: 'added to every variance, as a fraction of the largest feature variance',
     },

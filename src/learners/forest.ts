@@ -34,7 +34,7 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
     name: 'trees',
     kind: 'int',
     min: 1,
-    default: 100,
+    default: 200,
     simpler: 'lower',
     doc: 'number of trees',
   },

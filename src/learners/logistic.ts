@@ -277,8 +277,8 @@ export const logistic: Learner = {
   name: 'logistic',
   tasks: ['classification'],
   params: [
-    { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
-    { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps' },
+    { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 0.1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
+    { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 50, simpler: 'lower', doc: 'at most this many Newton steps' },
   ],
   needsScaling: false,
   doc: 'logistic regression (binary, or multinomial for 3+ classes) with an L2 penalty, by Newton steps',

@@ -90,7 +90,7 @@ export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metr
   classification('macro-f1', macroF1, false, true, 'unweighted mean of per-class F1 over classes in actual or predicted'),
   classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined'),
   classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined"),
-  classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [1e-15, 1-1e-15]'),
+  classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [2^-53, 1-2^-53]'),
   classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)'),
   classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
   regression('mae', mae, false, 'mean absolute error'),

@@ -46,9 +46,11 @@ describe('old names fail with the new one', () => {
   });
 
   it('search spaces in tune map every listed value', async () => {
-    const list = ['uniform', 'distance'].join('|');
+    const first = 'uniform';
+    const second = 'distance';
+    const list = `${first}|${second}`;
     expect(await refused(['tune', data, '--target', 'y', '--learner', `knn:k=1|3,${oldVote}=${list}`])).toBe(
-      `foldwise: --learner knn:k=1|3,${oldVote}=${list}: option "${oldVote}" is now "vote" and its values uniform/distance are now equal/inverse; write vote=equal|inverse`,
+      `foldwise: --learner knn:k=1|3,${oldVote}=${list}: option "${oldVote}" is now "vote" and its values ${first}/${second} are now equal/inverse; write vote=equal|inverse`,
     );
   });
 

@@ -330,7 +330,7 @@ describe('forest: options', () => {
   it('the spec list declares the documented defaults', () => {
     const byName = new Map(forest.params.map((s) => [s.name, s]));
     expect([...byName.keys()]).toEqual(['trees', 'depth', 'min-leaf', 'features', 'impurity', 'bins']);
-    expect(byName.get('trees')?.default).toBe(100);
+    expect(byName.get('trees')?.default).toBe(200);
     expect(byName.get('depth')?.default).toBe(32);
     expect(byName.get('min-leaf')?.default).toBe(1);
     expect(byName.get('features')?.default).toBe('breiman');

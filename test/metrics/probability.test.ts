@@ -18,17 +18,18 @@ describe('log-loss', () => {
     expect(Math.abs(logLoss(input) - 0.498703)).toBeLessThan(1e-6);
   });
 
-  it('clips probabilities to [1e-15, 1 - 1e-15] (documented)', () => {
+  it('clips probabilities to [2^-53, 1 - 2^-53] (documented; was 1e-15 before format 2)', () => {
     const sure: ClassificationInput = {
       actual: Int32Array.from([0, 1]),
       predicted: Int32Array.from([1, 1]),
       classes: 2,
       probs: Float64Array.from([0, 1, 0, 1]),
     };
-    // row 0: p(actual) = 0 -> 1e-15 -> 34.538776; row 1: p = 1 -> 1 - 1e-15 -> ~1e-15
-    const expected = (-Math.log(1e-15) - Math.log(1 - 1e-15)) / 2;
+    // row 0: p(actual) = 0 -> 2^-53 -> 53 ln 2 = 36.736801; row 1: p = 1 -> 1 - 2^-53 -> ~1.1e-16
+    const expected = (-Math.log(2 ** -53) - Math.log(1 - 2 ** -53)) / 2;
+    expect(1 - 2 ** -53).toBeLessThan(1); // the upper clip is a double below 1
     expect(Math.abs(logLoss(sure) - expected)).toBeLessThan(1e-12);
-    expect(Math.abs(logLoss(sure) - 34.538776 / 2)).toBeLessThan(1e-6);
+    expect(Math.abs(logLoss(sure) - 36.736801 / 2)).toBeLessThan(1e-6);
   });
 
   it('scores ln(k) for a uniform guess over k classes', () => {
