@@ -62,7 +62,7 @@ export const cases: BenchCase[] = [
       const yTrain = { ...y, codes: y.codes.slice(0, N_TRAIN) };
       const ctx = { rng: createRng(1), seed: 1 };
       log('ours...');
-      const ours = timeMedian(runs, () => knn.fit(train, yTrain, { k: K, weights: 'uniform' }, ctx).predict(test));
+      const ours = timeMedian(runs, () => knn.fit(train, yTrain, { k: K, vote: 'equal' }, ctx).predict(test));
       log('tight loop...');
       const tight = timeMedian(runs, () => tightLoop(train, test));
       log('ml-knn (one run)...');

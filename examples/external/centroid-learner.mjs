@@ -28,7 +28,7 @@ function centroidModel(state) {
     // softmax of -distance^2 / temperature: nearer centroids get more probability
     ...(task === 'classification'
       ? {
-          predictProba(X) {
+          probabilities(X) {
             const out = new Float64Array(X.rows * K);
             for (let i = 0; i < X.rows; i++) {
               const s = Array.from({ length: K }, (_, c) => -dist2(X, i, c) / temperature);

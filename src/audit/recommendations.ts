@@ -44,7 +44,7 @@ export function recommendations(suspects: readonly Suspect[], target: TargetProf
   }
   if (suspects.some((s) => s.kind === 'conflicting-duplicates')) out.push({ kind: 'labels', columns: [], text: 'check the labels of rows with equal features and different targets' });
   if (target.task === 'regression' && target.skewness !== null && Math.abs(target.skewness) >= AUDIT_LIMITS.strongSkew) {
-    out.push({ kind: 'metric', columns: [], text: `the target is strongly skewed (skewness ${fig(target.skewness, 2)}): a few large errors dominate rmse; report --metric mae or --metric median_absolute_error beside it` });
+    out.push({ kind: 'metric', columns: [], text: `the target is strongly skewed (skewness ${fig(target.skewness, 2)}): a few large errors dominate rmse; report --metric mae or --metric medae beside it` });
   }
   return out;
 }

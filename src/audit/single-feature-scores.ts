@@ -187,7 +187,7 @@ export function singleFeatureScores(problem: Problem, features: readonly Feature
   const setups = foldSetups(problem.target, folds.filter((f) => f.repeat === 0), problem.rows.length);
   return {
     plan: planText,
-    metric: problem.task === 'classification' ? 'balanced_accuracy' : 'r2',
+    metric: problem.task === 'classification' ? 'balanced-accuracy' : 'r2',
     scores: features.map((f) => scoreFeature(f, problem.target, setups)),
   };
 }

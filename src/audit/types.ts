@@ -2,14 +2,14 @@
  * The audit report: what in the data could make a cross-validated score a lie (leaking
  * columns, id columns, duplicates across folds, redundant feature clusters, informative
  * missingness, unused group or time structure), with the evidence and what to do about it.
- * Its JSON Schema is schema/audit.schema.json (format `foldwise-audit/1`).
+ * Its JSON Schema is schema/audit.schema.json (format `foldwise-audit/2`).
  */
 import type { DataSection } from '../report/types.js';
 import type { ProblemOptions } from '../data/problem.js';
 import type { Task } from '../learners/types.js';
 import type { PlanSpec } from '../plans/types.js';
 
-export const AUDIT_SCHEMA = 'foldwise-audit/1';
+export const AUDIT_SCHEMA = 'foldwise-audit/2';
 
 /** Cut-offs of the checks, in one place; each is explained where it is used. */
 export const AUDIT_LIMITS = {
@@ -169,7 +169,7 @@ export interface FeatureScore {
 export interface SingleFeatureScores {
   /** the plan the scores were cross-validated with (the run's, or kfold:5 when it has too many folds) */
   readonly plan: string;
-  readonly metric: 'balanced_accuracy' | 'r2';
+  readonly metric: 'balanced-accuracy' | 'r2';
   readonly scores: readonly FeatureScore[];
 }
 

@@ -29,7 +29,7 @@ function runCompare(firstPath: string, secondPath: string, flags: CompareFlags, 
   const result = compareReports(first, second, { metric: flags.metric, learners: flags.learner });
   for (const w of result.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
   if (flags.json) {
-    const text = `${JSON.stringify({ schema: 'foldwise-compare/1', ...result }, null, 2)}\n`;
+    const text = `${JSON.stringify({ schema: 'foldwise-compare/2', ...result }, null, 2)}\n`;
     if (flags.json === '-') io.stdout.write(text);
     else writeFileAtomic(flags.json, text, '--json');
   }

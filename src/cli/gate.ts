@@ -1,7 +1,9 @@
 /**
- * `foldwise gate --baseline BASE.json --current NEW.json [--metric M] [--learner SPEC]
+ * `foldwise gate --previous PREV.json --current NEW.json [--metric M] [--learner SPEC]
  * [--current-learner SPEC] [--max-drop D] [--alpha A] [--absolute-min X] [--accept]
- * [--json FILE|-]`: passes or fails a change against a committed baseline report.
+ * [--json FILE|-]`: passes or fails a change against the previous report, the committed one.
+ * ("Baseline" is the majority/mean learner; the gate's committed report is the "previous"
+ * report. The flag was --baseline before format 2; that spelling fails naming --previous.)
  *
  * The rule (src/compare/gate.ts and gate-rule.ts): fail only when a one-sided corrected t test
  * rejects H0 "drop <= max-drop" at alpha (paired by (repeat, fold) when the runs share their
@@ -10,13 +12,13 @@
  * --json -) and is appended to the file named by the environment variable GITHUB_STEP_SUMMARY,
  * when set (read from io.env).
  *
- * The baseline file is never written, except by --accept on a passing gate: then the current
+ * The previous report's file is never written, except by --accept on a passing gate: then the current
  * report's text replaces it atomically (writeFileAtomic). Exit codes: 0 pass, 1 fail,
  * 2 not comparable or bad input (a not-comparable verdict is still printed and appended).
  */
 import { appendFileSync } from 'node:fs';
 import { resolve } from 'node:path';
-import type { Command } from 'commander';
+import { type Command, Option } from 'commander';
 import { DEFAULT_ALPHA, DEFAULT_MAX_DROP, gateReports } from '../compare/gate.js';
 import { NotComparableError } from '../compare/match-reports.js';
 import { readReport } from '../compare/read-report.js';
@@ -27,7 +29,9 @@ import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import type { Io } from './run.js';
 
 interface GateFlags {
-  baseline: string;
+  previous?: string;
+  /** the flag's name before format 2: refused with the new name */
+  baseline?: string;
   current: string;
   metric?: string;
   learner?: string;
@@ -63,8 +67,11 @@ function runGate(flags: GateFlags, io: Io): number {
   const alpha = parseNumberOption(flags.alpha, '--alpha', 'a number above 0 and below 0.5 (such as 0.05)');
   const absoluteMin = flags.absoluteMin === undefined ? undefined : parseNumberOption(flags.absoluteMin, '--absolute-min', "a number, in the metric's units");
   if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.accept) checkWritable(flags.baseline, '--baseline');
-  const base = readReport(flags.baseline, 'gate --baseline');
+  if (flags.baseline !== undefined) throw new UsageError(`gate --baseline is now --previous (the committed report; "baseline" names the majority/mean learner): write --previous ${flags.baseline}`);
+  if (flags.previous === undefined) throw new UsageError("gate: required option '--previous <file>' not specified: the committed report to gate against");
+  const previous = flags.previous;
+  if (flags.accept) checkWritable(previous, '--previous');
+  const base = readReport(previous, 'gate --previous');
   const cur = readReport(flags.current, 'gate --current');
   const toStdout = flags.json !== '-';
 
@@ -81,7 +88,7 @@ function runGate(flags: GateFlags, io: Io): number {
   }
   if (flags.accept) {
     const accepted = verdict.verdict === 'pass';
-    if (accepted && resolve(flags.baseline) !== resolve(flags.current)) writeFileAtomic(flags.baseline, cur.text, '--baseline');
+    if (accepted && resolve(previous) !== resolve(flags.current)) writeFileAtomic(previous, cur.text, '--previous');
     verdict = { ...verdict, accepted };
   }
   for (const w of verdict.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
@@ -99,17 +106,18 @@ function runGate(flags: GateFlags, io: Io): number {
 export function registerGate(prog: Command, io: Io, setCode: (code: number) => void): void {
   prog
     .command('gate')
-    .description('pass or fail a change: a current eval report against a committed baseline, failing only on a drop beyond fold noise')
-    .requiredOption('--baseline <file>', 'the committed baseline JSON report (never written, except by --accept on a pass)')
+    .description('pass or fail a change: a current eval report against the previous (committed) report, failing only on a drop beyond fold noise')
+    .option('--previous <file>', 'the previous JSON report, the committed one (never written, except by --accept on a pass)')
+    .addOption(new Option('--baseline <file>').hideHelp())
     .requiredOption('--current <file>', 'the JSON report of the run under test')
-    .option('--metric <name>', "the metric to gate on (default: the baseline's headline)")
-    .option('--learner <spec>', "the learner to gate (default: the baseline report's best, the baseline learner left out)")
+    .option('--metric <name>', "the metric to gate on (default: the previous report's headline)")
+    .option('--learner <spec>', "the learner to gate (default: the previous report's best, the baseline learner left out)")
     .option('--current-learner <spec>', 'the learner in the current report, when its spec differs (default: the same spec)')
     .option('--max-drop <d>', "allowed drop in the metric's units, in its worse direction", String(DEFAULT_MAX_DROP))
     .option('--alpha <a>', 'one-sided level of the test that the drop exceeds --max-drop beyond fold noise', String(DEFAULT_ALPHA))
     .option('--absolute-min <x>', 'also fail when the current mean is worse than this limit (a floor; a ceiling for lower-is-better metrics)')
-    .option('--accept', 'when the gate passes, replace the baseline file by the current report, atomically')
-    .option('--json <file>', 'write the verdict as JSON (format foldwise-gate/1) to a file, or - for standard output')
+    .option('--accept', 'when the gate passes, replace the previous report by the current one, atomically')
+    .option('--json <file>', 'write the verdict as JSON (format foldwise-gate/2) to a file, or - for standard output')
     .option('--verbose', 'print stack traces of errors')
     .action((flags: GateFlags) => setCode(runGate(flags, io)));
 }

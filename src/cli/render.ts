@@ -1,8 +1,8 @@
 /**
  * `foldwise render REPORT.json --html OUT.html`: turns a JSON file written by foldwise into one
- * self-contained HTML page (src/report/html): an eval report (format foldwise-report/1, read
- * and validated as compare and gate read it), a tune report (format foldwise-tune/1, validated
- * against schema/tune.schema.json) or a gate verdict (format foldwise-gate/1, validated against
+ * self-contained HTML page (src/report/html): an eval report (format foldwise-report/2, read
+ * and validated as compare and gate read it), a tune report (format foldwise-tune/2, validated
+ * against schema/tune.schema.json) or a gate verdict (format foldwise-gate/2, validated against
  * schema/gate.schema.json). `--html -` writes the page to standard output.
  * Exit codes: 0 written, 2 bad input or usage.
  */
@@ -12,6 +12,7 @@ import { readFileSync } from 'node:fs';
 import { readReport, schemaPath } from '../compare/read-report.js';
 import type { GateVerdict } from '../compare/types.js';
 import { EXIT_OK, InputError } from '../errors.js';
+import { refuseOldFormat } from '../renamed.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
 import type { TuneReport } from '../report/tune-types.js';
@@ -19,7 +20,7 @@ import { TUNE_SCHEMA } from '../search/tune.js';
 import { REPORT_SCHEMA } from '../version.js';
 import type { Io } from './run.js';
 
-const GATE_SCHEMA = 'foldwise-gate/1';
+const GATE_SCHEMA = 'foldwise-gate/2';
 
 interface RenderFlags {
   html: string;
@@ -56,6 +57,9 @@ export function renderFile(path: string): string {
     throw new InputError(`render ${path}: not JSON (${oneLine((e as Error).message, 100)}); give a file written by foldwise eval, tune or gate with --json`);
   }
   const schema = value !== null && typeof value === 'object' && !Array.isArray(value) ? (value as { schema?: unknown }).schema : undefined;
+  refuseOldFormat(`render ${path}`, schema, REPORT_SCHEMA, 'rerun foldwise eval with --json to write one');
+  refuseOldFormat(`render ${path}`, schema, GATE_SCHEMA, 'rerun foldwise gate with --json to write one');
+  refuseOldFormat(`render ${path}`, schema, TUNE_SCHEMA, 'rerun foldwise tune with --json to write one');
   if (schema === REPORT_SCHEMA) return renderEvalHtml(readReport(path, 'render').report);
   const check = (file: string, what: string): void => {
     const validate = validatorOf(file);

@@ -48,6 +48,7 @@ interface TuneFlags extends DataFlags, CommandFlags {
   predictionsKeep?: string[];
   timing: boolean;
   audit: boolean;
+  quiet?: boolean;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -91,7 +92,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
-  io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
+  if (!flags.quiet) io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
 
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
   const keep = flags.predictionsKeep ?? [];
@@ -152,5 +153,6 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--predictions-keep <column>', 'copy an input column into each line of the predictions file (repeatable)', collect)
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
     .option('--no-audit', 'skip the quick data audit that runs before the search')
+    .option('--quiet', 'no notes on standard error (warnings still print), as for eval')
     .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));
 }

@@ -1,12 +1,12 @@
 /**
- * The gate on two eval reports: the baseline (committed) and the current run.
+ * The gate on two eval reports: the previous one (committed) and the current run.
  *
  * Steps, each refusing with exit code 2 (InputError / UsageError) when it cannot go on:
  * 1. The reports must measure the same thing (match-reports.ts): same data.sha256, rowsUsed,
  *    target, task, metric set, group and order. A difference in plan.text, plan.seed or
  *    plan.stratified only means other folds: the unpaired rule is used, and labelled.
- * 2. The metric (--metric, default the baseline's headline) and the learner: --learner SPEC in
- *    both reports, or by default the baseline report's best learner on that metric, leaving out
+ * 2. The metric (--metric, default the previous report's headline) and the learner: --learner SPEC in
+ *    both reports, or by default the previous report's best learner on that metric, leaving out
  *    the baseline learner unless it is the only one; --current-learner SPEC names a different
  *    learner in the current report (e.g. after an option change).
  * 3. Every fold of both learners must have a score of the metric: a report with a failed fold
@@ -28,7 +28,7 @@ import { baselineOf, bestBy, findLearner } from './select.js';
 import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest } from './gate-rule.js';
 import type { GateVerdict } from './types.js';
 
-export const GATE_SCHEMA = 'foldwise-gate/1';
+export const GATE_SCHEMA = 'foldwise-gate/2';
 export const DEFAULT_MAX_DROP = 0;
 export const DEFAULT_ALPHA = 0.05;
 
@@ -86,7 +86,7 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   const higherIsBetter = getMetric(metric).higherIsBetter;
 
   let bl: LearnerReport;
-  if (options.learner !== undefined) bl = findLearner(b, options.learner, '--learner', `the baseline report ${base.path}`);
+  if (options.learner !== undefined) bl = findLearner(b, options.learner, '--learner', `the previous report ${base.path}`);
   else {
     const baseLearner = baselineOf(b);
     const pick = bestBy(b, metric, higherIsBetter, (l) => l !== baseLearner) ?? bestBy(b, metric, higherIsBetter);
@@ -131,7 +131,7 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
     improvement: test.improvement,
     metric,
     higherIsBetter,
-    baseline: { path: base.path, learner: bl.spec, folds: test.baselineFolds, mean: test.baselineMean },
+    previous: { path: base.path, learner: bl.spec, folds: test.baselineFolds, mean: test.baselineMean },
     current: { path: cur.path, learner: cl.spec, folds: test.currentFolds, mean: test.currentMean },
     rule: test.rule,
     unpairedBecause: test.rule === 'paired' ? [] : unpairedBecause,

@@ -1,7 +1,7 @@
 /**
  * Reads an eval report file for compare and gate, refusing anything that is not one: a missing
  * or unreadable file, text that is not JSON, or JSON that does not validate against
- * schema/report.schema.json (format foldwise-report/1). Every refusal is an InputError of one
+ * schema/report.schema.json (format foldwise-report/2). Every refusal is an InputError of one
  * line naming the file: "<label> <path>: <what is wrong>".
  *
  * The schema is found by walking up from this module's folder to the first folder holding
@@ -12,6 +12,7 @@ import { existsSync, readFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../errors.js';
+import { refuseOldFormat } from '../renamed.js';
 import type { Report } from '../report/types.js';
 import { REPORT_SCHEMA } from '../version.js';
 
@@ -67,6 +68,7 @@ export function readReport(path: string, label: string): LoadedReport {
     throw new InputError(`${where}: not a foldwise eval report (the JSON is not an object)`);
   }
   const schema = (value as { schema?: unknown }).schema;
+  refuseOldFormat(where, schema, REPORT_SCHEMA, 'rerun foldwise eval with --json to write one');
   if (schema !== REPORT_SCHEMA) {
     throw new InputError(`${where}: not a foldwise eval report (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}, expected "${REPORT_SCHEMA}")`);
   }

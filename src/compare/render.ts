@@ -66,16 +66,16 @@ export function renderCompareMarkdown(c: CrossComparison): string {
 export function renderGateMarkdown(v: GateVerdict): string {
   const m = cell(v.metric);
   const confidence = `${Math.round((1 - v.alpha) * 1000) / 10}%`;
-  const learners = v.baseline.learner === v.current.learner ? cell(v.current.learner) : `${cell(v.baseline.learner)} -> ${cell(v.current.learner)}`;
+  const learners = v.previous.learner === v.current.learner ? cell(v.current.learner) : `${cell(v.previous.learner)} -> ${cell(v.current.learner)}`;
   const folds =
     v.rule === 'paired'
       ? `${v.current.folds} folds paired by repeat and fold`
-      : `${v.baseline.folds} baseline and ${v.current.folds} current folds, NOT paired`;
+      : `${v.previous.folds} previous and ${v.current.folds} current folds, NOT paired`;
   const out = [
     `### foldwise gate: ${v.verdict === 'pass' ? 'PASS' : 'FAIL'}`,
     '',
-    `- **Compared:** ${learners} on ${m} (${direction(v.higherIsBetter)}), baseline ${cell(v.baseline.path)} -> current ${cell(v.current.path)}; ${folds}`,
-    `- **Score:** ${num(v.baseline.mean)} -> ${num(v.current.mean)}, change ${signed(v.change)} (95% interval ${signed(v.ci95[0])} to ${signed(v.ci95[1])}, corrected)`,
+    `- **Compared:** ${learners} on ${m} (${direction(v.higherIsBetter)}), previous ${cell(v.previous.path)} -> current ${cell(v.current.path)}; ${folds}`,
+    `- **Score:** ${num(v.previous.mean)} -> ${num(v.current.mean)}, change ${signed(v.change)} (95% interval ${signed(v.ci95[0])} to ${signed(v.ci95[1])}, corrected)`,
   ];
   const test = `one-sided ${v.rule === 'paired' ? 'corrected' : 'Welch'} t test of "drop <= ${limit(v.maxDrop)}" at alpha ${limit(v.alpha)}: ${v.t === null ? 'no spread' : `t = ${v.t.toFixed(2)}`}, df ${Number.isInteger(v.df) ? v.df : v.df.toFixed(1)}, p = ${pValue(v.p)}`;
   if (v.rule === 'paired') {
@@ -106,7 +106,7 @@ export function renderGateMarkdown(v: GateVerdict): string {
   }
   out.push(`- **Verdict:** ${v.verdict}: ${why}`);
   if (v.accepted !== undefined) {
-    out.push(v.accepted ? `- **Baseline:** replaced by the current report (--accept)` : `- **Baseline:** kept; --accept replaces it only when the gate passes`);
+    out.push(v.accepted ? `- **Previous report:** replaced by the current report (--accept)` : `- **Previous report:** kept; --accept replaces it only when the gate passes`);
   }
   for (const w of v.warnings) out.push(`- Warning: ${cell(w)}`);
   out.push('');
@@ -119,7 +119,7 @@ export function renderNotComparableMarkdown(reason: string): string {
     '### foldwise gate: NOT COMPARABLE',
     '',
     `- ${cell(reason)}; no verdict (exit code 2)`,
-    '- Re-run eval with the baseline\'s data, target, task, metrics, group and order; or, when the change is intended, replace the baseline by copying the current report over it',
+    '- Re-run eval with the previous report\'s data, target, task, metrics, group and order; or, when the change is intended, replace the previous report by copying the current report over it',
     '',
   ].join('\n');
 }

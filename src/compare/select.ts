@@ -4,7 +4,7 @@
  * The best learner has the best mean of the metric's fold scores (the report's summary), in the
  * metric's better direction; the first one wins a tie; learners with no score are never best.
  * A learner is named by its canonical spec as the report prints it ("knn:k=7"); other spellings
- * of the same options ("knn:k=7,weights=uniform" with a default) are canonicalised through the
+ * of the same options ("knn:k=7,vote=equal" with a default) are canonicalised through the
  * learner registry before matching.
  */
 import { closeNames, UsageError } from '../errors.js';

@@ -97,23 +97,24 @@ export interface CrossComparison {
   readonly warnings: readonly string[];
 }
 
-/** A gate verdict (format foldwise-gate/1, JSON Schema in schema/gate.schema.json). */
+/** A gate verdict (format foldwise-gate/2, JSON Schema in schema/gate.schema.json). */
 export interface GateVerdict {
-  readonly schema: 'foldwise-gate/1';
+  readonly schema: 'foldwise-gate/2';
   readonly verdict: 'pass' | 'fail';
   /** why it failed: a drop beyond fold noise, and/or the current score worse than --absolute-min */
   readonly reasons: readonly ('regression' | 'floor')[];
-  /** the current score is better than the baseline beyond fold noise (one-sided test at alpha) */
+  /** the current score is better than the previous one beyond fold noise (one-sided test at alpha) */
   readonly improvement: boolean;
   readonly metric: string;
   readonly higherIsBetter: boolean;
-  readonly baseline: GateSide;
+  /** the previous report: the committed one the gate compares against (--previous) */
+  readonly previous: GateSide;
   readonly current: GateSide;
   /** paired by (repeat, fold), or the unpaired fallback when the runs used different folds */
   readonly rule: 'paired' | 'unpaired';
   /** for the unpaired rule: what made the folds differ (e.g. "plan.seed (1 vs 2)") */
   readonly unpairedBecause: readonly string[];
-  /** current mean minus baseline mean, in the metric's units */
+  /** current mean minus previous mean, in the metric's units */
   readonly change: number;
   /** corrected 95% interval of change */
   readonly ci95: readonly [number, number];
@@ -130,7 +131,7 @@ export interface GateVerdict {
   readonly p: number;
   /** the --absolute-min limit, or null */
   readonly absoluteMin: number | null;
-  /** present when --accept was given: whether the baseline file was replaced */
+  /** present when --accept was given: whether the previous report's file was replaced */
   readonly accepted?: boolean;
   readonly warnings: readonly string[];
 }

@@ -15,7 +15,7 @@
 import { InputError } from '../errors.js';
 import { METRICS, type MetricName } from '../metrics/index.js';
 import { mae } from '../metrics/mae.js';
-import * as medianAbsolute from '../metrics/median-absolute-error.js';
+import * as medianAbsolute from '../metrics/medae.js';
 import { readOptions, stringOption } from './cart/options.js';
 import type { Learner, Matrix, Model, ParamSpec } from './types.js';
 
@@ -68,7 +68,7 @@ function model(json: BaselineJSON): Model {
   for (let c = 1; c < values.length; c++) if (values[c] > values[best]) best = c;
   return {
     predict: (X: Matrix) => new Int32Array(X.rows).fill(best),
-    predictProba: (X: Matrix) => {
+    probabilities: (X: Matrix) => {
       const out = new Float64Array(X.rows * values.length);
       for (let i = 0; i < X.rows; i++) out.set(values, i * values.length);
       return out;

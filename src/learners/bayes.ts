@@ -35,7 +35,7 @@ function model(json: BayesJSON): Model {
     for (let j = 0; j < p; j++) s -= 0.5 * Math.log(2 * Math.PI * varr[k][j]);
     return s;
   });
-  const proba = (X: Matrix): Float64Array => {
+  const probs = (X: Matrix): Float64Array => {
     if (X.cols !== p) throw new InputError(`bayes: ${X.cols} feature columns, the model has ${p}`);
     const out = new Float64Array(X.rows * C);
     const lp = new Float64Array(present.length);
@@ -57,8 +57,8 @@ function model(json: BayesJSON): Model {
     return out;
   };
   return {
-    predict: (X) => argmaxRows(proba(X), C),
-    predictProba: proba,
+    predict: (X) => argmaxRows(probs(X), C),
+    probabilities: probs,
     toJSON: () => json,
   };
 }
@@ -72,7 +72,7 @@ export const bayes: Learner = {
       kind: 'number',
       min: 0,
       max: 1,
-      default: 1e-9,
+      default: 1e-6,
       simpler: 'higher',
       doc: 'added to every variance, as a fraction of the largest feature variance',
     },

@@ -40,7 +40,7 @@ function wrap(saved: SavedRef, rf: RefForest): Model {
     return { predict: (X) => Float64Array.from(rf.predict(rowsOf(X))), toJSON: () => saved };
   }
   const C = saved.classes;
-  const proba = (X: Matrix): Float64Array => {
+  const probs = (X: Matrix): Float64Array => {
     const votes = rf.predictionValues(rowsOf(X));
     const out = new Float64Array(X.rows * C);
     for (let i = 0; i < X.rows; i++) {
@@ -50,8 +50,8 @@ function wrap(saved: SavedRef, rf: RefForest): Model {
     return out;
   };
   return {
-    predict: (X) => argmaxRows(proba(X), C),
-    predictProba: proba,
+    predict: (X) => argmaxRows(probs(X), C),
+    probabilities: probs,
     toJSON: () => saved,
   };
 }

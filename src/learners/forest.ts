@@ -17,7 +17,7 @@
  * Missing values: fit throws InputError on NaN or infinite features (impute first); predict
  * sends NaN to the left child (x <= threshold is taken as "not x > threshold").
  * Model extras: importance() (mean decrease in impurity, summing to 1), predictPrefix(X, k),
- * predictProbaPrefix(X, k), treeSizes(); see cart/model.ts.
+ * probabilitiesPrefix(X, k), treeSizes(); see cart/model.ts.
  */
 import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from './types.js';
 import { MAX_BINS } from './cart/bins.js';
@@ -37,7 +37,7 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
     name: 'trees',
     kind: 'int',
     min: 1,
-    default: 100,
+    default: 200,
     simpler: 'lower',
     doc: 'number of trees',
   },
@@ -50,7 +50,7 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
     doc: 'maximum depth of a tree (a cap: trees stop earlier when their leaves are pure)',
   },
   {
-    name: 'minLeaf',
+    name: 'min-leaf',
     kind: 'int',
     min: 1,
     default: 1,
@@ -60,14 +60,14 @@ export const FOREST_PARAMS: readonly ParamSpec[] = [
   {
     name: 'features',
     kind: 'text',
-    default: 'auto',
+    default: 'breiman',
     parse: parseFeatureCount,
     doc:
-      'features drawn at each split: auto (sqrt(p) for classification, p/3 for regression), ' +
+      'features drawn at each split: breiman (sqrt(p) for classification, p/3 for regression), ' +
       'sqrt, log2, all, frac:F (0 < F <= 1) or count:M (M >= 1, capped at p)',
   },
   {
-    name: 'criterion',
+    name: 'impurity',
     kind: 'choice',
     choices: ['gini', 'entropy'],
     default: 'gini',
@@ -102,7 +102,7 @@ export const forest: Learner = {
   doc: 'random forest (Breiman 2001): bootstrap samples, random features at every split',
   fit(X: Matrix, y: Target, params: Params, ctx: FitContext): CartModel {
     const o = readOptions('forest', FOREST_PARAMS, params);
-    const crit = stringOption(o, 'criterion');
+    const crit = stringOption(o, 'impurity');
     return makeModel(
       fitCart(
         'forest',
@@ -111,9 +111,9 @@ export const forest: Learner = {
         {
           trees: numberOption(o, 'trees'),
           depth: numberOption(o, 'depth'),
-          minLeaf: numberOption(o, 'minLeaf'),
+          minLeaf: numberOption(o, 'min-leaf'),
           features: stringOption(o, 'features'),
-          criterion: crit === 'entropy' ? 'entropy' : 'gini',
+          impurity: crit === 'entropy' ? 'entropy' : 'gini',
           bins: numberOption(o, 'bins'),
           bootstrap: true,
           sample: stringOption(o, 'sample'),

@@ -9,7 +9,7 @@
  *
  * Deterministic tie rules:
  * - equal distances: the training row that comes first wins a place among the k;
- * - classification: each neighbour votes 1 (`weights=uniform`) or 1/d (`weights=distance`;
+ * - classification: each neighbour votes 1 (`vote=equal`) or 1/d (`vote=inverse`;
  *   when any neighbour is at distance 0, only those at distance 0 vote, 1 each). The class with
  *   the largest vote wins; on a tied vote, the tied class of the nearest neighbour wins.
  * - regression: the mean of the neighbours' values, or their 1/d-weighted mean.
@@ -18,13 +18,13 @@
 import { InputError } from '../errors.js';
 import type { Learner, Matrix, Model, Target } from './types.js';
 
-export const KNN_WEIGHTS = ['uniform', 'distance'] as const;
-type Weights = (typeof KNN_WEIGHTS)[number];
+export const KNN_VOTES = ['equal', 'inverse'] as const;
+type Vote = (typeof KNN_VOTES)[number];
 
 interface KnnJSON {
   readonly learner: 'knn';
   readonly k: number;
-  readonly weights: Weights;
+  readonly vote: Vote;
   readonly task: 'classification' | 'regression';
   readonly classes: number;
   readonly cols: number;
@@ -106,8 +106,8 @@ export function nearest(train: Matrix, queries: Matrix, k: number): { index: Int
 }
 
 /** Neighbour weights for one query: 1 each, or 1/d with the distance-0 rule. */
-function weightsOf(dist2: Float64Array, base: number, k: number, mode: Weights, out: Float64Array): void {
-  if (mode === 'uniform') {
+function weightsOf(dist2: Float64Array, base: number, k: number, mode: Vote, out: Float64Array): void {
+  if (mode === 'equal') {
     out.fill(1, 0, k);
     return;
   }
@@ -130,12 +130,12 @@ export interface NeighbourList {
 }
 
 /**
- * Predictions of the knn model with `k` neighbours and `weights`, made from a neighbour list
+ * Predictions of the knn model with `k` neighbours and `vote`, made from a neighbour list
  * found once for a larger k (the search in `foldwise tune` scores every k of a grid and both
  * weightings from one list). The list of the K nearest is sorted by (distance, training row),
  * so its first k entries are exactly the list `nearest` gives for k; the votes, the 1/d weights
  * with the distance-0 rule and the tie rule below are those of the model's predict and
- * predictProba, step for step, so the results are identical (test/search/knn-shared.test.ts).
+ * probabilities, step for step, so the results are identical (test/search/knn-shared.test.ts).
  *
  * `y` holds the training targets as the model stores them (class codes as doubles, or values);
  * `trainRows` the number of training rows (k is capped at it, as in the model); `classes` is 0
@@ -147,8 +147,8 @@ export function predictFromNeighbours(
   trainRows: number,
   classes: number,
   k: number,
-  weights: (typeof KNN_WEIGHTS)[number],
-): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
+  vote: (typeof KNN_VOTES)[number],
+): { predicted: Int32Array | Float64Array; probs?: Float64Array } {
   const kk = Math.min(k, trainRows);
   if (!(kk >= 1 && kk <= list.stride)) {
     throw new InputError(`knn: ${k} neighbours asked from a list of ${list.stride} per query`);
@@ -158,7 +158,7 @@ export function predictFromNeighbours(
   if (classes === 0) {
     const out = new Float64Array(rows);
     for (let i = 0; i < rows; i++) {
-      weightsOf(dist2, i * stride, kk, weights, w);
+      weightsOf(dist2, i * stride, kk, vote, w);
       let s = 0;
       let ws = 0;
       for (let j = 0; j < kk; j++) {
@@ -172,7 +172,7 @@ export function predictFromNeighbours(
   const C = classes;
   const v = new Float64Array(rows * C);
   for (let i = 0; i < rows; i++) {
-    weightsOf(dist2, i * stride, kk, weights, w);
+    weightsOf(dist2, i * stride, kk, vote, w);
     for (let j = 0; j < kk; j++) v[i * C + y[index[i * stride + j]]] += w[j];
   }
   const predicted = new Int32Array(rows);
@@ -191,12 +191,12 @@ export function predictFromNeighbours(
     for (let c = 0; c < C; c++) s += v[i * C + c];
     for (let c = 0; c < C; c++) v[i * C + c] /= s;
   }
-  return { predicted, proba: v };
+  return { predicted, probs: v };
 }
 
 interface KnnState {
   readonly k: number;
-  readonly weights: Weights;
+  readonly vote: Vote;
   readonly task: 'classification' | 'regression';
   readonly classes: number;
   readonly train: Matrix;
@@ -204,14 +204,14 @@ interface KnnState {
 }
 
 function knnModel(st: KnnState): Model {
-  const { train, y, weights } = st;
+  const { train, y, vote } = st;
   const k = Math.min(st.k, train.rows);
   const C = st.classes;
   const w = new Float64Array(k);
   const toJSON = (): KnnJSON => ({
     learner: 'knn',
     k: st.k,
-    weights,
+    vote,
     task: st.task,
     classes: C,
     cols: train.cols,
@@ -223,7 +223,7 @@ function knnModel(st: KnnState): Model {
     const { index, dist2 } = nearest(train, X, k);
     const v = new Float64Array(X.rows * C);
     for (let i = 0; i < X.rows; i++) {
-      weightsOf(dist2, i * k, k, weights, w);
+      weightsOf(dist2, i * k, k, vote, w);
       for (let j = 0; j < k; j++) v[i * C + y[index[i * k + j]]] += w[j];
     }
     return { v, index };
@@ -235,7 +235,7 @@ function knnModel(st: KnnState): Model {
         const { index, dist2 } = nearest(train, X, k);
         const out = new Float64Array(X.rows);
         for (let i = 0; i < X.rows; i++) {
-          weightsOf(dist2, i * k, k, weights, w);
+          weightsOf(dist2, i * k, k, vote, w);
           let s = 0;
           let ws = 0;
           for (let j = 0; j < k; j++) {
@@ -266,7 +266,7 @@ function knnModel(st: KnnState): Model {
       }
       return out;
     },
-    predictProba(X) {
+    probabilities(X) {
       const { v } = votes(X);
       for (let i = 0; i < X.rows; i++) {
         let s = 0;
@@ -290,7 +290,7 @@ export const knn: Learner = {
   tasks: ['classification', 'regression'],
   params: [
     { name: 'k', kind: 'int', min: 1, max: 100_000, default: 5, simpler: 'higher', doc: 'number of neighbours' },
-    { name: 'weights', kind: 'choice', choices: KNN_WEIGHTS, default: 'uniform', doc: 'uniform votes or 1/distance' },
+    { name: 'vote', kind: 'choice', choices: KNN_VOTES, default: 'equal', doc: 'equal: one vote per neighbour; inverse: votes of 1/distance' },
   ],
   needsScaling: true,
   doc: 'k-nearest neighbours, brute force, Euclidean on standardised features',
@@ -299,7 +299,7 @@ export const knn: Learner = {
     const t = targetValues(y);
     return knnModel({
       k: Number(params.k),
-      weights: params.weights as Weights,
+      vote: params.vote as Vote,
       task: t.task,
       classes: t.classes,
       train: { rows: X.rows, cols: X.cols, data: X.data.slice() },
@@ -311,7 +311,7 @@ export const knn: Learner = {
     if (j?.learner !== 'knn') throw new InputError('knn: not a saved knn model');
     return knnModel({
       k: j.k,
-      weights: j.weights,
+      vote: j.vote,
       task: j.task,
       classes: j.classes,
       train: { rows: j.y.length, cols: j.cols, data: Float64Array.from(j.X) },

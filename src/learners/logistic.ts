@@ -302,7 +302,7 @@ function model(json: LogisticJSON): Model {
   const q = used.length;
   const P = q + 1;
   const theta = Float64Array.from(json.theta);
-  const proba = (X: Matrix): Float64Array => {
+  const probs = (X: Matrix): Float64Array => {
     if (X.cols !== cols) throw new InputError(`logistic: ${X.cols} feature columns, the model has ${cols}`);
     const out = new Float64Array(X.rows * C);
     const eta = new Float64Array(K);
@@ -323,15 +323,15 @@ function model(json: LogisticJSON): Model {
     return out;
   };
   return {
-    predict: (X) => argmaxRows(proba(X), C),
-    predictProba: proba,
+    predict: (X) => argmaxRows(probs(X), C),
+    probabilities: probs,
     toJSON: () => json,
   };
 }
 
 export const LOGISTIC_PARAMS: readonly ParamSpec[] = [
-  { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
-  { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 100, simpler: 'lower', doc: 'at most this many Newton steps (each solved by conjugate gradients)' },
+  { name: 'l2', kind: 'number', min: 0, max: 1e12, default: 0.1, simpler: 'higher', doc: 'L2 penalty on the coefficients of the standardised features' },
+  { name: 'iterations', kind: 'int', min: 1, max: 10_000, default: 50, simpler: 'lower', doc: 'at most this many Newton steps (each solved by conjugate gradients)' },
   REBALANCE_SPEC,
 ];
 

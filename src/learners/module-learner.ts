@@ -5,7 +5,7 @@
  *     params?: ParamSpec[]       (name, kind int|number|choice, limits, default, simpler, doc),
  *     needsScaling?: boolean     (true: foldwise standardises numeric features per fold),
  *     doc?: string,
- *     fit(X, y, params, ctx) -> { predict(X), predictProba?(X), toJSON?() },
+ *     fit(X, y, params, ctx) -> { predict(X), probabilities?(X), toJSON?() },
  *     load?(json) -> model }
  * X is { rows, cols, data: Float64Array } row-major; y is { task, codes, classes } or
  * { task, values }; ctx is { rng, seed }. fit and predict are synchronous.
@@ -51,11 +51,26 @@ function checkParams(where: string, raw: unknown): ParamSpec[] {
   });
 }
 
+/** The names of an object's function properties, its prototypes' included (not Object's). */
+function methodNames(o: object): string[] {
+  const out: string[] = [];
+  for (let p: object | null = o; p && p !== Object.prototype; p = Object.getPrototypeOf(p)) {
+    for (const k of Object.getOwnPropertyNames(p)) if (typeof (o as Record<string, unknown>)[k] === 'function') out.push(k);
+  }
+  return out;
+}
+
 /** Wraps a model of the module so every output is checked and typed. */
 function checkedModel(name: string, inner: unknown, task: Task, classes: number): Model {
-  const m = inner as { predict?: unknown; predictProba?: unknown; toJSON?: unknown; then?: unknown };
+  const m = inner as { predict?: unknown; probabilities?: unknown; toJSON?: unknown; then?: unknown };
   if (m && typeof m.then === 'function') throw new InputError(`${name}: fit returned a Promise; fit must be synchronous`);
   if (!m || typeof m.predict !== 'function') throw new InputError(`${name}: fit must return an object with a predict(X) function`);
+  if (typeof m.probabilities !== 'function') {
+    // foldwise 0.1 read class probabilities from a differently named predict... method: say so
+    // rather than silently scoring without probabilities
+    const old = methodNames(m).find((k) => /^predict.+/.test(k));
+    if (old) throw new InputError(`${name}: the model has ${old}(X) but no probabilities(X); foldwise reads class probabilities from probabilities(X): rename the method`);
+  }
   const predict = (X: Matrix): Int32Array | Float64Array => {
     const out = (m.predict as (X: Matrix) => ArrayLike<number>)(X);
     if (!out || typeof out.length !== 'number' || out.length !== X.rows) throw new InputError(`${name}: predict returned ${out?.length ?? 'no'} values for ${X.rows} rows`);
@@ -74,19 +89,19 @@ function checkedModel(name: string, inner: unknown, task: Task, classes: number)
     predict,
     toJSON: () => ({ learner: name, model: typeof m.toJSON === 'function' ? (m.toJSON as () => unknown)() : null }),
   };
-  if (task === 'classification' && typeof m.predictProba === 'function') {
-    model.predictProba = (X: Matrix) => {
-      const out = (m.predictProba as (X: Matrix) => ArrayLike<number>)(X);
-      if (!out || out.length !== X.rows * classes) throw new InputError(`${name}: predictProba returned ${out?.length ?? 'no'} values for ${X.rows} rows x ${classes} classes`);
+  if (task === 'classification' && typeof m.probabilities === 'function') {
+    model.probabilities = (X: Matrix) => {
+      const out = (m.probabilities as (X: Matrix) => ArrayLike<number>)(X);
+      if (!out || out.length !== X.rows * classes) throw new InputError(`${name}: probabilities returned ${out?.length ?? 'no'} values for ${X.rows} rows x ${classes} classes`);
       const p = Float64Array.from(out);
       for (let i = 0; i < X.rows; i++) {
         let s = 0;
         for (let c = 0; c < classes; c++) {
           const v = p[i * classes + c];
-          if (!(v >= 0 && v <= 1)) throw new InputError(`${name}: predictProba row ${i + 1}: ${v} is not a probability`);
+          if (!(v >= 0 && v <= 1)) throw new InputError(`${name}: probabilities row ${i + 1}: ${v} is not a probability`);
           s += v;
         }
-        if (Math.abs(s - 1) > PROBA_TOL) throw new InputError(`${name}: predictProba row ${i + 1} sums to ${s}, not 1`);
+        if (Math.abs(s - 1) > PROBA_TOL) throw new InputError(`${name}: probabilities row ${i + 1} sums to ${s}, not 1`);
       }
       return p;
     };

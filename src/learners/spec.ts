@@ -11,6 +11,7 @@
  * fails at once with a message naming the option and its limit.
  */
 import { closeNames, UsageError } from '../errors.js';
+import { renamedOptionMessage, renamedValueMessage } from '../renamed.js';
 import type { Learner, Params, ParamSpec, ParamValue, Task } from './types.js';
 
 export interface LearnerSpec {
@@ -119,12 +120,16 @@ export function resolveParams(learner: Learner, spec: LearnerSpec, task: Task): 
       continue;
     }
     if (!p) {
+      const renamed = renamedOptionMessage(learner.name, key, raw, `--learner ${spec.text}`);
+      if (renamed) throw new UsageError(renamed);
       const names = learner.params.map((q) => q.name);
       const hint = closeNames(key, names);
       throw new UsageError(
         `--learner ${spec.text}: unknown option "${key}" for ${learner.name}${hint ? `; ${hint}` : ''} (options: ${names.join(', ') || 'none'})`,
       );
     }
+    const renamed = renamedValueMessage(learner.name, key, raw, `--learner ${spec.text}`);
+    if (renamed) throw new UsageError(renamed);
     params[key] = parseValue(learner.name, p, raw);
   }
   const refusal = learner.checkParams?.(params, task);

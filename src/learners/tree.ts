@@ -3,7 +3,7 @@
  * Trees", Wadsworth), grown from the same code as `forest` (cart/grow.ts) on all training rows,
  * considering every feature at every node. Classification leaves give class shares as
  * probabilities; regression leaves give the mean. No pruning: the tree grows until its leaves
- * are pure, `depth` is reached or a leaf would hold fewer than `minLeaf` rows.
+ * are pure, `depth` is reached or a leaf would hold fewer than `min-leaf` rows.
  * Thresholds lie halfway between neighbouring training values; features with more than `bins`
  * distinct values are first cut into `bins` quantile bins (see cart/bins.ts).
  * The tree uses no randomness: ties between equally good splits go to the lowest feature
@@ -25,8 +25,8 @@ const shared = (name: string): ParamSpec => {
 
 export const TREE_PARAMS: readonly ParamSpec[] = [
   shared('depth'),
-  { ...shared('minLeaf'), doc: 'minimum number of training rows in a leaf' } as ParamSpec,
-  shared('criterion'),
+  { ...shared('min-leaf'), doc: 'minimum number of training rows in a leaf' } as ParamSpec,
+  shared('impurity'),
   shared('bins'),
   shared('rebalance'),
 ];
@@ -39,7 +39,7 @@ export const tree: Learner = {
   doc: 'one CART decision tree (Breiman et al. 1984), unpruned, capped by depth and leaf size',
   fit(X: Matrix, y: Target, params: Params, ctx: FitContext): CartModel {
     const o = readOptions('tree', TREE_PARAMS, params);
-    const crit = stringOption(o, 'criterion');
+    const crit = stringOption(o, 'impurity');
     return makeModel(
       fitCart(
         'tree',
@@ -48,9 +48,9 @@ export const tree: Learner = {
         {
           trees: 1,
           depth: numberOption(o, 'depth'),
-          minLeaf: numberOption(o, 'minLeaf'),
+          minLeaf: numberOption(o, 'min-leaf'),
           features: 'all',
-          criterion: crit === 'entropy' ? 'entropy' : 'gini',
+          impurity: crit === 'entropy' ? 'entropy' : 'gini',
           bins: numberOption(o, 'bins'),
           bootstrap: false,
           rebalance: stringOption(o, 'rebalance'),

@@ -85,7 +85,7 @@ export interface Model {
   /** Class codes (Int32Array) for classification, values (Float64Array) for regression. */
   predict(X: Matrix): Int32Array | Float64Array;
   /** Row-major rows x classes probabilities, each row summing to 1 (classification only). */
-  predictProba?(X: Matrix): Float64Array;
+  probabilities?(X: Matrix): Float64Array;
   /** A plain-JSON form that `Learner.load` turns back into an equal model. */
   toJSON(): unknown;
   /**

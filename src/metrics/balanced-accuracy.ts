@@ -16,7 +16,7 @@ import { classTallies } from './tally.js';
 import type { ClassificationInput } from './types.js';
 
 export function balancedAccuracy(input: ClassificationInput): number {
-  checkClassification('balanced_accuracy', input);
+  checkClassification('balanced-accuracy', input);
   const t = classTallies(input.actual, input.predicted, input.classes);
   let sum = 0;
   let classes = 0;

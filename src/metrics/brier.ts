@@ -19,14 +19,14 @@ import { checkProbabilities } from './checks.js';
 import type { ClassificationInput } from './types.js';
 
 export function brier(input: ClassificationInput): number {
-  const proba = checkProbabilities('brier', input);
+  const probs = checkProbabilities('brier', input);
   const { actual, classes } = input;
   let sum = 0;
   for (let i = 0; i < actual.length; i++) {
     const row = i * classes;
     const y = actual[i];
     for (let k = 0; k < classes; k++) {
-      const d = proba[row + k] - (k === y ? 1 : 0);
+      const d = probs[row + k] - (k === y ? 1 : 0);
       sum += d * d;
     }
   }

@@ -7,9 +7,9 @@
  *   accuracy: actual and predicted must not be empty
  *   accuracy: classes must be a positive integer (got 0)
  *   accuracy: actual[5] = 7 is not a class code in 0..2
- *   log_loss: needs class probabilities, but proba is missing
- *   log_loss: proba must have 3 x 2 = 6 entries (got 5)
- *   log_loss: proba at row 1, class 0 is 1.5, not a probability in [0, 1]
+ *   log-loss: needs class probabilities, but probs is missing
+ *   log-loss: probs must have 3 x 2 = 6 entries (got 5)
+ *   log-loss: probs at row 1, class 0 is 1.5, not a probability in [0, 1]
  *   rmse: predicted[2] is NaN, not a finite number
  *
  * Probabilities may overshoot [0, 1] by at most PROBA_SLACK (1e-9), to absorb rounding in a
@@ -47,27 +47,27 @@ export function checkClassification(name: string, input: ClassificationInput): v
 }
 
 /**
- * Everything `checkClassification` checks, plus: `proba` is present, has n x classes entries,
- * and every entry is a finite number in [0, 1] (within PROBA_SLACK). Returns `proba`.
+ * Everything `checkClassification` checks, plus: `probs` is present, has n x classes entries,
+ * and every entry is a finite number in [0, 1] (within PROBA_SLACK). Returns `probs`.
  */
 export function checkProbabilities(name: string, input: ClassificationInput): Float64Array {
   checkClassification(name, input);
-  const proba = input.proba;
-  if (proba === undefined) throw new InputError(`${name}: needs class probabilities, but proba is missing`);
+  const probs = input.probs;
+  if (probs === undefined) throw new InputError(`${name}: needs class probabilities, but probs is missing`);
   const n = input.actual.length;
   const k = input.classes;
-  if (proba.length !== n * k) {
-    throw new InputError(`${name}: proba must have ${n} x ${k} = ${n * k} entries (got ${proba.length})`);
+  if (probs.length !== n * k) {
+    throw new InputError(`${name}: probs must have ${n} x ${k} = ${n * k} entries (got ${probs.length})`);
   }
-  for (let i = 0; i < proba.length; i++) {
-    const p = proba[i];
+  for (let i = 0; i < probs.length; i++) {
+    const p = probs[i];
     // written so that NaN fails too
     if (!(p >= -PROBA_SLACK && p <= 1 + PROBA_SLACK)) {
       const row = Math.floor(i / k);
-      throw new InputError(`${name}: proba at row ${row}, class ${i - row * k} is ${p}, not a probability in [0, 1]`);
+      throw new InputError(`${name}: probs at row ${row}, class ${i - row * k} is ${p}, not a probability in [0, 1]`);
     }
   }
-  return proba;
+  return probs;
 }
 
 function checkFinite(name: string, which: 'actual' | 'predicted', values: Float64Array): void {

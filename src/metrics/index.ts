@@ -1,10 +1,11 @@
 /**
- * The metric registry: every metric foldwise knows, by its snake_case name, with its task,
+ * The metric registry: every metric foldwise knows, by its kebab-case name (short forms as in `mae`, `rmse`, `medae`), with its task,
  * whether it needs class probabilities, which direction is better and a one-line description.
  * Each metric is one pure function in its own file of this folder; see there for the formula,
  * the undefined cases and the source.
  */
 import { closeNames, UsageError } from '../errors.js';
+import { refuseOldMetric } from '../renamed.js';
 import { accuracy } from './accuracy.js';
 import { balancedAccuracy } from './balanced-accuracy.js';
 import { brier } from './brier.js';
@@ -15,7 +16,7 @@ import { macroPrecision } from './macro-precision.js';
 import { macroRecall } from './macro-recall.js';
 import { mae } from './mae.js';
 import { mcc } from './mcc.js';
-import { medianAbsoluteError } from './median-absolute-error.js';
+import { medae } from './medae.js';
 import { r2 } from './r2.js';
 import { rmse } from './rmse.js';
 import { rocAuc } from './roc-auc.js';
@@ -35,7 +36,7 @@ export {
   macroRecall,
   mae,
   mcc,
-  medianAbsoluteError,
+  medae,
   r2,
   rmse,
   rocAuc,
@@ -43,19 +44,19 @@ export {
 
 export const METRIC_NAMES = [
   'accuracy',
-  'balanced_accuracy',
-  'macro_precision',
-  'macro_recall',
-  'macro_f1',
+  'balanced-accuracy',
+  'macro-precision',
+  'macro-recall',
+  'macro-f1',
   'mcc',
   'kappa',
-  'log_loss',
+  'log-loss',
   'brier',
-  'roc_auc',
+  'roc-auc',
   'mae',
   'rmse',
   'r2',
-  'median_absolute_error',
+  'medae',
 ] as const;
 
 export type MetricName = (typeof METRIC_NAMES)[number];
@@ -83,25 +84,26 @@ function regression(
 
 export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metric>([
   classification('accuracy', accuracy, false, true, 'share of rows predicted correctly'),
-  classification('balanced_accuracy', balancedAccuracy, false, true, 'mean per-class recall over the classes present in actual'),
-  classification('macro_precision', macroPrecision, false, true, 'unweighted mean of per-class precision (never-predicted class counts 0)'),
-  classification('macro_recall', macroRecall, false, true, 'unweighted mean of per-class recall over classes in actual or predicted'),
-  classification('macro_f1', macroF1, false, true, 'unweighted mean of per-class F1 over classes in actual or predicted'),
+  classification('balanced-accuracy', balancedAccuracy, false, true, 'mean per-class recall over the classes present in actual'),
+  classification('macro-precision', macroPrecision, false, true, 'unweighted mean of per-class precision (never-predicted class counts 0)'),
+  classification('macro-recall', macroRecall, false, true, 'unweighted mean of per-class recall over classes in actual or predicted'),
+  classification('macro-f1', macroF1, false, true, 'unweighted mean of per-class F1 over classes in actual or predicted'),
   classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined'),
   classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined"),
-  classification('log_loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [1e-15, 1-1e-15]'),
+  classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [2^-53, 1-2^-53]'),
   classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)'),
-  classification('roc_auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
+  classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
   regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant'),
-  regression('median_absolute_error', medianAbsoluteError, false, 'median absolute error'),
+  regression('medae', medae, false, 'median absolute error'),
 ]);
 
 /** The metric called `name`; throws UsageError for an unknown name, with close names if any. */
 export function getMetric(name: string): Metric {
   const metric = METRICS.get(name as MetricName);
   if (metric !== undefined) return metric;
+  refuseOldMetric(name, METRIC_NAMES);
   const hint = closeNames(name, METRIC_NAMES);
   throw new UsageError(`--metric ${JSON.stringify(name)}: unknown metric; known: ${METRIC_NAMES.join(', ')}${hint ? `; ${hint}` : ''}`);
 }
@@ -109,6 +111,6 @@ export function getMetric(name: string): Metric {
 /** The metrics reported when the user names none. */
 export function defaultMetrics(task: Task): MetricName[] {
   return task === 'classification'
-    ? ['accuracy', 'balanced_accuracy', 'macro_f1', 'log_loss']
+    ? ['accuracy', 'balanced-accuracy', 'macro-f1', 'log-loss']
     : ['rmse', 'mae', 'r2'];
 }

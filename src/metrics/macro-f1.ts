@@ -15,6 +15,6 @@ import { meanOverPresent, perClassScores } from './per-class.js';
 import type { ClassificationInput } from './types.js';
 
 export function macroF1(input: ClassificationInput): number {
-  const s = perClassScores(input, 'macro_f1');
+  const s = perClassScores(input, 'macro-f1');
   return meanOverPresent(s.f1, s.present, s.presentCount);
 }

@@ -11,6 +11,6 @@ import { meanOverPresent, perClassScores } from './per-class.js';
 import type { ClassificationInput } from './types.js';
 
 export function macroPrecision(input: ClassificationInput): number {
-  const s = perClassScores(input, 'macro_precision');
+  const s = perClassScores(input, 'macro-precision');
   return meanOverPresent(s.precision, s.present, s.presentCount);
 }

@@ -1,6 +1,6 @@
 /**
  * Per-class precision, recall and F1, with the zero-denominator conventions used by the macro
- * averages (macro_precision, macro_recall, macro_f1):
+ * averages (macro-precision, macro-recall, macro-f1):
  *
  * - precision of class k = (rows predicted k that are k) / (rows predicted k);
  * - recall of class k    = (rows predicted k that are k) / (rows that are k);

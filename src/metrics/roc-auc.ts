@@ -26,17 +26,17 @@ import { checkProbabilities } from './checks.js';
 import type { ClassificationInput } from './types.js';
 
 export function rocAuc(input: ClassificationInput): number {
-  const proba = checkProbabilities('roc_auc', input);
+  const probs = checkProbabilities('roc-auc', input);
   const { actual, classes } = input;
   const n = actual.length;
   // two buffers reused for every class: scores of the positive rows, of the negative rows
   const pos = new Float64Array(n);
   const neg = new Float64Array(n);
-  if (classes === 2) return oneVsRest(actual, proba, 2, 1, pos, neg);
+  if (classes === 2) return oneVsRest(actual, probs, 2, 1, pos, neg);
   let sum = 0;
   let used = 0;
   for (let k = 0; k < classes; k++) {
-    const auc = oneVsRest(actual, proba, classes, k, pos, neg);
+    const auc = oneVsRest(actual, probs, classes, k, pos, neg);
     if (Number.isNaN(auc)) continue;
     sum += auc;
     used++;
@@ -47,7 +47,7 @@ export function rocAuc(input: ClassificationInput): number {
 /** AUC of column `positive` as a score for "actual = positive"; NaN without both kinds of rows. */
 function oneVsRest(
   actual: Int32Array,
-  proba: Float64Array,
+  probs: Float64Array,
   classes: number,
   positive: number,
   posBuf: Float64Array,
@@ -56,7 +56,7 @@ function oneVsRest(
   let nPos = 0;
   let nNeg = 0;
   for (let i = 0; i < actual.length; i++) {
-    const s = proba[i * classes + positive];
+    const s = probs[i * classes + positive];
     if (actual[i] === positive) posBuf[nPos++] = s;
     else negBuf[nNeg++] = s;
   }

@@ -3,12 +3,12 @@
  * says which task it belongs to, whether it needs probabilities, and which direction is better.
  */
 
-/** Inputs of a classification metric. `proba` is row-major n x classes, present when the model gives it. */
+/** Inputs of a classification metric. `probs` is row-major n x classes, present when the model gives it. */
 export interface ClassificationInput {
   readonly actual: Int32Array;
   readonly predicted: Int32Array;
   readonly classes: number;
-  readonly proba?: Float64Array;
+  readonly probs?: Float64Array;
 }
 
 export interface RegressionInput {

@@ -6,7 +6,7 @@
  * Size: every fold holds its own train and test row numbers, so a plan of F folds over n rows
  * holds about F * n of them. Before building, F must be at most MAX_FOLDS and F * n at most
  * MAX_PLAN_ROWS (512 MiB of 32-bit row numbers); a larger plan is a UsageError rather than an
- * out-of-memory crash (`shuffle:1000000000@0.2` asks for a billion folds).
+ * out-of-memory crash (`resplit:1000000000@0.2` asks for a billion folds).
  */
 import { UsageError } from '../errors.js';
 import { checkPlanInput } from './input.js';
@@ -15,7 +15,7 @@ import { buildForward } from './forward.js';
 import { buildHoldout } from './holdout.js';
 import { buildKfold } from './kfold.js';
 import { buildLoo } from './loo.js';
-import { buildShuffle } from './shuffle.js';
+import { buildResplit } from './resplit.js';
 import { checkPlanSpec } from './spec.js';
 import type { BuiltPlan, PlanInput, PlanSpec } from './types.js';
 
@@ -31,7 +31,7 @@ function foldCount(spec: PlanSpec, input: PlanInput): number {
       return Math.min(spec.k, input.n) * spec.repeats;
     case 'loo':
       return input.groups ? new Set(input.groups).size : input.n;
-    case 'shuffle':
+    case 'resplit':
       return spec.splits;
     case 'holdout':
       return 1;
@@ -43,7 +43,7 @@ function foldCount(spec: PlanSpec, input: PlanInput): number {
 function checkPlanSize(spec: PlanSpec, input: PlanInput): void {
   const folds = foldCount(spec, input);
   const label = `--plan ${formatPlan(spec)}`;
-  const fewer = spec.kind === 'loo' ? 'use kfold:K instead' : spec.kind === 'shuffle' ? 'use fewer splits' : 'use fewer folds or repeats';
+  const fewer = spec.kind === 'loo' ? 'use kfold:K instead' : spec.kind === 'resplit' ? 'use fewer splits' : 'use fewer folds or repeats';
   if (folds > MAX_FOLDS) throw new UsageError(`${label} would make ${folds} folds; at most ${MAX_FOLDS} are allowed; ${fewer}`);
   if (folds * input.n > MAX_PLAN_ROWS) {
     throw new UsageError(
@@ -61,8 +61,8 @@ export function buildPlan(spec: PlanSpec, input: PlanInput): BuiltPlan {
       return buildKfold(spec, input);
     case 'loo':
       return buildLoo(input);
-    case 'shuffle':
-      return buildShuffle(spec, input);
+    case 'resplit':
+      return buildResplit(spec, input);
     case 'holdout':
       return buildHoldout(spec, input);
     case 'forward':

@@ -1,6 +1,6 @@
 /**
  * Canonical text of a plan spec, the inverse of `parsePlan`: `kfold:K` (or `kfold:KxR` when
- * R > 1), `loo`, `shuffle:N@F`, `holdout:A/B/C`, `forward:K`. Fractions are written with
+ * R > 1), `loo`, `resplit:N@F`, `holdout:A/B/C`, `forward:K`. Fractions are written with
  * JavaScript's shortest round-trip number text (ECMA-262, Number::toString), so
  * `parsePlan(formatPlan(s))` gives back `s` field for field.
  */
@@ -12,8 +12,8 @@ export function formatPlan(spec: PlanSpec): string {
       return spec.repeats === 1 ? `kfold:${spec.k}` : `kfold:${spec.k}x${spec.repeats}`;
     case 'loo':
       return 'loo';
-    case 'shuffle':
-      return `shuffle:${spec.splits}@${String(spec.testFraction)}`;
+    case 'resplit':
+      return `resplit:${spec.splits}@${String(spec.testFraction)}`;
     case 'holdout':
       return `holdout:${String(spec.train)}/${String(spec.validation)}/${String(spec.holdout)}`;
     case 'forward':

@@ -8,7 +8,7 @@ export { buildPlan } from './build.js';
 export { checkPlanSpec, DEFAULT_KFOLD_K, HOLDOUT_SUM_TOLERANCE, PLAN_FORMS } from './spec.js';
 export { buildKfold } from './kfold.js';
 export { buildLoo } from './loo.js';
-export { buildShuffle } from './shuffle.js';
+export { buildResplit } from './resplit.js';
 export { buildHoldout } from './holdout.js';
 export { buildForward } from './forward.js';
 export { PLAN_KINDS } from './types.js';

@@ -5,7 +5,7 @@
  *   kfold:K          K folds (K >= 2)
  *   kfold:KxR        K folds, R repeats with a fresh shuffle each (R >= 1)
  *   loo              leave one out
- *   shuffle:N@F      N random splits, each testing on a fraction F of the rows (0 < F < 1)
+ *   resplit:N@F      N random splits, each testing on a fraction F of the rows (0 < F < 1)
  *   holdout:A/B/C    one split: train share A > 0, validation share B > 0, holdout share C >= 0,
  *                    A + B + C = 1 within 1e-9
  *   forward:K        K time-ordered folds over K + 1 blocks (K >= 1)
@@ -15,6 +15,7 @@
  * Malformed text throws a UsageError naming the option and the accepted forms.
  */
 import { closeNames, UsageError } from '../errors.js';
+import { renamedPlanKind } from '../renamed.js';
 import { checkPlanSpec, DEFAULT_KFOLD_K, MAX_COUNT, planFormError } from './spec.js';
 import { PLAN_KINDS, type PlanKind, type PlanSpec } from './types.js';
 
@@ -41,6 +42,8 @@ export function parsePlan(text: string): PlanSpec {
   const name = colon < 0 ? t : t.slice(0, colon);
   const rest = colon < 0 ? undefined : t.slice(colon + 1);
   if (!isKind(name)) {
+    const renamed = renamedPlanKind(name);
+    if (renamed) throw new UsageError(`--plan ${JSON.stringify(text)}: the plan kind ${name} is now called ${renamed}: write ${renamed}${rest === undefined ? '' : `:${rest}`}`);
     const hint = name === '' ? '' : closeNames(name, PLAN_KINDS);
     throw new UsageError(
       `--plan ${JSON.stringify(text)}: unknown plan ${JSON.stringify(name)}; expected one of ${PLAN_KINDS.join(', ')}` +
@@ -65,11 +68,11 @@ export function parsePlan(text: string): PlanSpec {
       if (rest !== undefined) throw bad();
       spec = { kind: 'loo' };
       break;
-    case 'shuffle': {
+    case 'resplit': {
       if (rest === undefined) throw bad();
       const at = rest.indexOf('@');
       if (at < 0) throw bad();
-      spec = { kind: 'shuffle', splits: count(rest.slice(0, at)), testFraction: fraction(rest.slice(at + 1)) };
+      spec = { kind: 'resplit', splits: count(rest.slice(0, at)), testFraction: fraction(rest.slice(at + 1)) };
       break;
     }
     case 'holdout': {

@@ -21,7 +21,7 @@ export const DEFAULT_KFOLD_K = 10;
 export const PLAN_FORMS: ReadonlyMap<PlanKind, string> = new Map<PlanKind, string>([
   ['kfold', 'kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1'],
   ['loo', 'loo with nothing after it'],
-  ['shuffle', 'shuffle:N@F with a whole number N >= 1 and a fraction 0 < F < 1'],
+  ['resplit', 'resplit:N@F with a whole number N >= 1 and a fraction 0 < F < 1'],
   ['holdout', 'holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1'],
   ['forward', 'forward:K with a whole number K >= 1'],
 ]);
@@ -48,7 +48,7 @@ export function checkPlanSpec(spec: PlanSpec, text: string): PlanSpec {
     case 'loo':
       ok = true;
       break;
-    case 'shuffle':
+    case 'resplit':
       ok = isCount(spec.splits, 1) && spec.testFraction > 0 && spec.testFraction < 1;
       break;
     case 'holdout': {

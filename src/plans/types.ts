@@ -1,16 +1,16 @@
 /**
  * Resampling plans. A plan spec is parsed from text (`kfold:10`, `kfold:5x3`, `loo`,
- * `shuffle:20@0.25`, `holdout:0.6/0.2/0.2`, `forward:5`) and built into folds over the rows.
+ * `resplit:20@0.25`, `holdout:0.6/0.2/0.2`, `forward:5`) and built into folds over the rows.
  */
 import type { Rng } from '../run/rng.js';
 
-export const PLAN_KINDS = ['kfold', 'loo', 'shuffle', 'holdout', 'forward'] as const;
+export const PLAN_KINDS = ['kfold', 'loo', 'resplit', 'holdout', 'forward'] as const;
 export type PlanKind = (typeof PLAN_KINDS)[number];
 
 export type PlanSpec =
   | { readonly kind: 'kfold'; readonly k: number; readonly repeats: number }
   | { readonly kind: 'loo' }
-  | { readonly kind: 'shuffle'; readonly splits: number; readonly testFraction: number }
+  | { readonly kind: 'resplit'; readonly splits: number; readonly testFraction: number }
   | { readonly kind: 'holdout'; readonly train: number; readonly validation: number; readonly holdout: number }
   | { readonly kind: 'forward'; readonly k: number };
 

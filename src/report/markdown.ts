@@ -4,7 +4,7 @@
  * matrix of the best learner, the quick audit's suspects, and the warnings. Numbers are
  * right-aligned with four decimals.
  */
-import { foldLabel } from './fold-label.js';
+import { foldCount, foldLabel } from './fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from './types.js';
 
 const DIGITS = 4;
@@ -12,6 +12,17 @@ const DIGITS = 4;
 /** Escapes text for a Markdown table cell (pipes, backslashes, line breaks, HTML brackets). */
 export function cell(text: string): string {
   return text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/\r?\n|\r/g, ' ').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+/** Text for Markdown outside a table: like `cell`, but `|` needs no escape there. */
+export function inline(text: string): string {
+  return text.replace(/\\/g, '\\\\').replace(/\r?\n|\r/g, ' ').replace(/</g, '&lt;').replace(/>/g, '&gt;');
+}
+
+/** A code span outside a table: the text as it is (Markdown reads no escapes in code spans). */
+export function code(text: string): string {
+  const t = text.replace(/\r?\n|\r/g, ' ');
+  return t.includes('`') ? `\`\` ${t} \`\`` : `\`${t}\``;
 }
 
 export function num(v: number | null | undefined): string {
@@ -50,7 +61,7 @@ function describe(report: Report): string[] {
     .join(', ');
   return [
     `- Data: ${cell(d.path)}, ${d.rowsUsed} of ${d.rows} rows used${excluded}; ${d.features.length} features; target ${cell(d.target)} (${task}); SHA-256 ${d.sha256.slice(0, 12)}`,
-    `- Plan: ${p.text} (${p.folds} folds${p.repeats > 1 ? ` x ${p.repeats} repeats` : ''}), ${extras}; seed ${p.seed}`,
+    `- Plan: ${p.text} (${foldCount(p)}${p.repeats > 1 ? ` x ${p.repeats} repeats` : ''}), ${extras}; seed ${p.seed}`,
     ...(d.dates?.length ? [`- Dates: ${d.dates.map((x) => `${cell(x.column)} read as ${x.read}`).join('; ')}`] : []),
     ...(p.holdoutRows !== undefined ? [`- Holdout: ${p.holdoutRows} rows, ${p.finalScored ? 'scored (--final)' : 'not scored (use --final to score it once)'}`] : []),
   ];
@@ -87,7 +98,7 @@ function comparisonSection(report: Report): string[] {
   const counts = c.pairs.map((e) => e.folds);
   const lo = Math.min(...counts);
   const hi = Math.max(...counts);
-  const folds = lo === hi ? `${hi} paired folds` : `${lo} to ${hi} paired folds (a fold with an undefined score is left out)`;
+  const folds = lo === hi ? `${hi} paired fold${hi === 1 ? "" : "s"}` : `${lo} to ${hi} paired folds (a fold with an undefined score is left out)`;
   return [
     `## ${cell(c.metric)}: paired comparisons on the same folds`,
     '',

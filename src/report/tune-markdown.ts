@@ -6,7 +6,7 @@
  * recommended candidate marked; the quick audit's suspects and the warnings last. Numbers have
  * four decimals.
  */
-import { auditSection, cell, num } from './markdown.js';
+import { auditSection, cell, code, inline, num } from './markdown.js';
 import type { TuneCandidate, TuneReport } from './tune-types.js';
 
 function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
@@ -37,10 +37,10 @@ function describe(r: TuneReport): string[] {
     ? `${s.tried} sampled at random from ${s.gridSize === null ? 'an unbounded space' : `a grid of ${s.gridSize}`}`
     : `the whole grid of ${s.tried}`;
   const plan = (x: TuneReport['plan']['outer']): string => `${x.text} (${x.stratified ? 'stratified' : 'not stratified'})`;
-  const extras = [p.group ? `grouped by ${cell(p.group)}` : '', p.order ? `ordered by ${cell(p.order)}` : ''].filter(Boolean).join(', ');
+  const extras = [p.group ? `grouped by ${inline(p.group)}` : '', p.order ? `ordered by ${inline(p.order)}` : ''].filter(Boolean).join(', ');
   return [
-    `- Data: ${cell(d.path)}, ${d.rowsUsed} of ${d.rows} rows used${excluded}; ${d.features.length} features; target ${cell(d.target)} (${task}); SHA-256 ${d.sha256.slice(0, 12)}`,
-    `- Search: ${size} candidates from ${s.specs.map((t) => `\`${cell(t)}\``).join(', ')}; pick rule ${r.selection.rule} on ${r.selection.metric} (${r.selection.higherIsBetter ? 'higher' : 'lower'} is better)`,
+    `- Data: ${inline(d.path)}, ${d.rowsUsed} of ${d.rows} rows used${excluded}; ${d.features.length} features; target ${inline(d.target)} (${task}); SHA-256 ${d.sha256.slice(0, 12)}`,
+    `- Search: ${size} candidates from ${s.specs.map(code).join(', ')}; pick rule ${r.selection.rule} on ${r.selection.metric} (${r.selection.higherIsBetter ? 'higher' : 'lower'} is better)`,
     `- Plans: outer ${plan(p.outer)}, inner ${plan(p.inner)} on each outer fold's training rows${extras ? `; ${extras}` : ''}; seed ${p.seed}`,
     ...(p.holdout
       ? [`- Holdout: ${p.holdout.rows} rows set aside before any selection (${p.holdout.from === 'option' ? `--holdout ${p.holdout.fraction}` : 'the holdout part of the plan'}), scored once below`]
@@ -55,7 +55,7 @@ function interval(ci: readonly [number, number] | null | undefined): string {
 
 export function renderTuneMarkdown(r: TuneReport): string {
   const head = r.selection.metric;
-  const out: string[] = [`# foldwise tune: ${cell(r.data.target)}`, '', ...describe(r), ''];
+  const out: string[] = [`# foldwise tune: ${inline(r.data.target)}`, '', ...describe(r), ''];
 
   out.push('## Outer estimate (nested: quote this)', '');
   out.push(
@@ -83,15 +83,15 @@ export function renderTuneMarkdown(r: TuneReport): string {
   const top = r.stability.winners[0];
   const folds = r.outer.folds.length;
   out.push('## Recommendation (deploy this)', '');
-  out.push(`- **${cell(rec.spec)}**, picked by the inner plan on all ${r.plan.searchRows} search rows: inner ${head} ${num(rec.innerMean)} (sd ${num(rec.innerSd)}). This inner figure is optimistic (it is the winner of the search); quote the outer estimate above.`);
-  if (rec.best !== rec.id) out.push(`- Best inner mean: ${cell(rec.bestSpec)} at ${num(rec.bestInnerMean)}; the one-standard-error rule took the simpler candidate above.`);
+  out.push(`- **${inline(rec.spec)}**, picked by the inner plan on all ${r.plan.searchRows} search rows: inner ${head} ${num(rec.innerMean)} (sd ${num(rec.innerSd)}). This inner figure is optimistic (it is the winner of the search); quote the outer estimate above.`);
+  if (rec.best !== rec.id) out.push(`- Best inner mean: ${inline(rec.bestSpec)} at ${num(rec.bestInnerMean)}; the one-standard-error rule took the simpler candidate above.`);
   out.push(
-    `- Stability: the outer folds made ${plural(r.stability.distinct, 'distinct pick')}; the most frequent, ${cell(top.spec)}, won ${top.folds} of ${folds} (${(100 * r.stability.topShare).toFixed(0)}%)${rec.id === top.id ? ', and it is the recommendation' : ', which is not the recommendation'}.`,
+    `- Stability: the outer folds made ${plural(r.stability.distinct, 'distinct pick')}; the most frequent, ${inline(top.spec)}, won ${top.folds} of ${folds} (${(100 * r.stability.topShare).toFixed(0)}%)${rec.id === top.id ? ', and it is the recommendation' : ', which is not the recommendation'}.`,
     '',
   );
 
   if (r.holdout) {
-    out.push(`## Holdout (scored once, ${cell(r.holdout.spec)} fitted on ${r.holdout.trainRows} rows, ${r.holdout.testRows} held out)`, '');
+    out.push(`## Holdout (scored once, ${inline(r.holdout.spec)} fitted on ${r.holdout.trainRows} rows, ${r.holdout.testRows} held out)`, '');
     out.push(table(r.metrics.map((m) => m), r.metrics.map(() => 'r' as const), [r.metrics.map((m) => num(r.holdout!.scores[m]))]), '');
   }
 
@@ -132,7 +132,7 @@ export function renderTuneMarkdown(r: TuneReport): string {
 
   out.push(...auditSection(r.audit));
   if (r.warnings.length) {
-    out.push('## Warnings', '', ...r.warnings.map((w) => `- ${cell(w)}`), '');
+    out.push('## Warnings', '', ...r.warnings.map((w) => `- ${inline(w)}`), '');
   }
   return `${out.join('\n')}`;
 }

@@ -1,5 +1,5 @@
 /**
- * The report of `foldwise tune` (format foldwise-tune/1). schema/tune.schema.json describes
+ * The report of `foldwise tune` (format foldwise-tune/2). schema/tune.schema.json describes
  * exactly this shape; tests validate every tune report they make against it.
  *
  * Two numbers must not be confused, and the report keeps them apart:

@@ -62,7 +62,7 @@ export interface TaskRecord {
   readonly trainRows: number;
   readonly actual: Target;
   readonly predicted: Int32Array | Float64Array;
-  readonly proba?: Float64Array;
+  readonly probs?: Float64Array;
   readonly fitMs: number;
   readonly predictMs: number;
   /** why the task failed; `predicted` is then empty */
@@ -135,7 +135,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       trainRows: train.length,
       actual,
       predicted: r.predicted,
-      ...(r.proba ? { proba: r.proba } : {}),
+      ...(r.probs ? { probs: r.probs } : {}),
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
@@ -210,7 +210,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     }
     const pooledActual = preds.length ? concatTargets(actual) : undefined;
     const pooledPred = preds.length ? concatPredictions(preds, classes) : undefined;
-    const noProba = pooledPred ? metrics.filter((m) => m.needsProba && !pooledPred.proba).map((m) => m.name) : [];
+    const noProba = pooledPred ? metrics.filter((m) => m.needsProba && !pooledPred.probs).map((m) => m.name) : [];
     if (noProba.length) warnings.push(`${c.spec} gives no class probabilities, so ${noProba.join(', ')} ${noProba.length === 1 ? 'is' : 'are'} not reported for it`);
     for (const m of metrics) {
       const values = scored.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);

@@ -99,7 +99,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
   if (exec.shard) {
     const records = withKeep(recordsOf(prepared, ordered, new Set(mine.map((t) => t.id))));
-    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, keep) };
+    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, options.timing !== false, keep) };
   }
   const totalMs = options.timing === false ? undefined : performance.now() - started;
   const records = withKeep(recordsOf(prepared, ordered));

@@ -8,11 +8,12 @@
  */
 import { closeSync, existsSync, fsyncSync, openSync, readFileSync, writeSync } from 'node:fs';
 import { InputError, UsageError } from '../errors.js';
+import { refuseOldFormat } from '../renamed.js';
 import { identityDiff, type RunIdentity } from './identity.js';
 import { resultFromJSON, resultToJSON } from './result-json.js';
 import type { TaskResult } from './tasks.js';
 
-export const JOURNAL_FORMAT = 'foldwise-journal/1';
+export const JOURNAL_FORMAT = 'foldwise-journal/2';
 
 export interface Journal {
   readonly path: string;
@@ -30,6 +31,7 @@ function readJournal(path: string, identity: RunIdentity, classification: boolea
   } catch {
     throw new InputError(`--journal ${path}: line 1 is not a journal header; give a new file or the journal of this run`);
   }
+  refuseOldFormat(`--journal ${path}`, head.journal, JOURNAL_FORMAT, 'start the run again with a new journal file');
   if (head.journal !== JOURNAL_FORMAT || !head.identity) throw new InputError(`--journal ${path}: not a foldwise journal (${JOURNAL_FORMAT})`);
   const diff = identityDiff(head.identity, identity);
   if (diff.length) throw new UsageError(`--journal ${path}: it belongs to another run, which differs in ${diff.join(', ')}; use a new journal file`);

@@ -6,6 +6,7 @@
  * the report exactly as a single run would have (byte-identical with --no-timing).
  */
 import { InputError } from '../errors.js';
+import { refuseOldFormat } from '../renamed.js';
 import type { Target } from '../learners/types.js';
 import type { Report } from '../report/types.js';
 import { VERSION } from '../version.js';
@@ -14,7 +15,7 @@ import { identityDiff, type RunIdentity } from './identity.js';
 import { fromJsonNumbers, notesOf } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
-export const PARTIAL_FORMAT = 'foldwise-partial/1';
+export const PARTIAL_FORMAT = 'foldwise-partial/2';
 
 interface RecordJSON {
   readonly id: string;
@@ -25,7 +26,7 @@ interface RecordJSON {
   readonly trainRows: number;
   readonly actual: number[];
   readonly predicted: number[];
-  readonly proba?: number[];
+  readonly probs?: number[];
   readonly fitMs: number;
   readonly predictMs: number;
   readonly failed?: string;
@@ -41,6 +42,8 @@ export interface PartialReport {
   readonly schema: typeof PARTIAL_FORMAT;
   readonly tool: { readonly name: 'foldwise'; readonly version: string };
   readonly shard: ShardSpec;
+  /** false when the part was made with --no-timing: the merged report then has no timing either */
+  readonly timing: boolean;
   readonly identity: RunIdentity;
   readonly frame: ReportFrame;
   /** every task id of the whole run, in the run's order */
@@ -56,12 +59,14 @@ export function makePartial(
   shard: ShardSpec,
   allTasks: readonly string[],
   records: readonly TaskRecord[],
+  timing = true,
   keep: readonly string[] = [],
 ): PartialReport {
   return {
     schema: PARTIAL_FORMAT,
     tool: { name: 'foldwise', version: VERSION },
     shard,
+    timing,
     identity,
     frame,
     tasks: allTasks,
@@ -74,7 +79,7 @@ export function makePartial(
       trainRows: r.trainRows,
       actual: Array.from(r.actual.task === 'classification' ? r.actual.codes : r.actual.values),
       predicted: Array.from(r.predicted),
-      ...(r.proba ? { proba: Array.from(r.proba) } : {}),
+      ...(r.probs ? { probs: Array.from(r.probs) } : {}),
       fitMs: r.fitMs,
       predictMs: r.predictMs,
       ...(r.failed ? { failed: r.failed } : {}),
@@ -103,7 +108,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     predictMs: j.predictMs,
     actual,
     predicted: classes ? Int32Array.from(j.predicted) : Float64Array.from(fromJsonNumbers(j.predicted)),
-    ...(j.proba ? { proba: Float64Array.from(fromJsonNumbers(j.proba)) } : {}),
+    ...(j.probs ? { probs: Float64Array.from(fromJsonNumbers(j.probs)) } : {}),
     ...(typeof j.failed === 'string' && j.failed !== '' ? { failed: j.failed } : {}),
     ...(Array.isArray(j.rows) ? { rows: Int32Array.from(j.rows) } : {}),
     ...(Array.isArray(j.lines) ? { lines: Int32Array.from(j.lines) } : {}),
@@ -120,6 +125,7 @@ export function parsePartial(text: string, name: string): PartialReport {
   } catch {
     throw new InputError(`${name}: not JSON; expected a part written by foldwise eval --shard`);
   }
+  refuseOldFormat(name, j?.schema, PARTIAL_FORMAT, 'rerun the shards with this foldwise');
   if (j?.schema !== PARTIAL_FORMAT || !j.identity || !j.frame || !Array.isArray(j.tasks) || !Array.isArray(j.records) || !j.shard) {
     throw new InputError(`${name}: not a foldwise part (${PARTIAL_FORMAT}); expected a part written by foldwise eval --shard`);
   }
@@ -172,6 +178,7 @@ export function mergePartsWithRecords(
     }
   });
   const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
-  const total = timing ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
+  // the parts carry the --no-timing choice of their runs; merge --no-timing also leaves it out
+  const total = timing && parts.every((p) => p.timing !== false) ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
   return { report: assembleReport(first.frame, ordered, total), frame: first.frame, records: ordered, keep };
 }

@@ -96,9 +96,9 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
       if (r.actual.task === 'classification') {
         line += `${classFields[r.actual.codes[i]]},${classFields[(r.predicted as Int32Array)[i]]},${trainRows}`;
         if (classes.length) {
-          if (r.proba) {
+          if (r.probs) {
             const c = classes.length;
-            for (let j = 0; j < c; j++) line += `,${String(r.proba[i * c + j])}`;
+            for (let j = 0; j < c; j++) line += `,${String(r.probs[i * c + j])}`;
           } else line += empties;
         }
       } else {

@@ -8,7 +8,7 @@ import type { TaskResult } from './tasks.js';
 export interface TaskResultJSON {
   readonly id: string;
   readonly predicted: number[];
-  readonly proba?: number[];
+  readonly probs?: number[];
   readonly fitMs: number;
   readonly predictMs: number;
   readonly notes?: Readonly<Record<string, number>>;
@@ -35,7 +35,7 @@ export function resultToJSON(r: TaskResult): TaskResultJSON {
   return {
     id: r.id,
     predicted: Array.from(r.predicted),
-    ...(r.proba ? { proba: Array.from(r.proba) } : {}),
+    ...(r.probs ? { probs: Array.from(r.probs) } : {}),
     fitMs: r.fitMs,
     predictMs: r.predictMs,
     ...(r.notes ? { notes: r.notes } : {}),
@@ -49,7 +49,7 @@ const numbers = (v: unknown): v is (number | null)[] => Array.isArray(v) && v.ev
 
 export function resultFromJSON(j: unknown, classification: boolean, where: string): TaskResult {
   const o = j as Partial<TaskResultJSON> | null;
-  if (!o || typeof o.id !== 'string' || !numbers(o.predicted) || (o.proba !== undefined && !numbers(o.proba))) {
+  if (!o || typeof o.id !== 'string' || !numbers(o.predicted) || (o.probs !== undefined && !numbers(o.probs))) {
     throw new InputError(`${where}: not a task result`);
   }
   const notes = notesOf(o.notes);
@@ -57,7 +57,7 @@ export function resultFromJSON(j: unknown, classification: boolean, where: strin
     ...(notes ? { notes } : {}),
     id: o.id,
     predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(fromJsonNumbers(o.predicted)),
-    ...(o.proba ? { proba: Float64Array.from(fromJsonNumbers(o.proba)) } : {}),
+    ...(o.probs ? { probs: Float64Array.from(fromJsonNumbers(o.probs)) } : {}),
     fitMs: Number(o.fitMs) || 0,
     predictMs: Number(o.predictMs) || 0,
   };

@@ -8,7 +8,7 @@ import type { Metric } from '../metrics/types.js';
 
 export interface Prediction {
   readonly predicted: Int32Array | Float64Array;
-  readonly proba?: Float64Array;
+  readonly probs?: Float64Array;
   /** the model's notes about the fit (Model.notes), where the caller keeps them (tune's outer refits) */
   readonly notes?: Readonly<Record<string, number>>;
 }
@@ -17,8 +17,8 @@ export function scoreOf(metric: Metric, actual: Target, pred: Prediction): numbe
   let v: number;
   if (metric.task === 'classification') {
     if (actual.task !== 'classification') return null;
-    if (metric.needsProba && !pred.proba) return null;
-    v = metric.fn({ actual: actual.codes, predicted: pred.predicted as Int32Array, classes: actual.classes.length, proba: pred.proba });
+    if (metric.needsProba && !pred.probs) return null;
+    v = metric.fn({ actual: actual.codes, predicted: pred.predicted as Int32Array, classes: actual.classes.length, probs: pred.probs });
   } else {
     if (actual.task !== 'regression') return null;
     v = metric.fn({ actual: actual.values, predicted: pred.predicted as Float64Array });
@@ -30,15 +30,15 @@ export function scoreOf(metric: Metric, actual: Target, pred: Prediction): numbe
 export function concatPredictions(parts: readonly Prediction[], classes: number): Prediction {
   const n = parts.reduce((s, p) => s + p.predicted.length, 0);
   const predicted = parts[0].predicted instanceof Int32Array ? new Int32Array(n) : new Float64Array(n);
-  const withProba = parts.every((p) => p.proba);
-  const proba = withProba ? new Float64Array(n * classes) : undefined;
+  const withProba = parts.every((p) => p.probs);
+  const probs = withProba ? new Float64Array(n * classes) : undefined;
   let at = 0;
   for (const p of parts) {
     predicted.set(p.predicted as never, at);
-    if (proba) proba.set(p.proba!, at * classes);
+    if (probs) probs.set(p.probs!, at * classes);
     at += p.predicted.length;
   }
-  return proba ? { predicted, proba } : { predicted };
+  return probs ? { predicted, probs } : { predicted };
 }
 
 /** Targets concatenated over parts, in order. */

@@ -2,9 +2,9 @@
  * `split`: the parts of a resampling plan as CSV files with the rows' original text, and a
  * row-to-fold assignment table. Files are named by role:
  * - holdout plans: train.csv, validation.csv, holdout.csv;
- * - k-fold and leave-one-out: the test part of each fold, fold-01.csv (r2-fold-01.csv for
- *   later repeats); the training part of a fold is every other fold of its repeat;
- * - shuffled splits and forward plans (training parts are not complements): split-01-train.csv
+ * - k-fold and leave-one-out: the test part of each fold, fold-01.csv; with several repeats
+ *   every repeat is named the same way, r1-fold-01.csv, r2-fold-01.csv; the training part of a fold is every other fold of its repeat;
+ * - random splits (resplit) and forward plans (training parts are not complements): split-01-train.csv
  *   and split-01-test.csv.
  * The assignment CSV has one line per (row, fold) membership: row (1-based data row), line
  * (line in the file), repeat, fold (1-based), role (train, test or holdout).
@@ -57,8 +57,9 @@ export function splitTable(table: Table, text: string, options: SplitOptions): S
       else partsOf.set(r, [file]);
     }
   };
+  const repeated = plan.folds.some((f) => f.repeat > 0);
   for (const f of plan.folds) {
-    const prefix = f.repeat > 0 ? `r${f.repeat + 1}-` : '';
+    const prefix = repeated ? `r${f.repeat + 1}-` : '';
     if (spec.kind === 'holdout') {
       add('train.csv', f.train);
       add('validation.csv', f.test);

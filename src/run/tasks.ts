@@ -36,7 +36,7 @@ export interface TaskResult {
   readonly id: string;
   /** empty when the task failed */
   readonly predicted: Int32Array | Float64Array;
-  readonly proba?: Float64Array;
+  readonly probs?: Float64Array;
   readonly fitMs: number;
   readonly predictMs: number;
   /** why the task failed (a command: learner's fold under --on-fold-error skip) */
@@ -168,10 +168,10 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
     const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed, fold });
     const t1 = performance.now();
     const predicted = model.predict(Xtest);
-    const proba = model.predictProba?.(Xtest);
+    const probs = model.probabilities?.(Xtest);
     const t2 = performance.now();
     const notes = notesOf(model.notes?.());
-    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
+    return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
   } catch (e) {
     if (!(e instanceof CommandFoldError) || ctx.onFoldError !== 'skip') throw e;
     const empty = ctx.problem.task === 'classification' ? new Int32Array(0) : new Float64Array(0);

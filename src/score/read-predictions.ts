@@ -41,7 +41,7 @@ export interface PredictionGroup {
   readonly actual: number[];
   readonly predicted: number[];
   /** rows x classes, or undefined when the learner gives no probabilities here */
-  proba?: number[];
+  probs?: number[];
   /** 0-based data rows of the original input, when the file has them */
   readonly rows: number[];
   /** the train_rows column's value, when the file has one */
@@ -220,8 +220,8 @@ export function readPredictions(text: string, name: string, opts: ScoreColumns =
         const texts = probs.map((c) => r.fields[c.col]);
         const empty = texts.every((t) => t === '');
         const first = g.fileLines.length === 1;
-        if (first && !empty) g.proba = [];
-        if (empty !== (g.proba === undefined)) {
+        if (first && !empty) g.probs = [];
+        if (empty !== (g.probs === undefined)) {
           throw new InputError(`${name} line ${r.line}: probabilities ${empty ? 'missing' : 'given'} here but ${empty ? 'given' : 'missing'} on line ${g.fileLines[0]} of the same learner and fold`);
         }
         if (!empty) {
@@ -229,7 +229,7 @@ export function readPredictions(text: string, name: string, opts: ScoreColumns =
           if (values.some((v) => v < 0 || v > 1)) throw new InputError(`${name} line ${r.line}: a probability outside [0, 1]`);
           const sum = values.reduce((s, v) => s + v, 0);
           if (Math.abs(sum - 1) > 1e-4) throw new InputError(`${name} line ${r.line}: the probabilities sum to ${sum}, not 1 (within 0.0001)`);
-          for (const v of values) g.proba!.push(Math.abs(sum - 1) > 1e-12 ? v / sum : v);
+          for (const v of values) g.probs!.push(Math.abs(sum - 1) > 1e-12 ? v / sum : v);
         }
       }
     } else {

@@ -111,7 +111,7 @@ export function scoreReport(text: string, file: string, opts: ScoreOptions = {})
       trainRows: trainOf(g),
       actual,
       predicted: read.task === 'classification' ? Int32Array.from(g.predicted) : Float64Array.from(g.predicted),
-      ...(g.proba ? { proba: Float64Array.from(g.proba) } : {}),
+      ...(g.probs ? { probs: Float64Array.from(g.probs) } : {}),
       fitMs: 0,
       predictMs: 0,
     };

@@ -9,15 +9,15 @@
  * (ParamSpec.simpler: 'higher' when a larger value is simpler, 'lower' when a smaller one is),
  * or by a fixed order of choices. The ranks (foldwise's own choice, most important first):
  *
- *   knn        k (higher is simpler: more neighbours, a smoother rule), then weights
- *              (uniform before distance: 1/d weights let the nearest rows dominate)
+ *   knn        k (higher is simpler: more neighbours, a smoother rule), then vote
+ *              (equal before inverse: 1/d votes let the nearest rows dominate)
  *   knn-ref    k (higher is simpler)
- *   tree       depth (lower), minLeaf (higher), bins (lower)
- *   forest     depth (lower), minLeaf (higher), trees (lower), bins (lower)
+ *   tree       depth (lower), min-leaf (higher), bins (lower)
+ *   forest     depth (lower), min-leaf (higher), trees (lower), bins (lower)
  *   forest-ref depth (lower), trees (lower)
  *   any other  its numeric options that declare `simpler`, in the order it declares them
  *
- * Options outside the list (forest `features`, `criterion`, ...) do not count: two candidates
+ * Options outside the list (forest `features`, `impurity`, ...) do not count: two candidates
  * that differ only there are equally complex. Candidates of different learners are not
  * compared (null): there is no common scale between, say, a neighbour count and a tree depth.
  */
@@ -32,10 +32,10 @@ interface Rank {
 }
 
 const RANKS: ReadonlyMap<string, readonly Rank[]> = new Map<string, readonly Rank[]>([
-  ['knn', [{ name: 'k' }, { name: 'weights', order: ['uniform', 'distance'] }]],
+  ['knn', [{ name: 'k' }, { name: 'vote', order: ['equal', 'inverse'] }]],
   ['knn-ref', [{ name: 'k' }]],
-  ['tree', [{ name: 'depth' }, { name: 'minLeaf' }, { name: 'bins' }]],
-  ['forest', [{ name: 'depth' }, { name: 'minLeaf' }, { name: 'trees' }, { name: 'bins' }]],
+  ['tree', [{ name: 'depth' }, { name: 'min-leaf' }, { name: 'bins' }]],
+  ['forest', [{ name: 'depth' }, { name: 'min-leaf' }, { name: 'trees' }, { name: 'bins' }]],
   ['forest-ref', [{ name: 'depth' }, { name: 'trees' }]],
 ]);
 
@@ -52,7 +52,7 @@ export function complexityRanks(learner: Learner): readonly Rank[] {
   return ranks.filter((r) => spec(r.name) && (r.order || r.simpler));
 }
 
-/** A human-readable line of the ranks, for reports: "k (higher simpler), weights (uniform < distance)". */
+/** A human-readable line of the ranks, for reports: "k (higher simpler), vote (equal < inverse)". */
 export function describeRanks(learner: Learner): string {
   const ranks = complexityRanks(learner);
   if (ranks.length === 0) return `${learner.name}: no option ranked`;

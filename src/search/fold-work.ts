@@ -6,12 +6,12 @@
  * - Preprocessing: the split's SplitData (src/run/tasks.ts) fits imputation, scaling and one-hot
  *   encoding once on the training rows; every candidate reads the same matrices.
  * - kNN: the neighbours of every test row are found once, for the largest k of the candidates
- *   (capped at the training rows), with `nearest`; each (k, weights) candidate is scored from
+ *   (capped at the training rows), with `nearest`; each (k, vote) candidate is scored from
  *   the first k entries of that list by `predictFromNeighbours`, which gives exactly knn's own
  *   predictions (see src/learners/knn.ts).
  * - Forest: candidates that differ only in `trees` share one forest of the largest tree count;
  *   a candidate with t trees is scored from the first t trees (predictPrefix /
- *   predictProbaPrefix). Because every tree has its own generator derived from the fit seed
+ *   probabilitiesPrefix). Because every tree has its own generator derived from the fit seed
  *   (src/learners/forest.ts), the first t trees are exactly the forest of t trees fitted with
  *   that seed.
  * - Boost: candidates that differ only in `rounds` (and have stop=0) share one model of the
@@ -31,7 +31,7 @@ import { boost } from '../learners/boost/learner.js';
 import { isBoostModel, outputsOf } from '../learners/boost/model.js';
 import { forest } from '../learners/forest.js';
 import { isCartModel } from '../learners/cart/model.js';
-import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
+import { KNN_VOTES, knn, nearest, predictFromNeighbours } from '../learners/knn.js';
 import type { Learner, Params, Target } from '../learners/types.js';
 import { notesOf } from '../run/result-json.js';
 import { createRng, deriveSeed } from '../run/rng.js';
@@ -68,8 +68,8 @@ function knnGroup(split: SplitData, yTrain: Target, cands: readonly SearchCandid
   const classes = yTrain.task === 'classification' ? yTrain.classes.length : 0;
   const list = { index, dist2, stride: K, rows: Xtest.rows };
   cands.forEach((c, j) => {
-    const weights = String(c.params.weights) as (typeof KNN_WEIGHTS)[number];
-    out[at[j]] = predictFromNeighbours(list, y, Xtrain.rows, classes, Number(c.params.k), weights);
+    const vote = String(c.params.vote) as (typeof KNN_VOTES)[number];
+    out[at[j]] = predictFromNeighbours(list, y, Xtrain.rows, classes, Number(c.params.k), vote);
   });
   work.fits += 1;
   work.fitMs += t1 - t0;
@@ -92,8 +92,8 @@ function forestGroup(split: SplitData, yTrain: Target, cands: readonly SearchCan
   cands.forEach((c, j) => {
     const t = Number(c.params.trees);
     const predicted = t === maxTrees ? model.predict(Xtest) : model.predictPrefix(Xtest, t);
-    const proba = t === maxTrees ? model.predictProba?.(Xtest) : model.predictProbaPrefix?.(Xtest, t);
-    out[at[j]] = proba ? { predicted, proba } : { predicted };
+    const probs = t === maxTrees ? model.probabilities?.(Xtest) : model.probabilitiesPrefix?.(Xtest, t);
+    out[at[j]] = probs ? { predicted, probs } : { predicted };
   });
   work.fits += 1;
   work.fitMs += t1 - t0;
@@ -130,12 +130,12 @@ function plainFit(split: SplitData, yTrain: Target, c: SearchCandidate, seed: nu
   const model = c.learner.fit(Xtrain, yTrain, c.params, { rng: createRng(seed), seed, fold: split.view('search', c.learner.needsScaling) });
   const t1 = performance.now();
   const predicted = model.predict(Xtest);
-  const proba = model.predictProba?.(Xtest);
+  const probs = model.probabilities?.(Xtest);
   const notes = notesOf(model.notes?.());
   work.fits += 1;
   work.fitMs += t1 - t0;
   work.predictMs += performance.now() - t1;
-  return { predicted, ...(proba ? { proba } : {}), ...(notes ? { notes } : {}) };
+  return { predicted, ...(probs ? { probs } : {}), ...(notes ? { notes } : {}) };
 }
 
 /**

@@ -4,7 +4,7 @@
  * ed., sec. 7.2: the test set is kept "in a vault" until the end of the analysis).
  *
  * Random plans: the part is one stratified (classification, unless turned off) or grouped
- * random split of the plans module (`shuffle:1@F`, so its sizes follow the same apportioning:
+ * random split of the plans module (`resplit:1@F`, so its sizes follow the same apportioning:
  * about F n_c rows of each class, whole groups when a group column is given), from the
  * generator deriveSeed(seed, "holdout").
  * Forward (time-ordered) outer plans: the latest share F of the rows by the order column, moved
@@ -46,7 +46,7 @@ export function splitHoldout(problem: Problem, fraction: number, outer: PlanSpec
   }
   let plan;
   try {
-    plan = planOver(problem, { kind: 'shuffle', splits: 1, testFraction: f }, allRows(n), stratify, createRng(deriveSeed(seed, 'holdout'))).plan;
+    plan = planOver(problem, { kind: 'resplit', splits: 1, testFraction: f }, allRows(n), stratify, createRng(deriveSeed(seed, 'holdout'))).plan;
   } catch (e) {
     if (e instanceof InputError) throw new InputError(`--holdout ${f}: ${e.message.replace(/^--plan \S+ /, 'the split ')}`);
     throw e;

@@ -50,7 +50,7 @@ export function tuneRecords(p: TunePredictions, metrics: readonly string[]): { f
   p.outer.forEach((o, i) => {
     const where = place(o.test);
     const common = { foldIndex: i, repeat: o.repeat, fold: o.fold, trainRows: o.trainRows, actual: o.actual, fitMs: 0, predictMs: 0, ...where };
-    const of = (pr: Prediction) => ({ predicted: pr.predicted, ...(pr.proba ? { proba: pr.proba } : {}) });
+    const of = (pr: Prediction) => ({ predicted: pr.predicted, ...(pr.probs ? { probs: pr.probs } : {}) });
     records.push({ id: `r${o.repeat}.f${o.fold}:baseline`, candidateIndex: 0, ...common, ...of(o.baseline) });
     records.push({ id: `r${o.repeat}.f${o.fold}:tuned`, candidateIndex: 1, ...common, ...of(o.tuned), pick: o.pick });
   });
@@ -65,7 +65,7 @@ export function tuneRecords(p: TunePredictions, metrics: readonly string[]): { f
       trainRows: h.trainRows,
       actual: h.actual,
       predicted: h.tuned.predicted,
-      ...(h.tuned.proba ? { proba: h.tuned.proba } : {}),
+      ...(h.tuned.probs ? { probs: h.tuned.probs } : {}),
       fitMs: 0,
       predictMs: 0,
       ...place(h.test),

@@ -60,11 +60,11 @@ import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../r
 import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
 import type { TunePredictions } from './tune-predictions.js';
 
-export const TUNE_SCHEMA = 'foldwise-tune/1';
+export const TUNE_SCHEMA = 'foldwise-tune/2';
 export const DEFAULT_OUTER_PLAN = 'kfold:5';
 export const DEFAULT_INNER_PLAN = 'kfold:3';
 /** The search when no --learner is given: kNN over seven k values and both weightings. */
-export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,weights=uniform|distance'];
+export const DEFAULT_SEARCH: readonly string[] = ['knn:k=1|3|5|9|15|25|41,vote=equal|inverse'];
 
 export interface TuneOptions extends ProblemOptions {
   /** run the quick data audit first and record its findings in the report's `audit` (default true) */
@@ -250,7 +250,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     // the baseline on the same outer split, for the paired comparison of the tuned estimate
     const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), { constant: baselineConstantFor(head.name) }, { rng: createRng(0), seed: 0 });
     const bTest = split.matrix('test', false);
-    const bPred: Prediction = { predicted: bModel.predict(bTest), proba: bModel.predictProba?.(bTest) };
+    const bPred: Prediction = { predicted: bModel.predict(bTest), probs: bModel.probabilities?.(bTest) };
     baselineScores.push(scoreOf(head, yTest, bPred));
     predictions.outer.push({ repeat: f.repeat, fold: f.fold, test: f.test, trainRows: f.train.length, pick: chosen.spec, tuned: pred, baseline: bPred, actual: yTest });
     outerFolds.push({
@@ -303,7 +303,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     const values = outerFolds.map((f) => f.scores[m.name]).filter((v): v is number => v !== null);
     const missing = outerFolds.length - values.length;
     if (missing > 0 && missing < outerFolds.length) warnings.push(`outer estimate: ${m.name} is undefined in ${missing} of ${outerFolds.length} outer folds; its summary uses the other folds`);
-    if (m.needsProba && !pooledPred.proba) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
+    if (m.needsProba && !pooledPred.probs) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
     summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
     pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
   }

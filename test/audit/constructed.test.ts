@@ -216,7 +216,7 @@ describe('duplicates and the plan', () => {
     }
     const cols = new Map(names.map((c, j) => [c, [...base.get(c)!, ...extra.map((r) => r[j])]] as const));
     const table = await tableOf(cols);
-    for (const plan of ['kfold:5', 'kfold:3x2', 'shuffle:4@0.3']) {
+    for (const plan of ['kfold:5', 'kfold:3x2', 'resplit:4@0.3']) {
       const r = audit(table, { target: 'y', plan, seed: 3 });
       expectValidAudit(r);
       // brute force: row keys, then every fold of the same plan (planFor with the same seed)

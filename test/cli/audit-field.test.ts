@@ -152,7 +152,7 @@ describe('reports of older versions, without audit and pooledSample', () => {
     expect(cmp.stderr).toBe('');
     expect(cmp.code).toBe(0);
     for (const [b, c] of [[oldPath, fresh], [fresh, oldPath]]) {
-      const g = await cli(['gate', '--baseline', b, '--current', c]);
+      const g = await cli(['gate', '--previous', b, '--current', c]);
       expect(g.stderr).toBe('');
       expect(g.code).toBe(0); // the same run on both sides: no drop
     }

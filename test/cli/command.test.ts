@@ -72,7 +72,7 @@ function report(r: Result): Report {
 describe('command: learners reproduce the built-in baseline through the file protocol', () => {
   it('classification: probability files give the baseline fold scores (accuracy exactly, log-loss to 1e-12)', async () => {
     const root = tempRoot();
-    const r = await foldwise([...base, '--target', 'Species', '--learner', 'command:shares', '--metric', 'accuracy', '--metric', 'log_loss', ...command()], root);
+    const r = await foldwise([...base, '--target', 'Species', '--learner', 'command:shares', '--metric', 'accuracy', '--metric', 'log-loss', ...command()], root);
     const rep = report(r);
     expect(rep.learners.map((l) => l.spec)).toEqual(['baseline', 'command:shares']);
     const [b, c] = rep.learners;
@@ -80,7 +80,7 @@ describe('command: learners reproduce the built-in baseline through the file pro
     expect(b.folds.length).toBe(5);
     for (let i = 0; i < 5; i++) {
       expect(c.folds[i].scores.accuracy).toBe(b.folds[i].scores.accuracy);
-      expect(Math.abs(c.folds[i].scores.log_loss! - b.folds[i].scores.log_loss!)).toBeLessThan(1e-12);
+      expect(Math.abs(c.folds[i].scores["log-loss"]! - b.folds[i].scores["log-loss"]!)).toBeLessThan(1e-12);
     }
     expect(c.confusion).toEqual(b.confusion);
     // every fold's private folder is gone afterwards
@@ -99,12 +99,12 @@ describe('command: learners reproduce the built-in baseline through the file pro
   });
 
   it('a label file gives the baseline accuracy and says that probability metrics are not reported', async () => {
-    const r = await foldwise([...base, '--target', 'Species', '--learner', 'command:shares;mode=labels', '--metric', 'accuracy', '--metric', 'log_loss', ...command()], tempRoot());
+    const r = await foldwise([...base, '--target', 'Species', '--learner', 'command:shares;mode=labels', '--metric', 'accuracy', '--metric', 'log-loss', ...command()], tempRoot());
     const rep = report(r);
     const [b, c] = rep.learners;
     expect(c.spec).toBe('command:shares;mode=labels');
     for (let i = 0; i < 5; i++) expect(c.folds[i].scores.accuracy).toBe(b.folds[i].scores.accuracy);
-    expect(c.summary.log_loss).toBeNull();
+    expect(c.summary["log-loss"]).toBeNull();
     expect(rep.warnings.some((w) => w.includes('command:shares;mode=labels gives no class probabilities'))).toBe(true);
   });
 });
@@ -284,7 +284,7 @@ describe('--on-fold-error skip', () => {
     const header = page.slice(0, page.indexOf('</header>'));
     expect(header).toContain(`Failed folds: ${spec.replace(/&/g, '&amp;')} failed in 1 of 5 folds (r1.f2)`);
 
-    const g = await foldwise(['gate', '--baseline', file, '--current', file, '--learner', spec], root);
+    const g = await foldwise(['gate', '--previous', file, '--current', file, '--learner', spec], root);
     expect(g.code).toBe(2);
     expect(g.stderr).toMatch(/gate: .*with-failed\.json: command:shares;mode=fail-on=r1\.f2 failed in 1 of 5 folds \(repeat 1 fold 2\); fix the learner and rerun before gating; they are not comparable/);
   });

@@ -86,7 +86,7 @@ describe('foldwise compare A.json B.json', () => {
     const m = await cli(['compare', a, kappa]);
     expect(m.code).toBe(2);
     expect(oneLine(m.stderr)).toBe(
-      'foldwise: compare: the runs differ in metrics (accuracy,balanced_accuracy,log_loss,macro_f1 vs accuracy,kappa); they are not comparable',
+      'foldwise: compare: the runs differ in metrics (accuracy,balanced-accuracy,log-loss,macro-f1 vs accuracy,kappa); they are not comparable',
     );
   });
 
@@ -106,15 +106,15 @@ describe('foldwise compare A.json B.json', () => {
     const { a } = await reports();
     const missing = join(tmp.dir, 'missing.json');
     const notJson = tmp.file('not.json', 'this is not JSON\n');
-    const other = tmp.file('other.json', '{"schema": "foldwise-audit/1"}\n');
+    const other = tmp.file('other.json', '{"schema": "foldwise-audit/2"}\n');
     const report = JSON.parse(readFileSync(a, 'utf8')) as Record<string, Record<string, unknown>>;
     delete report.plan.seed;
     const broken = tmp.file('broken.json', JSON.stringify(report));
     const cases: [string, string][] = [
       [missing, `foldwise: compare ${missing}: cannot be read (ENOENT); give the path of a JSON report written by foldwise eval --json`],
       [notJson, `foldwise: compare ${notJson}: not JSON (`],
-      [other, `foldwise: compare ${other}: not a foldwise eval report (its "schema" field is "foldwise-audit/1", expected "foldwise-report/1")`],
-      [broken, `foldwise: compare ${broken}: not a valid foldwise-report/1 report (at /plan: must have required property 'seed')`],
+      [other, `foldwise: compare ${other}: not a foldwise eval report (its "schema" field is "foldwise-audit/2", expected "foldwise-report/2")`],
+      [broken, `foldwise: compare ${broken}: not a valid foldwise-report/2 report (at /plan: must have required property 'seed')`],
       [tmp.dir, `foldwise: compare ${tmp.dir}: cannot be read (EISDIR)`],
     ];
     for (const [file, start] of cases) {
@@ -156,7 +156,7 @@ describe('foldwise compare --json', () => {
     const out = JSON.parse(r.stdout);
     expect(validate.errors ?? []).toEqual([]);
     expect(validate(out)).toBe(true);
-    expect(out.schema).toBe('foldwise-compare/1');
+    expect(out.schema).toBe('foldwise-compare/2');
     expect(out.rows.length).toBe(1);
     // diff = mean over folds of (second minus first), recomputed with simple-statistics
     const first = (JSON.parse(readFileSync(a, 'utf8')) as Report).learners.find((l) => l.spec === 'knn')!;

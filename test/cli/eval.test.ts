@@ -215,3 +215,16 @@ describe('usage errors exit 2 with one line', () => {
     expect((JSON.parse(r.stdout) as Report).data.path).toBe('stdin');
   });
 });
+
+describe('the plan line counts folds in words (#19)', () => {
+  it('a holdout plan with --final says one validation split, not "(1 folds)"', async () => {
+    const r = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--plan', 'holdout:0.6/0.2/0.2', '--final', '--no-timing', '--no-audit']);
+    expect(r.code).toBe(0);
+    expect(r.stdout).not.toMatch(/\b1 (paired )?folds\b/);
+    expect(r.stdout).toContain('- Plan: holdout:0.6/0.2/0.2 (1 validation split), stratified; seed 1');
+    const html = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--plan', 'holdout:0.6/0.2/0.2', '--final', '--no-timing', '--no-audit', '--html', '-']);
+    expect(html.stdout).not.toMatch(/\b1 folds\b/);
+    const k = await cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--plan', 'kfold:5x2', '--no-timing', '--no-audit']);
+    expect(k.stdout).toContain('- Plan: kfold:5x2 (5 folds x 2 repeats)');
+  });
+});

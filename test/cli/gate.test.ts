@@ -52,7 +52,7 @@ const reports = (): Promise<Record<string, string>> =>
     penguins: await report('penguins.json', [penguins, '--target', 'Species', '--drop', 'Island', '--drop', 'Sex', '--learner', 'knn', '--no-timing']),
   }))());
 
-const gate = (baseline: string, current: string, ...extra: string[]) => cli(['gate', '--baseline', baseline, '--current', current, ...extra]);
+const gate = (baseline: string, current: string, ...extra: string[]) => cli(['gate', '--previous', baseline, '--current', current, ...extra]);
 
 async function verdictOf(baseline: string, current: string, ...extra: string[]): Promise<{ code: number; v: GateVerdict }> {
   const r = await gate(baseline, current, ...extra, '--json', '-');
@@ -92,7 +92,7 @@ describe('foldwise gate: exit 0 pass, 1 fail, 2 not comparable', () => {
     const { code, v } = await verdictOf(good, worse);
     expect(code).toBe(1);
     expect(v).toMatchObject({ verdict: 'fail', reasons: ['regression'], rule: 'paired', metric: 'accuracy', higherIsBetter: true, maxDrop: 0, alpha: 0.05, df: 9 });
-    expect(v.baseline.learner).toBe('knn');
+    expect(v.previous.learner).toBe('knn');
     // recompute from the two reports: d_j = baseline_j - current_j (accuracy, higher is better)
     const b = (JSON.parse(readFileSync(good, 'utf8')) as Report).learners.find((l) => l.spec === 'knn')!;
     const c = (JSON.parse(readFileSync(worse, 'utf8')) as Report).learners.find((l) => l.spec === 'knn')!;
@@ -164,7 +164,7 @@ describe('foldwise gate: exit 0 pass, 1 fail, 2 not comparable', () => {
   it('gates a renamed learner with --current-learner and refuses an unknown one', async () => {
     const { good, k15 } = await reports();
     const { v } = await verdictOf(good, k15, '--current-learner', 'knn:k=15');
-    expect([v.baseline.learner, v.current.learner]).toEqual(['knn', 'knn:k=15']);
+    expect([v.previous.learner, v.current.learner]).toEqual(['knn', 'knn:k=15']);
     expect(v.rule).toBe('paired');
     const r = await gate(good, k15);
     expect(r.code).toBe(2);
@@ -190,7 +190,7 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
     const r = await gate(good, kappa);
     expect(r.code).toBe(2);
     expect(oneLine(r.stderr)).toBe(
-      'foldwise: gate: the runs differ in metrics (accuracy,balanced_accuracy,log_loss,macro_f1 vs accuracy,kappa); they are not comparable',
+      'foldwise: gate: the runs differ in metrics (accuracy,balanced-accuracy,log-loss,macro-f1 vs accuracy,kappa); they are not comparable',
     );
   });
 
@@ -211,7 +211,7 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
     const missing = join(tmp.dir, 'nope.json');
     const m = await gate(missing, good);
     expect(m.code).toBe(2);
-    expect(oneLine(m.stderr)).toBe(`foldwise: gate --baseline ${missing}: cannot be read (ENOENT); give the path of a JSON report written by foldwise eval --json`);
+    expect(oneLine(m.stderr)).toBe(`foldwise: gate --previous ${missing}: cannot be read (ENOENT); give the path of a JSON report written by foldwise eval --json`);
     const junk = tmp.file('junk.json', '[1, 2');
     const j = await gate(good, junk);
     expect(j.code).toBe(2);
@@ -221,16 +221,24 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
       [['--alpha', 'abc'], 'foldwise: --alpha abc: expected a number above 0 and below 0.5 (such as 0.05)'],
       [['--max-drop', '-0.1'], "foldwise: --max-drop -0.1: expected a number >= 0, in the metric's units"],
       [['--absolute-min', 'x'], "foldwise: --absolute-min x: expected a number, in the metric's units"],
-      [['--metric', 'kappa'], 'foldwise: --metric kappa: the reports do not score it (they score accuracy, balanced_accuracy, macro_f1, log_loss)'],
+      [['--metric', 'kappa'], 'foldwise: --metric kappa: the reports do not score it (they score accuracy, balanced-accuracy, macro-f1, log-loss)'],
     ];
     for (const [extra, message] of bad) {
       const r = await gate(good, good, ...extra);
       expect(r.code).toBe(2);
       expect(oneLine(r.stderr)).toBe(message);
     }
-    const noCurrent = await cli(['gate', '--baseline', good]);
+    const noCurrent = await cli(['gate', '--previous', good]);
     expect(noCurrent.code).toBe(2);
     expect(noCurrent.stderr).toContain("--current <file>' not specified");
+    // the flag's name before format 2 fails with one line naming the new one (no alias)
+    const old = await cli(['gate', '--baseline', good, '--current', good]);
+    expect(old.code).toBe(2);
+    expect(old.stdout).toBe('');
+    expect(oneLine(old.stderr)).toBe(`foldwise: gate --baseline is now --previous (the committed report; "baseline" names the majority/mean learner): write --previous ${good}`);
+    const noPrevious = await cli(['gate', '--current', good]);
+    expect(noPrevious.code).toBe(2);
+    expect(oneLine(noPrevious.stderr)).toBe("foldwise: gate: required option '--previous <file>' not specified: the committed report to gate against");
   });
 });
 
@@ -246,15 +254,15 @@ describe('foldwise gate: GITHUB_STEP_SUMMARY and --accept', () => {
     const { good, same, worse, penguins: p } = await reports();
     const summary = tmp.file('summary.md', '# earlier step\n');
     const env = { GITHUB_STEP_SUMMARY: summary };
-    const pass = await withEnv(['gate', '--baseline', good, '--current', same], env);
-    const fail = await withEnv(['gate', '--baseline', good, '--current', worse], env);
-    const apart = await withEnv(['gate', '--baseline', good, '--current', p], env);
+    const pass = await withEnv(['gate', '--previous', good, '--current', same], env);
+    const fail = await withEnv(['gate', '--previous', good, '--current', worse], env);
+    const apart = await withEnv(['gate', '--previous', good, '--current', p], env);
     expect([pass.code, fail.code, apart.code]).toEqual([0, 1, 2]);
     const text = readFileSync(summary, 'utf8');
     expect(text.startsWith('# earlier step\n')).toBe(true);
     expect(text).toBe(`# earlier step\n${pass.stdout}\n${fail.stdout}\n${apart.stdout}\n`);
     // a summary file that cannot be written is a warning, not a changed verdict
-    const lost = await withEnv(['gate', '--baseline', good, '--current', same], { GITHUB_STEP_SUMMARY: join(tmp.dir, 'no-such-folder', 's.md') });
+    const lost = await withEnv(['gate', '--previous', good, '--current', same], { GITHUB_STEP_SUMMARY: join(tmp.dir, 'no-such-folder', 's.md') });
     expect(lost.code).toBe(0);
     expect(lost.stderr).toMatch(/^foldwise: warning: GITHUB_STEP_SUMMARY .*: cannot be appended \(ENOENT\); the verdict is on standard output only\n$/);
     // the cli() helper passes an empty environment: no summary is written anywhere
@@ -270,7 +278,7 @@ describe('foldwise gate: GITHUB_STEP_SUMMARY and --accept', () => {
     writeFileSync(baseline, readFileSync(good));
     const r = await gate(baseline, timed, '--accept');
     expect(r.code).toBe(0);
-    expect(r.stdout).toContain('- **Baseline:** replaced by the current report (--accept)');
+    expect(r.stdout).toContain('- **Previous report:** replaced by the current report (--accept)');
     expect(readFileSync(baseline).equals(readFileSync(timed))).toBe(true);
     expect(readdirSync(dir)).toEqual(['baseline.json']); // no temporary file left behind
   });
@@ -282,7 +290,7 @@ describe('foldwise gate: GITHUB_STEP_SUMMARY and --accept', () => {
     const mtime = statSync(baseline).mtimeMs;
     const r = await gate(baseline, worse, '--accept');
     expect(r.code).toBe(1);
-    expect(r.stdout).toContain('- **Baseline:** kept; --accept replaces it only when the gate passes');
+    expect(r.stdout).toContain('- **Previous report:** kept; --accept replaces it only when the gate passes');
     expect(readFileSync(baseline).equals(before)).toBe(true);
     expect(statSync(baseline).mtimeMs).toBe(mtime);
     const { v } = await verdictOf(baseline, worse, '--accept');

@@ -32,11 +32,15 @@ describe('foldwise split', () => {
     const out = join(tmp.dir, 'k');
     const r = await cli(['split', data, '--target', 'y', '--plan', 'kfold:4x2', '--out', out, '--assign', join(tmp.dir, 'k.csv')]);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(['fold-01.csv', 'fold-02.csv', 'fold-03.csv', 'fold-04.csv', 'r2-fold-01.csv', 'r2-fold-02.csv', 'r2-fold-03.csv', 'r2-fold-04.csv']);
+    expect(readdirSync(out).sort()).toEqual(['r1-fold-01.csv', 'r1-fold-02.csv', 'r1-fold-03.csv', 'r1-fold-04.csv', 'r2-fold-01.csv', 'r2-fold-02.csv', 'r2-fold-03.csv', 'r2-fold-04.csv']); // every repeat named the same way (#19)
     const lines = readFileSync(join(tmp.dir, 'k.csv'), 'utf8').trim().split('\n');
     // 40 rows x 4 folds x 2 repeats memberships (each row is test once and train three times a repeat)
     expect(lines.length - 1).toBe(40 * 4 * 2);
     expect(lines[1]).toMatch(/^\d+,\d+,1,1,train$/);
+    // one repeat: no repeat prefix
+    const one = join(tmp.dir, 'k1');
+    expect((await cli(['split', data, '--target', 'y', '--plan', 'kfold:3', '--out', one])).code).toBe(0);
+    expect(readdirSync(one).sort()).toEqual(['fold-01.csv', 'fold-02.csv', 'fold-03.csv']);
   });
 
   it('refuses leave-one-out part files and asks for --out or --assign', async () => {

@@ -23,7 +23,7 @@ const ARGS = ['tune', penguins, '--target', 'Species', '--drop', 'Island', '--dr
 
 describe('foldwise tune', () => {
   it('prints the candidate count up front and a schema-valid JSON report', async () => {
-    const r = await cli([...ARGS, '--learner', 'knn:k=1|5|15,weights=uniform|distance', '--json', '-']);
+    const r = await cli([...ARGS, '--learner', 'knn:k=1|5|15,vote=equal|inverse', '--json', '-']);
     expect(r.code).toBe(0);
     expect(r.stderr.split('\n')[0]).toBe('foldwise: tune: 6 candidates in a grid of 6; outer kfold:5, inner kfold:3');
     const report = JSON.parse(r.stdout) as TuneReport;
@@ -179,7 +179,7 @@ describe('tune --html and render of a tune report', () => {
   it('writes the page with --html FILE (nothing on standard output), and render of the JSON writes the same page', async () => {
     const html = join(tmp.dir, 'tune.html');
     const js = join(tmp.dir, 'tune-for-html.json');
-    const r = await cli([...ARGS, '--learner', 'knn:k=3|9,weights=uniform|distance', '--plan', 'kfold:3', '--html', html, '--json', js]);
+    const r = await cli([...ARGS, '--learner', 'knn:k=3|9,vote=equal|inverse', '--plan', 'kfold:3', '--html', html, '--json', js]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe('');
     const page = readFileSync(html, 'utf8');
@@ -212,7 +212,34 @@ describe('tune --html and render of a tune report', () => {
     const out = join(tmp.dir, 'never.html');
     const r = await cli(['render', bad, '--html', out]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/^foldwise: render .*tune-broken\.json: not a valid foldwise-tune\/1 report \(at \/: must have required property 'recommendation'\)\n$/);
+    expect(r.stderr).toMatch(/^foldwise: render .*tune-broken\.json: not a valid foldwise-tune\/2 report \(at \/: must have required property 'recommendation'\)\n$/);
     expect(existsSync(out)).toBe(false);
+  });
+});
+
+describe('foldwise tune: small defects of #19', () => {
+  it('Markdown escapes | only inside tables', async () => {
+    const space = 'knn:k=1|3,vote=equal|inverse';
+    const r = await cli([...ARGS, '--learner', space, '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit']);
+    expect(r.code).toBe(0);
+    const lines = r.stdout.split('\n');
+    const prose = lines.filter((l) => !l.startsWith('|'));
+    expect(prose.length).toBeGreaterThan(5);
+    expect(prose.filter((l) => l.includes('\\|'))).toEqual([]);
+    expect(r.stdout).toContain(`\`${space}\``);
+    // inside a table cell the | is still escaped (GitHub Flavored Markdown, tables extension)
+    expect(lines.some((l) => l.startsWith('|') && l.includes('k=1') && !l.includes('|3'))).toBe(true);
+  });
+
+  it('--quiet leaves out the notes on standard error, as in eval', async () => {
+    const loud = await cli([...ARGS, '--learner', 'knn:k=1|3', '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit']);
+    expect(loud.stderr).toMatch(/^foldwise: tune: 2 candidates in a grid of 2/);
+    const quiet = await cli([...ARGS, '--learner', 'knn:k=1|3', '--plan', 'kfold:3', '--inner', 'kfold:2', '--no-audit', '--quiet']);
+    expect(quiet.code).toBe(0);
+    // warnings still print; only the note goes
+    const lines = (t: string) => t.split('\n').filter(Boolean);
+    expect(lines(quiet.stderr).every((l) => l.startsWith('foldwise: warning: '))).toBe(true);
+    expect(lines(quiet.stderr)).toEqual(lines(loud.stderr).slice(1));
+    expect(quiet.stdout).toBe(loud.stdout);
   });
 });

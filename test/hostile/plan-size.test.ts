@@ -14,9 +14,9 @@ const rng = () => createRng(1);
 describe('plan size limits', () => {
   it('refuses more than MAX_FOLDS folds from repeats or splits, naming the plan', () => {
     expect(MAX_FOLDS).toBe(100_000);
-    expect(() => buildPlan({ kind: 'shuffle', splits: MAX_FOLDS + 1, testFraction: 0.5 }, { n: 10, rng: rng() })).toThrow(UsageError);
-    expect(() => buildPlan({ kind: 'shuffle', splits: 1e9, testFraction: 0.5 }, { n: 10, rng: rng() })).toThrow(
-      '--plan shuffle:1000000000@0.5 would make 1000000000 folds; at most 100000 are allowed; use fewer splits',
+    expect(() => buildPlan({ kind: 'resplit', splits: MAX_FOLDS + 1, testFraction: 0.5 }, { n: 10, rng: rng() })).toThrow(UsageError);
+    expect(() => buildPlan({ kind: 'resplit', splits: 1e9, testFraction: 0.5 }, { n: 10, rng: rng() })).toThrow(
+      '--plan resplit:1000000000@0.5 would make 1000000000 folds; at most 100000 are allowed; use fewer splits',
     );
     expect(() => buildPlan({ kind: 'kfold', k: 5, repeats: 20_001 }, { n: 10, rng: rng() })).toThrow(
       '--plan kfold:5x20001 would make 100005 folds; at most 100000 are allowed; use fewer folds or repeats',
@@ -41,7 +41,7 @@ describe('plan size limits', () => {
   });
 
   it('builds large plans below the limits', () => {
-    const plan = buildPlan({ kind: 'shuffle', splits: 1000, testFraction: 0.5 }, { n: 4, rng: rng() });
+    const plan = buildPlan({ kind: 'resplit', splits: 1000, testFraction: 0.5 }, { n: 4, rng: rng() });
     expect(plan.folds.length).toBe(1000);
   });
 });

@@ -11,7 +11,7 @@ import { UsageError } from '../../src/errors.js';
 import { baseline, baselineConstantFor } from '../../src/learners/baseline.js';
 import type { Matrix, Target } from '../../src/learners/types.js';
 import { METRICS } from '../../src/metrics/index.js';
-import * as medianAbsolute from '../../src/metrics/median-absolute-error.js';
+import * as medianAbsolute from '../../src/metrics/medae.js';
 import type { Report } from '../../src/report/types.js';
 import { createRng } from '../../src/run/rng.js';
 import { cli } from '../helpers/cli.js';

@@ -26,7 +26,7 @@ describe('bayes', () => {
     const y: Target = { task: 'classification', codes: Int32Array.from([0, 0, 0, 1, 1]), classes: ['a', 'b'] };
     const m = bayes.fit(X, y, { 'var-floor': 0 }, ctx);
     const queries = [[3, 1], [5.5, 2], [0, 0], [9, 9]];
-    const p = m.predictProba!(mat(queries));
+    const p = m.probabilities!(mat(queries));
     expect(p.length).toBe(8);
     const N = (x: number, mu: number, v: number) => normalPdf(x, mu, Math.sqrt(v));
     queries.forEach(([x1, x2], i) => {
@@ -45,7 +45,7 @@ describe('bayes', () => {
     const y: Target = { task: 'classification', codes, classes: ['a', 'b', 'c'] };
     const m = bayes.fit(X, y, { 'var-floor': 0.01 }, ctx);
     // overall variance of x is 1, so the floor is 0.01 and each class variance is 0 + 0.01
-    const p = m.predictProba!(mat([[1.5]]));
+    const p = m.probabilities!(mat([[1.5]]));
     const a = 0.5 * normalPdf(1.5, 1, 0.1);
     const c = 0.5 * normalPdf(1.5, 3, 0.1);
     expect(p[1]).toBe(0);
@@ -60,9 +60,9 @@ describe('bayes', () => {
     const Q: Matrix = { rows: 20, cols: 3, data: Float64Array.from({ length: 60 }, () => rng.next() * 5) };
     const m = bayes.fit(X, y, { 'var-floor': 1e-9 }, ctx);
     const back = bayes.load(JSON.parse(JSON.stringify(m.toJSON())));
-    expect(Array.from(back.predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(back.probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     expect(Array.from(back.predict(Q))).toEqual(Array.from(m.predict(Q)));
-    expect(Array.from(bayes.fit(X, y, { 'var-floor': 1e-9 }, { rng: createRng(7), seed: 7 }).predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(bayes.fit(X, y, { 'var-floor': 1e-9 }, { rng: createRng(7), seed: 7 }).probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     expect(() => bayes.load({ learner: 'bayes' })).toThrow(/not a saved bayes model/);
   });
 

@@ -41,11 +41,11 @@ describe('every learner', () => {
         const back = learner.load(JSON.parse(JSON.stringify(m.toJSON())));
         expect(Array.from(back.predict(test.X))).toEqual(Array.from(pred));
         expect(Array.from(fit(9).predict(test.X))).toEqual(Array.from(pred));
-        if (m.predictProba) {
-          const p = m.predictProba(test.X);
+        if (m.probabilities) {
+          const p = m.probabilities(test.X);
           expect(p.length).toBe(30 * 3);
           for (let i = 0; i < 30; i++) expect(Math.abs(p[i * 3] + p[i * 3 + 1] + p[i * 3 + 2] - 1)).toBeLessThan(1e-9);
-          expect(Array.from(back.predictProba!(test.X))).toEqual(Array.from(p));
+          expect(Array.from(back.probabilities!(test.X))).toEqual(Array.from(p));
         }
       });
     }

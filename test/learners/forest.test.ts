@@ -155,7 +155,7 @@ describe('forest: regression', () => {
       const tr = y.map((_, i) => i).filter((i) => i % k !== f);
       const te = y.map((_, i) => i).filter((i) => i % k === f);
       const m = forest.fit(matrix(tr.map((i) => rows[i])), { task: 'regression', values: Float64Array.from(tr.map((i) => y[i])) }, {}, ctx(f));
-      expect(m.predictProba).toBeUndefined();
+      expect(m.probabilities).toBeUndefined();
       const pred = m.predict(matrix(te.map((i) => rows[i])));
       te.forEach((i, t) => {
         sse += (pred[t] - y[i]) ** 2;
@@ -178,9 +178,9 @@ describe('forest: seeds, prefixes, round trip', () => {
     const b = forest.fit(X, y, { trees: 20 }, ctx(5));
     const c = forest.fit(X, y, { trees: 20 }, ctx(6));
     expect(JSON.stringify(a.toJSON())).toBe(JSON.stringify(b.toJSON()));
-    expect(Array.from(a.predictProba?.(test) ?? [])).toEqual(Array.from(b.predictProba?.(test) ?? [1]));
+    expect(Array.from(a.probabilities?.(test) ?? [])).toEqual(Array.from(b.probabilities?.(test) ?? [1]));
     expect(JSON.stringify(a.toJSON())).not.toBe(JSON.stringify(c.toJSON()));
-    expect(Array.from(a.predictProba?.(test) ?? [])).not.toEqual(Array.from(c.predictProba?.(test) ?? []));
+    expect(Array.from(a.probabilities?.(test) ?? [])).not.toEqual(Array.from(c.probabilities?.(test) ?? []));
   });
 
   it('the seed is taken from ctx.seed, not from the state of ctx.rng', () => {
@@ -196,7 +196,7 @@ describe('forest: seeds, prefixes, round trip', () => {
     if (!isCartModel(big) || !isCartModel(small)) return;
     expect(big.treeCount).toBe(12);
     expect(Array.from(big.predictPrefix(test, 5))).toEqual(Array.from(small.predict(test)));
-    expect(Array.from(big.predictProbaPrefix?.(test, 5) ?? [])).toEqual(Array.from(small.predictProba?.(test) ?? [1]));
+    expect(Array.from(big.probabilitiesPrefix?.(test, 5) ?? [])).toEqual(Array.from(small.probabilities?.(test) ?? [1]));
     expect(Array.from(big.predictPrefix(test, 12))).toEqual(Array.from(big.predict(test)));
     expect(Array.from(big.treeSizes().slice(0, 5))).toEqual(Array.from(small.treeSizes()));
     expect(() => big.predictPrefix(test, 0)).toThrow(UsageError);
@@ -204,10 +204,10 @@ describe('forest: seeds, prefixes, round trip', () => {
   });
 
   it('probabilities are the mean over trees of leaf class shares (Breiman 2001), rows sum to 1', () => {
-    const m = forest.fit(X, y, { trees: 7, minLeaf: 5 }, ctx(8));
+    const m = forest.fit(X, y, { trees: 7, 'min-leaf': 5 }, ctx(8));
     const j = m.toJSON() as { roots: number[]; feature: number[]; threshold: number[]; left: number[]; right: number[]; offset: number[]; values: number[] };
-    const proba = m.predictProba?.(test) as Float64Array;
-    expect(proba.length).toBe(test.rows * 2);
+    const probs = m.probabilities?.(test) as Float64Array;
+    expect(probs.length).toBe(test.rows * 2);
     for (let i = 0; i < test.rows; i++) {
       const x = test.data.subarray(i * 6, (i + 1) * 6);
       const mean = [0, 0];
@@ -217,24 +217,24 @@ describe('forest: seeds, prefixes, round trip', () => {
         mean[0] += j.values[j.offset[node]] / j.roots.length;
         mean[1] += j.values[j.offset[node] + 1] / j.roots.length;
       }
-      expect(Math.abs(proba[2 * i] - mean[0])).toBeLessThan(1e-12);
-      expect(Math.abs(proba[2 * i + 1] - mean[1])).toBeLessThan(1e-12);
-      expect(Math.abs(proba[2 * i] + proba[2 * i + 1] - 1)).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i] - mean[0])).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i + 1] - mean[1])).toBeLessThan(1e-12);
+      expect(Math.abs(probs[2 * i] + probs[2 * i + 1] - 1)).toBeLessThan(1e-12);
     }
     const pred = m.predict(test);
-    for (let i = 0; i < test.rows; i++) expect(pred[i]).toBe(proba[2 * i + 1] > proba[2 * i] ? 1 : 0);
+    for (let i = 0; i < test.rows; i++) expect(pred[i]).toBe(probs[2 * i + 1] > probs[2 * i] ? 1 : 0);
   });
 
   it('toJSON / load through JSON text gives identical predictions (classification and regression)', () => {
     const m = forest.fit(X, y, { trees: 15 }, ctx(1));
     const back = forest.load(JSON.parse(JSON.stringify(m.toJSON())));
     expect(Array.from(back.predict(test))).toEqual(Array.from(m.predict(test)));
-    expect(Array.from(back.predictProba?.(test) ?? [])).toEqual(Array.from(m.predictProba?.(test) ?? [1]));
+    expect(Array.from(back.probabilities?.(test) ?? [])).toEqual(Array.from(m.probabilities?.(test) ?? [1]));
     const values = Float64Array.from(rows, (x) => Math.sin(3 * x[0]) + x[1] * x[1]);
     const r = forest.fit(X, { task: 'regression', values }, { trees: 15 }, ctx(1));
     const rb = forest.load(JSON.parse(JSON.stringify(r.toJSON())));
     expect(Array.from(rb.predict(test))).toEqual(Array.from(r.predict(test)));
-    expect(rb.predictProba).toBeUndefined();
+    expect(rb.probabilities).toBeUndefined();
     if (isCartModel(rb) && isCartModel(r)) expect(Array.from(rb.importance())).toEqual(Array.from(r.importance()));
   });
 
@@ -258,8 +258,8 @@ describe('forest: impurity importance (mean decrease in impurity; Louppe et al. 
       rows.push(x);
       codes.push(x[2] + 0.3 * gauss(rng) > 0 ? 1 : 0);
     }
-    for (const criterion of ['gini', 'entropy']) {
-      const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 30, criterion }, ctx(4));
+    for (const impurity of ['gini', 'entropy']) {
+      const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 30, impurity }, ctx(4));
       if (!isCartModel(m)) throw new Error('not a forest model');
       const imp = Array.from(m.importance());
       expect(imp.length).toBe(5);
@@ -283,7 +283,7 @@ describe('forest: missing values', () => {
     const probe = rows.slice(0, 20).map((r) => r.slice());
     const withNaN = probe.map((r) => [NaN, ...r.slice(1)]);
     const withNegInf = probe.map((r) => [-Infinity, ...r.slice(1)]);
-    expect(Array.from(m.predictProba?.(matrix(withNaN)) ?? [])).toEqual(Array.from(m.predictProba?.(matrix(withNegInf)) ?? [1]));
+    expect(Array.from(m.probabilities?.(matrix(withNaN)) ?? [])).toEqual(Array.from(m.probabilities?.(matrix(withNegInf)) ?? [1]));
   });
   it('predict rejects a matrix with the wrong number of features', () => {
     const m = forest.fit(matrix(rows), classes(codes, 2), { trees: 2 }, ctx(1));
@@ -300,14 +300,14 @@ describe('forest: options', () => {
     expect(fit({ trees: 0 })).toThrow('forest: option "trees" must be an integer >= 1, got 0');
     expect(fit({ trees: 2.5 })).toThrow('forest: option "trees" must be an integer >= 1, got 2.5');
     expect(fit({ depth: 0 })).toThrow('forest: option "depth" must be an integer >= 1, got 0');
-    expect(fit({ minLeaf: -1 })).toThrow('forest: option "minLeaf" must be an integer >= 1, got -1');
+    expect(fit({ 'min-leaf': -1 })).toThrow('forest: option "min-leaf" must be an integer >= 1, got -1');
     expect(fit({ bins: 1 })).toThrow('forest: option "bins" must be an integer between 2 and 255, got 1');
-    expect(fit({ criterion: 'mse' })).toThrow('forest: option "criterion" must be one of gini, entropy, got "mse"');
+    expect(fit({ impurity: 'mse' })).toThrow('forest: option "impurity" must be one of gini, entropy, got "mse"');
     expect(fit({ features: 'frac:0' })).toThrow('forest: option "features" must be frac:F with 0 < F <= 1, got "frac:0"');
     expect(fit({ features: 'frac:1.5' })).toThrow('frac:F with 0 < F <= 1');
     expect(fit({ features: 'count:0' })).toThrow('forest: option "features" must be count:M with M an integer >= 1, got "count:0"');
     expect(fit({ features: 'count:2.5' })).toThrow('count:M with M an integer >= 1');
-    expect(fit({ features: 'half' })).toThrow('forest: option "features" must be auto, sqrt, log2, all, frac:F');
+    expect(fit({ features: 'half' })).toThrow('forest: option "features" must be breiman, sqrt, log2, all, frac:F');
     expect(fit({ features: 3 })).toThrow('forest: option "features" must be a string, got 3');
     expect(fit({ tree: 3 })).toThrow('forest: unknown option "tree"');
     expect(fit({ tree: 3 })).toThrow('did you mean "trees"');
@@ -317,10 +317,10 @@ describe('forest: options', () => {
     expect(parseFeatureCount('SQRT')).toBe('sqrt');
     expect(parseFeatureCount(' frac:0.50 ')).toBe('frac:0.5');
     expect(parseFeatureCount('count:03')).toBe('count:3');
-    // auto: sqrt(p) for classification, p/3 for regression (common practice: Liaw & Wiener 2002)
-    expect(resolveFeatureCount('auto', 20, 'classification')).toBe(4);
-    expect(resolveFeatureCount('auto', 20, 'regression')).toBe(6);
-    expect(resolveFeatureCount('auto', 2, 'regression')).toBe(1);
+    // breiman: sqrt(p) for classification, p/3 for regression (common practice: Liaw & Wiener 2002)
+    expect(resolveFeatureCount('breiman', 20, 'classification')).toBe(4);
+    expect(resolveFeatureCount('breiman', 20, 'regression')).toBe(6);
+    expect(resolveFeatureCount('breiman', 2, 'regression')).toBe(1);
     expect(resolveFeatureCount('log2', 20, 'classification')).toBe(4);
     expect(resolveFeatureCount('all', 7, 'classification')).toBe(7);
     expect(resolveFeatureCount('frac:0.29', 100, 'classification')).toBe(29);
@@ -330,12 +330,12 @@ describe('forest: options', () => {
 
   it('the spec list declares the documented defaults', () => {
     const byName = new Map(forest.params.map((s) => [s.name, s]));
-    expect([...byName.keys()]).toEqual(['trees', 'depth', 'minLeaf', 'features', 'criterion', 'bins', 'sample', 'rebalance']);
-    expect(byName.get('trees')?.default).toBe(100);
+    expect([...byName.keys()]).toEqual(['trees', 'depth', 'min-leaf', 'features', 'impurity', 'bins', 'sample', 'rebalance']);
+    expect(byName.get('trees')?.default).toBe(200);
     expect(byName.get('depth')?.default).toBe(32);
-    expect(byName.get('minLeaf')?.default).toBe(1);
-    expect(byName.get('features')?.default).toBe('auto');
-    expect(byName.get('criterion')?.default).toBe('gini');
+    expect(byName.get('min-leaf')?.default).toBe(1);
+    expect(byName.get('features')?.default).toBe('breiman');
+    expect(byName.get('impurity')?.default).toBe('gini');
     expect(byName.get('sample')?.default).toBe('1');
   });
 });
@@ -364,8 +364,8 @@ describe('forest: bootstrap sample size (sample, issue 14)', () => {
     const a = forest.fit(X, y, { trees: 15 }, ctx(3));
     const b = forest.fit(X, y, { trees: 15, sample: '1' }, ctx(3));
     const c = forest.fit(X, y, { trees: 15, sample: '400' }, ctx(3));
-    expect(Array.from(b.predictProba!(Q))).toEqual(Array.from(a.predictProba!(Q)));
-    expect(Array.from(c.predictProba!(Q))).toEqual(Array.from(a.predictProba!(Q)));
+    expect(Array.from(b.probabilities!(Q))).toEqual(Array.from(a.probabilities!(Q)));
+    expect(Array.from(c.probabilities!(Q))).toEqual(Array.from(a.probabilities!(Q)));
   });
 
   it('N draws give trees on at most N distinct rows: at most 2N - 1 nodes each (a binary tree with at most N leaves)', () => {
@@ -386,6 +386,6 @@ describe('forest: bootstrap sample size (sample, issue 14)', () => {
   it('same seed, same smaller forest', () => {
     const a = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
     const b = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
-    expect(Array.from(a.predictProba!(Q))).toEqual(Array.from(b.predictProba!(Q)));
+    expect(Array.from(a.probabilities!(Q))).toEqual(Array.from(b.probabilities!(Q)));
   });
 });

@@ -19,7 +19,7 @@ describe('knn', () => {
     const codes = Int32Array.from({ length: 300 }, (_, i) => (X.data[i * 4] + X.data[i * 4 + 1] > 10 ? 1 : 0));
     const y: Target = { task: 'classification', codes, classes: ['no', 'yes'] };
     for (const k of [1, 3, 7]) {
-      const ours = knn.fit(X, y, { k, weights: 'uniform' }, ctx).predict(Q);
+      const ours = knn.fit(X, y, { k, vote: 'equal' }, ctx).predict(Q);
       const ref = knnRef.fit(X, y, { k }, ctx).predict(Q);
       expect(ours.length).toBe(120);
       expect(Array.from(ours)).toEqual(Array.from(ref));
@@ -46,23 +46,23 @@ describe('knn', () => {
     const X: Matrix = { rows: 4, cols: 1, data: Float64Array.from([0, 2, 4, -2]) };
     const y: Target = { task: 'classification', codes: Int32Array.from([0, 1, 1, 0]), classes: ['a', 'b'] };
     // query 1: rows 0 and 1 are equally near; the earlier row (0) takes the single place
-    expect(Array.from(knn.fit(X, y, { k: 1, weights: 'uniform' }, ctx).predict({ rows: 1, cols: 1, data: Float64Array.from([1]) }))).toEqual([0]);
+    expect(Array.from(knn.fit(X, y, { k: 1, vote: 'equal' }, ctx).predict({ rows: 1, cols: 1, data: Float64Array.from([1]) }))).toEqual([0]);
     // query 1.5 with k=2: one vote each; the tied class of the nearest neighbour (row 1, class 1) wins
-    expect(Array.from(knn.fit(X, y, { k: 2, weights: 'uniform' }, ctx).predict({ rows: 1, cols: 1, data: Float64Array.from([1.5]) }))).toEqual([1]);
-    // distance weights with an exact match: only the distance-0 neighbour votes
-    const m = knn.fit(X, y, { k: 3, weights: 'distance' }, ctx);
+    expect(Array.from(knn.fit(X, y, { k: 2, vote: 'equal' }, ctx).predict({ rows: 1, cols: 1, data: Float64Array.from([1.5]) }))).toEqual([1]);
+    // inverse votes with an exact match: only the distance-0 neighbour votes
+    const m = knn.fit(X, y, { k: 3, vote: 'inverse' }, ctx);
     const at2 = { rows: 1, cols: 1, data: Float64Array.from([2]) };
     expect(Array.from(m.predict(at2))).toEqual([1]);
-    expect(Array.from(m.predictProba!(at2))).toEqual([0, 1]);
+    expect(Array.from(m.probabilities!(at2))).toEqual([0, 1]);
   });
 
   it('averages neighbour values for regression, uniformly or by 1/d', () => {
     const X: Matrix = { rows: 3, cols: 1, data: Float64Array.from([0, 1, 3]) };
     const y: Target = { task: 'regression', values: Float64Array.from([10, 20, 40]) };
     const q = { rows: 1, cols: 1, data: Float64Array.from([0.5]) };
-    expect(Array.from(knn.fit(X, y, { k: 2, weights: 'uniform' }, ctx).predict(q))).toEqual([15]);
+    expect(Array.from(knn.fit(X, y, { k: 2, vote: 'equal' }, ctx).predict(q))).toEqual([15]);
     // weights 1/0.5 = 2 each: (2*10 + 2*20) / 4 = 15; with k=3 add 1/2.5 = 0.4 for 40
-    const w = knn.fit(X, y, { k: 3, weights: 'distance' }, ctx).predict(q)[0];
+    const w = knn.fit(X, y, { k: 3, vote: 'inverse' }, ctx).predict(q)[0];
     expect(Math.abs(w - (2 * 10 + 2 * 20 + 0.4 * 40) / 4.4)).toBeLessThan(1e-12);
   });
 
@@ -70,10 +70,10 @@ describe('knn', () => {
     const X = randomMatrix(50, 3, 1);
     const Q = randomMatrix(20, 3, 2);
     const y: Target = { task: 'classification', codes: Int32Array.from({ length: 50 }, (_, i) => i % 3), classes: ['a', 'b', 'c'] };
-    const m = knn.fit(X, y, { k: 5, weights: 'distance' }, ctx);
+    const m = knn.fit(X, y, { k: 5, vote: 'inverse' }, ctx);
     const back = knn.load(JSON.parse(JSON.stringify(m.toJSON())));
     expect(Array.from(back.predict(Q))).toEqual(Array.from(m.predict(Q)));
-    expect(Array.from(back.predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(back.probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     const ref = knnRef.fit(X, y, { k: 5 }, ctx);
     expect(Array.from(knnRef.load(JSON.parse(JSON.stringify(ref.toJSON()))).predict(Q))).toEqual(Array.from(ref.predict(Q)));
   });

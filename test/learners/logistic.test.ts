@@ -66,7 +66,7 @@ describe('logistic', () => {
     const w = (lo + hi) / 2; // about 0.4011
     const X: Matrix = { rows: 2, cols: 1, data: Float64Array.from([-1, 1]) };
     const y: Target = { task: 'classification', codes: Int32Array.from([0, 1]), classes: ['no', 'yes'] };
-    const p = logistic.fit(X, y, { l2: 2, iterations: 100 }, ctx).predictProba!({ rows: 2, cols: 1, data: Float64Array.from([1, 0]) });
+    const p = logistic.fit(X, y, { l2: 2, iterations: 100 }, ctx).probabilities!({ rows: 2, cols: 1, data: Float64Array.from([1, 0]) });
     expect(Math.abs(p[1] - 1 / (1 + Math.exp(-w)))).toBeLessThan(1e-12);
     expect(Math.abs(p[2] - 0.5)).toBeLessThan(1e-12); // x = 0: intercept 0
     expect(Math.abs(p[0] + p[1] - 1)).toBeLessThan(1e-15);
@@ -100,7 +100,7 @@ describe('logistic', () => {
         expect(Math.abs(wBin - wSym)).toBeLessThan(1e-8);
       }
       // and the learner (reference form) gives probabilities from the same model
-      const p = logistic.fit(X, y, { l2, iterations: 100 }, ctx).predictProba!(Q);
+      const p = logistic.fit(X, y, { l2, iterations: 100 }, ctx).probabilities!(Q);
       expect(p.length).toBe(100);
     }
   });
@@ -110,7 +110,7 @@ describe('logistic', () => {
     const three = Int32Array.from(codes, (c) => (c === 1 ? 2 : 0)); // classes 0 and 2 only
     const m = logistic.fit(X, { task: 'classification', codes: three, classes: ['a', 'b', 'c'] }, { l2: 1, iterations: 100 }, ctx);
     const Q = seeded(20, 2, 2, 13).X;
-    const p = m.predictProba!(Q);
+    const p = m.probabilities!(Q);
     expect(p.length).toBe(60);
     for (let i = 0; i < 20; i++) {
       expect(p[i * 3 + 1]).toBe(0);
@@ -119,7 +119,7 @@ describe('logistic', () => {
     expect(Array.from(m.predict(Q)).every((c) => c === 0 || c === 2)).toBe(true);
     // one class only: that class with probability 1
     const one = logistic.fit(X, { task: 'classification', codes: new Int32Array(120).fill(1), classes: ['a', 'b'] }, { l2: 1, iterations: 100 }, ctx);
-    expect(Array.from(one.predictProba!(Q).subarray(0, 2))).toEqual([0, 1]);
+    expect(Array.from(one.probabilities!(Q).subarray(0, 2))).toEqual([0, 1]);
   });
 
   it('round-trips through JSON and is deterministic', () => {
@@ -128,9 +128,9 @@ describe('logistic', () => {
     const Q = seeded(30, 3, 3, 15).X;
     const m = logistic.fit(X, y, { l2: 1, iterations: 100 }, ctx);
     const back = logistic.load(JSON.parse(JSON.stringify(m.toJSON())));
-    expect(Array.from(back.predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(back.probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     expect(Array.from(back.predict(Q))).toEqual(Array.from(m.predict(Q)));
-    expect(Array.from(logistic.fit(X, y, { l2: 1, iterations: 100 }, { rng: createRng(5), seed: 5 }).predictProba!(Q))).toEqual(Array.from(m.predictProba!(Q)));
+    expect(Array.from(logistic.fit(X, y, { l2: 1, iterations: 100 }, { rng: createRng(5), seed: 5 }).probabilities!(Q))).toEqual(Array.from(m.probabilities!(Q)));
     expect(() => logistic.load({})).toThrow(/not a saved logistic model/);
   });
 

@@ -65,17 +65,17 @@ describe('rebalance: class weights', () => {
     const { X, codes } = ratioFour(200, 3);
     const rep = replicate(X, codes, 4);
     const Q = imbalanced(300, 0.2, 4).X;
-    const variants: Params[] = [{}, { minLeaf: 3 }, { depth: 3 }];
+    const variants: Params[] = [{}, { 'min-leaf': 3 }, { depth: 3 }];
     for (const params of variants) {
-      const weighted = tree.fit(X, target(codes), { ...params, rebalance: 'equal' }, ctx(1)).predictProba!(Q);
-      const copied = tree.fit(rep.X, target(rep.codes), params, ctx(1)).predictProba!(Q);
+      const weighted = tree.fit(X, target(codes), { ...params, rebalance: 'equal' }, ctx(1)).probabilities!(Q);
+      const copied = tree.fit(rep.X, target(rep.codes), params, ctx(1)).probabilities!(Q);
       expect(weighted.length).toBe(600);
       expect(rep.X.rows).toBe(200 + 3 * 40);
       expect(Array.from(weighted)).toEqual(Array.from(copied));
     }
     // and rebalance changes the tree (it is not a no-op on imbalanced rows)
-    const plain = tree.fit(X, target(codes), { depth: 3 }, ctx(1)).predictProba!(Q);
-    const weighted = tree.fit(X, target(codes), { depth: 3, rebalance: 'equal' }, ctx(1)).predictProba!(Q);
+    const plain = tree.fit(X, target(codes), { depth: 3 }, ctx(1)).probabilities!(Q);
+    const weighted = tree.fit(X, target(codes), { depth: 3, rebalance: 'equal' }, ctx(1)).probabilities!(Q);
     expect(Array.from(plain)).not.toEqual(Array.from(weighted));
   });
 
@@ -84,8 +84,8 @@ describe('rebalance: class weights', () => {
     const { X, codes } = ratioFour(300, 5);
     const rep = replicate(X, codes, 4);
     const Q = imbalanced(100, 0.2, 6).X;
-    const weighted = logistic.fit(X, target(codes), { l2: 0, rebalance: 'equal' }, ctx(1)).predictProba!(Q);
-    const copied = logistic.fit(rep.X, target(rep.codes), { l2: 0 }, ctx(1)).predictProba!(Q);
+    const weighted = logistic.fit(X, target(codes), { l2: 0, rebalance: 'equal' }, ctx(1)).probabilities!(Q);
+    const copied = logistic.fit(rep.X, target(rep.codes), { l2: 0 }, ctx(1)).probabilities!(Q);
     expect(weighted.length).toBe(200);
     let worst = 0;
     for (let i = 0; i < weighted.length; i++) worst = Math.max(worst, Math.abs(weighted[i] - copied[i]));
@@ -96,7 +96,7 @@ describe('rebalance: class weights', () => {
     const train = imbalanced(2000, 0.05, 7);
     const test = imbalanced(4000, 0.05, 8);
     const score = (rebalance: string) => {
-      const m = forest.fit(train.X, target(train.codes), { trees: 40, minLeaf: 20, rebalance }, ctx(2));
+      const m = forest.fit(train.X, target(train.codes), { trees: 40, 'min-leaf': 20, rebalance }, ctx(2));
       const predicted = m.predict(test.X) as Int32Array;
       return { bal: balancedAccuracy({ actual: test.codes, predicted, classes: 2 }), rec: macroRecall({ actual: test.codes, predicted, classes: 2 }), predicted };
     };

@@ -6,9 +6,9 @@ import { formatSpec, parseLearnerSpec, resolveParams } from '../../src/learners/
 describe('learner specs', () => {
   it('parses NAME and NAME:key=value,... and fills defaults', () => {
     const knn = getLearner('knn');
-    const p = resolveParams(knn, parseLearnerSpec('knn:k=3,weights=distance'), 'classification');
-    expect(p).toEqual(Object.assign(Object.create(null), { k: 3, weights: 'distance' }));
-    expect(formatSpec(knn, p)).toBe('knn:k=3,weights=distance');
+    const p = resolveParams(knn, parseLearnerSpec('knn:k=3,vote=inverse'), 'classification');
+    expect(p).toEqual(Object.assign(Object.create(null), { k: 3, vote: 'inverse' }));
+    expect(formatSpec(knn, p)).toBe('knn:k=3,vote=inverse');
     expect(formatSpec(knn, resolveParams(knn, parseLearnerSpec('knn'), 'classification'))).toBe('knn');
     expect(formatSpec(knn, resolveParams(knn, parseLearnerSpec('knn:k=5'), 'regression'))).toBe('knn');
   });
@@ -22,7 +22,7 @@ describe('learner specs', () => {
     ['knn:k=0', /--learner knn: k=0: must be at least 1/],
     ['knn:k=2.5', /k=2.5: expected a whole number/],
     ['knn:k=abc', /k=abc: expected a number/],
-    ['knn:weights=near', /weights=near: expected one of uniform, distance/],
+    ['knn:vote=near', /vote=near: expected one of equal, inverse/],
   ])('rejects %s', (text, message) => {
     const run = () => {
       const spec = parseLearnerSpec(text);

@@ -132,8 +132,8 @@ describe('tree: one split that separates the classes (reference: ml-cart)', () =
   const min1 = Math.min(...rows.filter((_, i) => codes[i] === 1).map((r) => r[0]));
 
   it('ours: a depth-1 tree on feature 0, threshold halfway between the groups, pure leaves', () => {
-    for (const criterion of ['gini', 'entropy']) {
-      const j = tree.fit(matrix(rows), classes(codes, 2), { criterion }, ctx(1)).toJSON() as unknown as TreeJson;
+    for (const impurity of ['gini', 'entropy']) {
+      const j = tree.fit(matrix(rows), classes(codes, 2), { impurity }, ctx(1)).toJSON() as unknown as TreeJson;
       expect(j.feature.length).toBe(3);
       expect(j.feature[0]).toBe(0);
       expect(depthOf(j)).toBe(1);
@@ -263,7 +263,7 @@ describe('tree: regression', () => {
       y.push(x[0] < 0.3 ? -2 : x[0] < 0.7 ? 5 : 1);
     }
     const m = tree.fit(matrix(rows), { task: 'regression', values: Float64Array.from(y) }, {}, ctx(1));
-    expect(m.predictProba).toBeUndefined();
+    expect(m.probabilities).toBeUndefined();
     const pred = m.predict(matrix(rows));
     expect(Array.from(pred)).toEqual(y);
     const j = m.toJSON() as unknown as TreeJson;
@@ -277,13 +277,13 @@ describe('tree: caps, determinism, round trip', () => {
   const X = matrix(rows);
   const y = classes(codes, 2);
 
-  it('depth is a cap and every leaf holds at least minLeaf training rows', () => {
+  it('depth is a cap and every leaf holds at least min-leaf training rows', () => {
     for (const [depth, minLeaf] of [
       [2, 1],
       [32, 10],
       [5, 3],
     ]) {
-      const j = tree.fit(X, y, { depth, minLeaf }, ctx(1)).toJSON() as unknown as TreeJson;
+      const j = tree.fit(X, y, { depth, 'min-leaf': minLeaf }, ctx(1)).toJSON() as unknown as TreeJson;
       expect(depthOf(j)).toBeLessThanOrEqual(depth);
       const count = new Map<number, number>();
       for (const r of rows) {
@@ -312,7 +312,7 @@ describe('tree: caps, determinism, round trip', () => {
     const back = tree.load(JSON.parse(JSON.stringify(m.toJSON())));
     const test = matrix(curved(9, 200).rows);
     expect(Array.from(back.predict(test))).toEqual(Array.from(m.predict(test)));
-    expect(Array.from(back.predictProba?.(test) ?? [])).toEqual(Array.from(m.predictProba?.(test) ?? [1]));
+    expect(Array.from(back.probabilities?.(test) ?? [])).toEqual(Array.from(m.probabilities?.(test) ?? [1]));
     const r = tree.fit(X, { task: 'regression', values: Float64Array.from(rows.map((x) => x[0] * 3 + x[2])) }, {}, ctx(1));
     const rb = tree.load(JSON.parse(JSON.stringify(r.toJSON())));
     expect(Array.from(rb.predict(test))).toEqual(Array.from(r.predict(test)));
@@ -347,8 +347,8 @@ describe('tree: options', () => {
   it('rejects invalid values with messages naming the option and its limit', () => {
     expect(fit({ depth: 0 })).toThrow(UsageError);
     expect(fit({ depth: 0 })).toThrow('tree: option "depth" must be an integer >= 1, got 0');
-    expect(fit({ minLeaf: 2.5 })).toThrow('tree: option "minLeaf" must be an integer >= 1, got 2.5');
-    expect(fit({ criterion: 'variance' })).toThrow('tree: option "criterion" must be one of gini, entropy, got "variance"');
+    expect(fit({ 'min-leaf': 2.5 })).toThrow('tree: option "min-leaf" must be an integer >= 1, got 2.5');
+    expect(fit({ impurity: 'variance' })).toThrow('tree: option "impurity" must be one of gini, entropy, got "variance"');
     expect(fit({ bins: 256 })).toThrow('tree: option "bins" must be an integer between 2 and 255, got 256');
     expect(fit({ trees: 10 })).toThrow('tree: unknown option "trees"');
   });

@@ -27,13 +27,13 @@ const ok: ClassificationInput = {
   actual: Int32Array.from([0, 1, 1]),
   predicted: Int32Array.from([0, 1, 0]),
   classes: 2,
-  proba: Float64Array.from([0.9, 0.1, 0.2, 0.8, 0.6, 0.4]),
+  probs: Float64Array.from([0.9, 0.1, 0.2, 0.8, 0.6, 0.4]),
 };
 
 describe('classification input checks, for every classification metric', () => {
   it('has the ten classification metrics and three with probabilities', () => {
     expect(classification.length).toBe(10);
-    expect(withProba.map((m) => m.name)).toEqual(['log_loss', 'brier', 'roc_auc']);
+    expect(withProba.map((m) => m.name)).toEqual(['log-loss', 'brier', 'roc-auc']);
   });
   for (const m of classification) {
     const fn = m.fn as (input: ClassificationInput) => number;
@@ -45,7 +45,7 @@ describe('classification input checks, for every classification metric', () => {
       ));
     it(`${m.name}: empty input`, () =>
       expectInputError(
-        () => fn({ actual: new Int32Array(0), predicted: new Int32Array(0), classes: 2, proba: new Float64Array(0) }),
+        () => fn({ actual: new Int32Array(0), predicted: new Int32Array(0), classes: 2, probs: new Float64Array(0) }),
         `${m.name}: actual and predicted must not be empty`,
       ));
     it(`${m.name}: bad class count`, () =>
@@ -63,28 +63,28 @@ describe('classification input checks, for every classification metric', () => {
   }
   for (const m of withProba) {
     const fn = m.fn as (input: ClassificationInput) => number;
-    it(`${m.name}: proba missing`, () =>
+    it(`${m.name}: probs missing`, () =>
       expectInputError(
         () => fn({ actual: ok.actual, predicted: ok.predicted, classes: 2 }),
-        `${m.name}: needs class probabilities, but proba is missing`,
+        `${m.name}: needs class probabilities, but probs is missing`,
       ));
-    it(`${m.name}: wrong proba size`, () =>
+    it(`${m.name}: wrong probs size`, () =>
       expectInputError(
-        () => fn({ ...ok, proba: new Float64Array(5).fill(0.5) }),
-        `${m.name}: proba must have 3 x 2 = 6 entries (got 5)`,
+        () => fn({ ...ok, probs: new Float64Array(5).fill(0.5) }),
+        `${m.name}: probs must have 3 x 2 = 6 entries (got 5)`,
       ));
-    it(`${m.name}: proba not a probability`, () => {
+    it(`${m.name}: probs not a probability`, () => {
       expectInputError(
-        () => fn({ ...ok, proba: Float64Array.from([0.9, 0.1, 1.5, 0.8, 0.6, 0.4]) }),
-        `${m.name}: proba at row 1, class 0 is 1.5, not a probability in [0, 1]`,
+        () => fn({ ...ok, probs: Float64Array.from([0.9, 0.1, 1.5, 0.8, 0.6, 0.4]) }),
+        `${m.name}: probs at row 1, class 0 is 1.5, not a probability in [0, 1]`,
       );
       expectInputError(
-        () => fn({ ...ok, proba: Float64Array.from([0.9, 0.1, 0.2, 0.8, 0.6, NaN]) }),
-        `${m.name}: proba at row 2, class 1 is NaN, not a probability in [0, 1]`,
+        () => fn({ ...ok, probs: Float64Array.from([0.9, 0.1, 0.2, 0.8, 0.6, NaN]) }),
+        `${m.name}: probs at row 2, class 1 is NaN, not a probability in [0, 1]`,
       );
     });
   }
-  it('metrics without probabilities ignore a missing proba', () => {
+  it('metrics without probabilities ignore a missing probs', () => {
     for (const m of classification.filter((x) => !x.needsProba)) {
       const fn = m.fn as (input: ClassificationInput) => number;
       expect(Number.isFinite(fn({ actual: ok.actual, predicted: ok.predicted, classes: 2 }))).toBe(true);

@@ -36,13 +36,13 @@ describe('accuracy and the recall/precision family on a hand-worked 3-class tabl
     [1, 0, 3],
   ]);
   it('accuracy = 13 / 20', () => expect(Math.abs(accuracy(input) - 0.65)).toBeLessThan(1e-12));
-  it('balanced_accuracy = mean recall = 2 / 3', () =>
+  it('balanced-accuracy = mean recall = 2 / 3', () =>
     expect(Math.abs(balancedAccuracy(input) - (0.75 + 0.5 + 0.75) / 3)).toBeLessThan(1e-12));
-  it('macro_recall = balanced_accuracy when every class occurs in actual', () =>
+  it('macro-recall = balanced-accuracy when every class occurs in actual', () =>
     expect(Math.abs(macroRecall(input) - balancedAccuracy(input))).toBeLessThan(1e-12));
-  it('macro_precision = (.75 + 2/3 + .5) / 3', () =>
+  it('macro-precision = (.75 + 2/3 + .5) / 3', () =>
     expect(Math.abs(macroPrecision(input) - (0.75 + 2 / 3 + 0.5) / 3)).toBeLessThan(1e-12));
-  it('macro_f1 = mean per-class F1 = (12/16 + 8/14 + 6/10) / 3', () =>
+  it('macro-f1 = mean per-class F1 = (12/16 + 8/14 + 6/10) / 3', () =>
     expect(Math.abs(macroF1(input) - (12 / 16 + 8 / 14 + 6 / 10) / 3)).toBeLessThan(1e-12));
 });
 
@@ -73,7 +73,7 @@ describe('zero-denominator conventions (documented in src/metrics/per-class.ts)'
     // F1: 2/4, 4/5, 0, 0
     expect(Math.abs(macroF1(input) - (0.5 + 0.8) / 4)).toBeLessThan(1e-12);
   });
-  it('balanced_accuracy runs over the classes present in actual only', () => {
+  it('balanced-accuracy runs over the classes present in actual only', () => {
     // recall 1/2, 1, 0 over classes 0, 1, 2
     expect(Math.abs(balancedAccuracy(input) - 0.5)).toBeLessThan(1e-12);
   });

@@ -33,17 +33,17 @@ export function fromBinary(tp: number, fn: number, tn: number, fp: number): Clas
   ]);
 }
 
-/** Two-class input with scores for class 1; proba rows are [1 - s, s]. */
+/** Two-class input with scores for class 1; probs rows are [1 - s, s]. */
 export function binaryScores(labels: readonly number[], scores: readonly number[]): ClassificationInput {
   const n = labels.length;
-  const proba = new Float64Array(2 * n);
+  const probs = new Float64Array(2 * n);
   const predicted = new Int32Array(n);
   for (let i = 0; i < n; i++) {
-    proba[2 * i] = 1 - scores[i];
-    proba[2 * i + 1] = scores[i];
+    probs[2 * i] = 1 - scores[i];
+    probs[2 * i + 1] = scores[i];
     predicted[i] = scores[i] >= 0.5 ? 1 : 0;
   }
-  return { actual: Int32Array.from(labels), predicted, classes: 2, proba };
+  return { actual: Int32Array.from(labels), predicted, classes: 2, probs };
 }
 
 export function absDiff(a: number, b: number): number {

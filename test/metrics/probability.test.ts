@@ -3,32 +3,33 @@ import { brier } from '../../src/metrics/brier.js';
 import { logLoss } from '../../src/metrics/log-loss.js';
 import type { ClassificationInput } from '../../src/metrics/types.js';
 
-// three rows, two classes; proba rows (p0, p1): (.8, .2), (.3, .7), (.6, .4); actual 0, 1, 1
+// three rows, two classes; probs rows (p0, p1): (.8, .2), (.3, .7), (.6, .4); actual 0, 1, 1
 const input: ClassificationInput = {
   actual: Int32Array.from([0, 1, 1]),
   predicted: Int32Array.from([0, 1, 0]),
   classes: 2,
-  proba: Float64Array.from([0.8, 0.2, 0.3, 0.7, 0.6, 0.4]),
+  probs: Float64Array.from([0.8, 0.2, 0.3, 0.7, 0.6, 0.4]),
 };
 
-describe('log_loss', () => {
+describe('log-loss', () => {
   it('matches a hand computation', () => {
     // -(ln .8 + ln .7 + ln .4) / 3 = (0.223144 + 0.356675 + 0.916291) / 3 = 0.498703
     expect(Math.abs(logLoss(input) - -(Math.log(0.8) + Math.log(0.7) + Math.log(0.4)) / 3)).toBeLessThan(1e-12);
     expect(Math.abs(logLoss(input) - 0.498703)).toBeLessThan(1e-6);
   });
 
-  it('clips probabilities to [1e-15, 1 - 1e-15] (documented)', () => {
+  it('clips probabilities to [2^-53, 1 - 2^-53] (documented; was 1e-15 before format 2)', () => {
     const sure: ClassificationInput = {
       actual: Int32Array.from([0, 1]),
       predicted: Int32Array.from([1, 1]),
       classes: 2,
-      proba: Float64Array.from([0, 1, 0, 1]),
+      probs: Float64Array.from([0, 1, 0, 1]),
     };
-    // row 0: p(actual) = 0 -> 1e-15 -> 34.538776; row 1: p = 1 -> 1 - 1e-15 -> ~1e-15
-    const expected = (-Math.log(1e-15) - Math.log(1 - 1e-15)) / 2;
+    // row 0: p(actual) = 0 -> 2^-53 -> 53 ln 2 = 36.736801; row 1: p = 1 -> 1 - 2^-53 -> ~1.1e-16
+    const expected = (-Math.log(2 ** -53) - Math.log(1 - 2 ** -53)) / 2;
+    expect(1 - 2 ** -53).toBeLessThan(1); // the upper clip is a double below 1
     expect(Math.abs(logLoss(sure) - expected)).toBeLessThan(1e-12);
-    expect(Math.abs(logLoss(sure) - 34.538776 / 2)).toBeLessThan(1e-6);
+    expect(Math.abs(logLoss(sure) - 36.736801 / 2)).toBeLessThan(1e-6);
   });
 
   it('scores ln(k) for a uniform guess over k classes', () => {
@@ -37,7 +38,7 @@ describe('log_loss', () => {
       actual: Int32Array.from([0, 3, 2]),
       predicted: Int32Array.from([0, 0, 0]),
       classes: k,
-      proba: new Float64Array(3 * k).fill(1 / k),
+      probs: new Float64Array(3 * k).fill(1 / k),
     };
     expect(Math.abs(logLoss(uniform) - Math.log(k))).toBeLessThan(1e-12);
   });
@@ -55,7 +56,7 @@ describe('brier (multi-class form of Brier 1950)', () => {
 
   it('is 0 for certain correct forecasts and 2 for certain wrong ones', () => {
     const base = { actual: Int32Array.from([0, 2]), predicted: Int32Array.from([0, 2]), classes: 3 };
-    expect(brier({ ...base, proba: Float64Array.from([1, 0, 0, 0, 0, 1]) })).toBe(0);
-    expect(brier({ ...base, proba: Float64Array.from([0, 1, 0, 1, 0, 0]) })).toBe(2);
+    expect(brier({ ...base, probs: Float64Array.from([1, 0, 0, 0, 0, 1]) })).toBe(0);
+    expect(brier({ ...base, probs: Float64Array.from([0, 1, 0, 1, 0, 0]) })).toBe(2);
   });
 });

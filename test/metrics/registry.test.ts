@@ -6,19 +6,19 @@ describe('metric registry', () => {
   it('lists exactly the fourteen names, each registered under its own name', () => {
     expect([...METRIC_NAMES]).toEqual([
       'accuracy',
-      'balanced_accuracy',
-      'macro_precision',
-      'macro_recall',
-      'macro_f1',
+      'balanced-accuracy',
+      'macro-precision',
+      'macro-recall',
+      'macro-f1',
       'mcc',
       'kappa',
-      'log_loss',
+      'log-loss',
       'brier',
-      'roc_auc',
+      'roc-auc',
       'mae',
       'rmse',
       'r2',
-      'median_absolute_error',
+      'medae',
     ]);
     expect(METRICS.size).toBe(METRIC_NAMES.length);
     for (const name of METRIC_NAMES) {
@@ -31,15 +31,15 @@ describe('metric registry', () => {
 
   it('records direction and probability needs', () => {
     const lower = METRIC_NAMES.filter((n) => !getMetric(n).higherIsBetter);
-    expect(lower).toEqual(['log_loss', 'brier', 'mae', 'rmse', 'median_absolute_error']);
-    const proba = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
-    expect(proba).toEqual(['log_loss', 'brier', 'roc_auc']);
+    expect(lower).toEqual(['log-loss', 'brier', 'mae', 'rmse', 'medae']);
+    const probs = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
+    expect(probs).toEqual(['log-loss', 'brier', 'roc-auc']);
     const regression = METRIC_NAMES.filter((n) => getMetric(n).task === 'regression');
-    expect(regression).toEqual(['mae', 'rmse', 'r2', 'median_absolute_error']);
+    expect(regression).toEqual(['mae', 'rmse', 'r2', 'medae']);
   });
 
   it('defaults per task', () => {
-    expect(defaultMetrics('classification')).toEqual(['accuracy', 'balanced_accuracy', 'macro_f1', 'log_loss']);
+    expect(defaultMetrics('classification')).toEqual(['accuracy', 'balanced-accuracy', 'macro-f1', 'log-loss']);
     expect(defaultMetrics('regression')).toEqual(['rmse', 'mae', 'r2']);
   });
 

@@ -3,7 +3,7 @@ import { createRng } from '../../src/run/rng.js';
 import { rocAuc } from '../../src/metrics/roc-auc.js';
 import { binaryScores } from './helpers.js';
 
-describe('roc_auc, two classes', () => {
+describe('roc-auc, two classes', () => {
   it('Fawcett (2006) Fig. 3: 20 instances, AUC 0.68', () => {
     // Fawcett, "An introduction to ROC analysis", Pattern Recognition Letters 27:861-874,
     // Fig. 3: instance classes (p/n) and scores. Recalled from memory and matched against a
@@ -76,10 +76,10 @@ describe('roc_auc, two classes', () => {
   });
 });
 
-describe('roc_auc, more classes: macro one-vs-rest', () => {
+describe('roc-auc, more classes: macro one-vs-rest', () => {
   it('averages the one-vs-rest areas of the classes with positives and negatives (by hand)', () => {
     // 4 classes, class 3 never occurs in actual (no positives), so it is left out.
-    // rows: actual, proba (p0, p1, p2, p3)
+    // rows: actual, probs (p0, p1, p2, p3)
     //  0: .6 .2 .1 .1
     //  0: .3 .4 .2 .1
     //  1: .2 .5 .2 .1
@@ -93,12 +93,12 @@ describe('roc_auc, more classes: macro one-vs-rest', () => {
     // class 2, positives {.6, .3}, negatives {.1, .2, .2, .1}
     //   both beat all 4 -> 8; AUC_2 = 1
     // macro = (0.8125 + 0.8125 + 1) / 3 = 0.875
-    const proba = Float64Array.from([
+    const probs = Float64Array.from([
       0.6, 0.2, 0.1, 0.1, 0.3, 0.4, 0.2, 0.1, 0.2, 0.5, 0.2, 0.1, 0.5, 0.3, 0.1, 0.1, 0.1, 0.2, 0.6, 0.1, 0.3,
       0.3, 0.3, 0.1,
     ]);
     const actual = Int32Array.from([0, 0, 1, 1, 2, 2]);
     const predicted = Int32Array.from([0, 1, 1, 0, 2, 0]);
-    expect(Math.abs(rocAuc({ actual, predicted, classes: 4, proba }) - 0.875)).toBeLessThan(1e-12);
+    expect(Math.abs(rocAuc({ actual, predicted, classes: 4, probs }) - 0.875)).toBeLessThan(1e-12);
   });
 });

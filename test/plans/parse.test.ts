@@ -15,8 +15,8 @@ describe('parsePlan', () => {
     expect(parsePlan('kfold:5')).toEqual({ kind: 'kfold', k: 5, repeats: 1 });
     expect(parsePlan('kfold:5x3')).toEqual({ kind: 'kfold', k: 5, repeats: 3 });
     expect(parsePlan('loo')).toEqual({ kind: 'loo' });
-    expect(parsePlan('shuffle:20@0.25')).toEqual({ kind: 'shuffle', splits: 20, testFraction: 0.25 });
-    expect(parsePlan('shuffle:1@.5')).toEqual({ kind: 'shuffle', splits: 1, testFraction: 0.5 });
+    expect(parsePlan('resplit:20@0.25')).toEqual({ kind: 'resplit', splits: 20, testFraction: 0.25 });
+    expect(parsePlan('resplit:1@.5')).toEqual({ kind: 'resplit', splits: 1, testFraction: 0.5 });
     expect(parsePlan('holdout:0.6/0.2/0.2')).toEqual({ kind: 'holdout', train: 0.6, validation: 0.2, holdout: 0.2 });
     expect(parsePlan('holdout:0.7/0.3/0')).toEqual({ kind: 'holdout', train: 0.7, validation: 0.3, holdout: 0 });
     expect(parsePlan('forward:5')).toEqual({ kind: 'forward', k: 5 });
@@ -28,7 +28,7 @@ describe('parsePlan', () => {
     expect(formatPlan(parsePlan('kfold'))).toBe('kfold:10');
     expect(formatPlan(parsePlan('kfold:05x1'))).toBe('kfold:5');
     expect(formatPlan(parsePlan('kfold:5x3'))).toBe('kfold:5x3');
-    expect(formatPlan(parsePlan('shuffle:20@.250'))).toBe('shuffle:20@0.25');
+    expect(formatPlan(parsePlan('resplit:20@.250'))).toBe('resplit:20@0.25');
     expect(formatPlan(parsePlan('holdout:0.6/0.2/0.20'))).toBe('holdout:0.6/0.2/0.2');
     expect(formatPlan(parsePlan('loo'))).toBe('loo');
     expect(formatPlan(parsePlan('forward:4'))).toBe('forward:4');
@@ -40,7 +40,7 @@ describe('parsePlan', () => {
     const arbSpec: fc.Arbitrary<PlanSpec> = fc.oneof(
       fc.record({ kind: fc.constant('kfold' as const), k: count(2), repeats: count(1) }),
       fc.constant({ kind: 'loo' as const }),
-      fc.record({ kind: fc.constant('shuffle' as const), splits: count(1), testFraction: frac }),
+      fc.record({ kind: fc.constant('resplit' as const), splits: count(1), testFraction: frac }),
       fc
         .record({ a: frac, b: frac, zero: fc.boolean() })
         .map(({ a, b, zero }) => {
@@ -62,7 +62,7 @@ describe('parsePlan', () => {
   });
 
   const KFOLD = 'expected kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1';
-  const SHUFFLE = 'expected shuffle:N@F with a whole number N >= 1 and a fraction 0 < F < 1';
+  const RESPLIT = 'expected resplit:N@F with a whole number N >= 1 and a fraction 0 < F < 1';
   const HOLDOUT = 'expected holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1';
   const FORWARD = 'expected forward:K with a whole number K >= 1';
   const cases: [string, string][] = [
@@ -76,13 +76,13 @@ describe('parsePlan', () => {
     ['kfold:5x3x2', `--plan "kfold:5x3x2": ${KFOLD}`],
     ['kfold:99999999999999999999', `--plan "kfold:99999999999999999999": ${KFOLD}`],
     ['loo:3', '--plan "loo:3": expected loo with nothing after it'],
-    ['shuffle', `--plan "shuffle": ${SHUFFLE}`],
-    ['shuffle:5', `--plan "shuffle:5": ${SHUFFLE}`],
-    ['shuffle:0@0.2', `--plan "shuffle:0@0.2": ${SHUFFLE}`],
-    ['shuffle:5@0', `--plan "shuffle:5@0": ${SHUFFLE}`],
-    ['shuffle:5@1', `--plan "shuffle:5@1": ${SHUFFLE}`],
-    ['shuffle:5@-0.2', `--plan "shuffle:5@-0.2": ${SHUFFLE}`],
-    ['shuffle:5@20%', `--plan "shuffle:5@20%": ${SHUFFLE}`],
+    ['resplit', `--plan "resplit": ${RESPLIT}`],
+    ['resplit:5', `--plan "resplit:5": ${RESPLIT}`],
+    ['resplit:0@0.2', `--plan "resplit:0@0.2": ${RESPLIT}`],
+    ['resplit:5@0', `--plan "resplit:5@0": ${RESPLIT}`],
+    ['resplit:5@1', `--plan "resplit:5@1": ${RESPLIT}`],
+    ['resplit:5@-0.2', `--plan "resplit:5@-0.2": ${RESPLIT}`],
+    ['resplit:5@20%', `--plan "resplit:5@20%": ${RESPLIT}`],
     ['holdout:0.5/0.5', `--plan "holdout:0.5/0.5": ${HOLDOUT}`],
     ['holdout:0.5/0.3/0.3', `--plan "holdout:0.5/0.3/0.3": ${HOLDOUT}`],
     ['holdout:0/0.5/0.5', `--plan "holdout:0/0.5/0.5": ${HOLDOUT}`],
@@ -91,9 +91,9 @@ describe('parsePlan', () => {
     ['forward', `--plan "forward": ${FORWARD}`],
     ['forward:0', `--plan "forward:0": ${FORWARD}`],
     ['forward:k', `--plan "forward:k": ${FORWARD}`],
-    ['kfld:5', '--plan "kfld:5": unknown plan "kfld"; expected one of kfold, loo, shuffle, holdout, forward; did you mean "kfold"?'],
-    ['', '--plan "": unknown plan ""; expected one of kfold, loo, shuffle, holdout, forward'],
-    ['KFOLD:5', '--plan "KFOLD:5": unknown plan "KFOLD"; expected one of kfold, loo, shuffle, holdout, forward; did you mean "kfold"?'],
+    ['kfld:5', '--plan "kfld:5": unknown plan "kfld"; expected one of kfold, loo, resplit, holdout, forward; did you mean "kfold"?'],
+    ['', '--plan "": unknown plan ""; expected one of kfold, loo, resplit, holdout, forward'],
+    ['KFOLD:5', '--plan "KFOLD:5": unknown plan "KFOLD"; expected one of kfold, loo, resplit, holdout, forward; did you mean "kfold"?'],
   ];
   it.each(cases)('rejects %j with a fixed message', (text, message) => {
     expect(() => parsePlan(text)).toThrow(UsageError);
@@ -112,7 +112,7 @@ describe('parsePlan', () => {
 
   it('checks specs built in code the same way', () => {
     expect(() => buildPlan({ kind: 'kfold', k: 1, repeats: 1 }, input(10, 1))).toThrow(`--plan "kfold:1": ${KFOLD}`);
-    expect(() => buildPlan({ kind: 'shuffle', splits: 3, testFraction: 1.5 }, input(10, 1))).toThrow(UsageError);
+    expect(() => buildPlan({ kind: 'resplit', splits: 3, testFraction: 1.5 }, input(10, 1))).toThrow(UsageError);
     expect(() => buildPlan({ kind: 'forward', k: 2.5 }, input(10, 1))).toThrow(FORWARD);
   });
 });

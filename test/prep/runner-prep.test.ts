@@ -131,7 +131,7 @@ describe('the runner fits preprocessing and learners on training rows only (inst
     await check(penguins, { target: 'Species', drop: ['Sex'], group: 'Island', plan: 'kfold:3', learners: ['knn:k=3'] });
   });
   it('shuffled splits on the penguins, regression on body mass', async () => {
-    await check(penguins, { target: 'Body Mass (g)', plan: 'shuffle:4@0.3', learners: ['knn'] });
+    await check(penguins, { target: 'Body Mass (g)', plan: 'resplit:4@0.3', learners: ['knn'] });
   });
   it('holdout with --final: the final fit never reads the holdout rows', async () => {
     await check(penguins, { target: 'Species', plan: 'holdout:0.6/0.2/0.2', final: true, learners: ['knn'] });

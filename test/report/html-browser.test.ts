@@ -246,7 +246,7 @@ describe.skipIf(!HAVE)(`HTML report in headless Chromium (${HAVE ? CHROMIUM : `s
     }
     // tune pages: the demo with a small two-option grid, and the hostile data (written by tune --html)
     const tuneDemo = join(tmp.dir, 'tune-demo.html');
-    const t = await cli(['tune', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--drop', 'lot_id', '--group', 'orchard', '--learner', 'knn:k=3|9|15,weights=uniform|distance', '--plan', 'kfold:3', '--no-timing', '--html', tuneDemo]);
+    const t = await cli(['tune', 'examples/packhouse/fruit-grading.csv', '--target', 'grade', '--drop', 'lot_id', '--group', 'orchard', '--learner', 'knn:k=3|9|15,vote=equal|inverse', '--plan', 'kfold:3', '--no-timing', '--html', tuneDemo]);
     expect(t.code).toBe(0);
     pages.set('tune-demo', tuneDemo);
     const tuneHostile = join(tmp.dir, 'tune-hostile.html');

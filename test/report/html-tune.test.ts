@@ -43,7 +43,7 @@ const unescape = (s: string): string => s.replace(/&quot;/g, '"').replace(/&#39;
 const byId = (r: TuneReport, id: number): TuneCandidate => r.candidates.find((c) => c.id === id)!;
 
 describe('HTML tune page of a two-option knn grid (penguins)', async () => {
-  const { report, html, json } = await tunePage('grid', ['--learner', 'knn:k=1|5|15,weights=uniform|distance']);
+  const { report, html, json } = await tunePage('grid', ['--learner', 'knn:k=1|5|15,vote=equal|inverse']);
   const rec = byId(report, report.recommendation.id);
 
   it('is one self-contained document: no scripts, no outside resources, a blocking CSP', () => {
@@ -91,22 +91,22 @@ describe('HTML tune page of a two-option knn grid (penguins)', async () => {
     expect(html).toContain('<table class="grid">');
   });
 
-  it('finds the two options that vary, numeric k and categorical weights, held at the recommendation', () => {
+  it('finds the two options that vary, numeric k and categorical vote, held at the recommendation', () => {
     const spaces = learnerSpaces(report);
     expect(spaces.length).toBe(1);
     expect(spaces[0].varying.map((a) => [a.name, a.numeric, a.values])).toEqual([
       ['k', true, [1, 5, 15]],
-      ['weights', false, ['uniform', 'distance']],
+      ['vote', false, ['equal', 'inverse']],
     ]);
     expect(spaces[0].anchor.id).toBe(rec.id);
-    expect(figureOf(html, 'option-1-1')).toContain(esc(`held at the recommended candidate's values (weights=${rec.params.weights})`));
+    expect(figureOf(html, 'option-1-1')).toContain(esc(`held at the recommended candidate's values (vote=${rec.params.vote})`));
     expect(figureOf(html, 'option-1-2')).toContain(esc(`held at the recommended candidate's values (k=${rec.params.k})`));
   });
 
-  it('draws the k curve at the inner means of the candidates with the recommended weights, linear in the mean', () => {
+  it('draws the k curve at the inner means of the candidates with the recommended vote, linear in the mean', () => {
     const chart = figureOf(html, 'option-1-1');
     const groups = pointGroups(chart);
-    const expected = report.candidates.filter((c) => c.params.weights === rec.params.weights).sort((a, b) => Number(a.params.k) - Number(b.params.k));
+    const expected = report.candidates.filter((c) => c.params.vote === rec.params.vote).sort((a, b) => Number(a.params.k) - Number(b.params.k));
     expect(expected.length).toBe(3);
     expect(groups.length).toBe(3);
     const ys: [number, number][] = [];
@@ -135,13 +135,13 @@ describe('HTML tune page of a two-option knn grid (penguins)', async () => {
     }
   });
 
-  it('draws weights as points with sd bars at the categories, not as a line', () => {
+  it('draws vote as points with sd bars at the categories, not as a line', () => {
     const chart = figureOf(html, 'option-1-2');
     expect(chart).not.toContain('<polyline');
     const groups = pointGroups(chart);
     expect(groups.length).toBe(2);
-    expect(groups.map((g) => unescape(tags(g, 'g')[0].get('data-value')!))).toEqual(['uniform', 'distance']);
-    expect(chart).toMatch(/>uniform<title>uniform<\/title><\/text>/);
+    expect(groups.map((g) => unescape(tags(g, 'g')[0].get('data-value')!))).toEqual(['equal', 'inverse']);
+    expect(chart).toMatch(/>equal<title>equal<\/title><\/text>/);
   });
 
   it('rings the recommendation on every chart it is on, and counts the outer picks by value', () => {
@@ -164,12 +164,12 @@ describe('HTML tune page of a two-option knn grid (penguins)', async () => {
   it('writes each heat cell with the candidate mean, rows and columns the values, the recommendation outlined', () => {
     const table = html.slice(html.indexOf('<table class="heat"'), html.indexOf('</table>', html.indexOf('<table class="heat"')));
     expect(tags(table, 'table')[0].get('data-rows')).toBe('k');
-    expect(tags(table, 'table')[0].get('data-cols')).toBe('weights');
+    expect(tags(table, 'table')[0].get('data-cols')).toBe('vote');
     expect([...table.matchAll(/<th scope="row">([^<]*)<\/th>/g)].map((m) => m[1])).toEqual(['1', '5', '15']);
-    expect([...table.matchAll(/<th scope="col">([^<]*)<\/th>/g)].map((m) => m[1])).toEqual(['uniform', 'distance']);
+    expect([...table.matchAll(/<th scope="col">([^<]*)<\/th>/g)].map((m) => m[1])).toEqual(['equal', 'inverse']);
     const cells = [...table.matchAll(/<td([^>]*)>([^<]*)</g)];
     expect(cells.length).toBe(6);
-    const order = ['1', '5', '15'].flatMap((k) => ['uniform', 'distance'].map((w) => report.candidates.find((c) => String(c.params.k) === k && c.params.weights === w)!));
+    const order = ['1', '5', '15'].flatMap((k) => ['equal', 'inverse'].map((w) => report.candidates.find((c) => String(c.params.k) === k && c.params.vote === w)!));
     cells.forEach((m, i) => {
       expect(m[1]).toContain(`data-candidate="${order[i].id}"`);
       expect(m[1]).toContain(`data-mean="${order[i].all.mean}"`);
@@ -214,7 +214,7 @@ describe('HTML tune page of a two-option knn grid (penguins)', async () => {
     expect(footer).toContain(esc(report.plan.outer.text));
     expect(footer).toContain(esc(report.plan.inner.text));
     expect(footer).toContain(`<dt>seed</dt><dd>${report.plan.seed}</dd>`);
-    expect(footer).toContain(esc(`foldwise ${report.tool.version}, report format foldwise-tune/1`));
+    expect(footer).toContain(esc(`foldwise ${report.tool.version}, report format foldwise-tune/2`));
     // the quick audit's suspects (report.audit) and the other warnings both reach the footer
     expect(report.warnings.length + (report.audit?.suspects.length ?? 0)).toBeGreaterThan(0);
     for (const w of report.warnings) expect(footer).toContain(esc(w));
@@ -258,13 +258,13 @@ describe('edge warnings and the one-standard-error pick on the tune page', async
 });
 
 describe('the tune page of a random search over two options (penguins)', async () => {
-  const { report, html } = await tunePage('sampled', ['--learner', 'knn:k=1..15+2,weights=uniform|distance', '--sample', '6', '--plan', 'kfold:3']);
+  const { report, html } = await tunePage('sampled', ['--learner', 'knn:k=1..15+2,vote=equal|inverse', '--sample', '6', '--plan', 'kfold:3']);
 
   it('leaves the untried combinations empty in the heat table and draws the others as grey dots', () => {
     expect(report.candidates.length).toBe(6);
     const table = html.slice(html.indexOf('<table class="heat"'), html.indexOf('</table>', html.indexOf('<table class="heat"')));
     const space = learnerSpaces(report)[0];
-    expect(space.varying.map((a) => a.name)).toEqual(['k', 'weights']);
+    expect(space.varying.map((a) => a.name)).toEqual(['k', 'vote']);
     const kValues = space.varying[0].values.length;
     const wValues = space.varying[1].values.length;
     const tried = tags(table, 'td').filter((t) => t.has('data-mean'));

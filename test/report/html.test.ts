@@ -172,13 +172,13 @@ describe('HTML gate page', async () => {
   const a = await evalReport('gate-a.json', ['--target', 'Species', '--learner', 'knn', '--plan', 'kfold:5']);
   const b = await evalReport('gate-b.json', ['--target', 'Species', '--learner', 'knn:k=15', '--plan', 'kfold:5']);
   const verdictPath = join(tmp.dir, 'verdict.json');
-  const g = await cli(['gate', '--baseline', a.path, '--current', b.path, '--learner', 'knn', '--current-learner', 'knn:k=15', '--json', verdictPath]);
+  const g = await cli(['gate', '--previous', a.path, '--current', b.path, '--learner', 'knn', '--current-learner', 'knn:k=15', '--json', verdictPath]);
   expect([0, 1]).toContain(g.code);
   const verdict = JSON.parse(readFileSync(verdictPath, 'utf8')) as GateVerdict;
   const html = await render(verdictPath);
   it('shows the verdict, both means and the change with its interval', () => {
     expect(html).toContain(verdict.verdict === 'pass' ? '>PASS</span>' : '>FAIL</span>');
-    expect(html).toContain(`data-mean="${verdict.baseline.mean}"`);
+    expect(html).toContain(`data-mean="${verdict.previous.mean}"`);
     expect(html).toContain(`data-mean="${verdict.current.mean}"`);
     const change = tags(html, 'g').find((t) => t.get('class') === 'change')!;
     expect(Number(change.get('data-change'))).toBe(verdict.change);
@@ -193,11 +193,11 @@ describe('render refuses what it cannot draw', () => {
     const p = tmp.file('other.json', '{"schema":"something/1"}');
     const r = await cli(['render', p, '--html', join(tmp.dir, 'x.html')]);
     expect(r.code).toBe(2);
-    expect(r.stderr).toMatch(/^foldwise: render .*other\.json: not a file foldwise can render .*foldwise-report\/1.*foldwise-gate\/1/);
-    const q = tmp.file('bad.json', '{"schema":"foldwise-report/1"}');
+    expect(r.stderr).toMatch(/^foldwise: render .*other\.json: not a file foldwise can render .*foldwise-report\/2.*foldwise-gate\/2/);
+    const q = tmp.file('bad.json', '{"schema":"foldwise-report/2"}');
     const s = await cli(['render', q, '--html', join(tmp.dir, 'y.html')]);
     expect(s.code).toBe(2);
-    expect(s.stderr).toMatch(/not a valid foldwise-report\/1 report/);
+    expect(s.stderr).toMatch(/not a valid foldwise-report\/2 report/);
     expect(() => renderFile(join(tmp.dir, 'missing.json'))).toThrow(/cannot be read \(ENOENT\)/);
   });
 });

@@ -48,6 +48,10 @@ describe('shards and merge', () => {
     expect(merged.stderr).toBe('');
     expect(merged.code).toBe(0);
     expect(merged.stdout).toBe(whole.stdout);
+    // parts made with --no-timing carry that choice: merge alone writes no timing either (#19)
+    const carried = await cli(['merge', ...parts, '--json', '-']);
+    expect(carried.code).toBe(0);
+    expect(carried.stdout).toBe(whole.stdout);
 
     const missing = await cli(['merge', parts[0], parts[2], '--json', '-']);
     expect(missing.code).toBe(2);

@@ -80,7 +80,7 @@ describe('eval --predictions: the file', () => {
                 actual: Int32Array.from(mine, (r) => code(r[col('actual')])),
                 predicted: Int32Array.from(mine, (r) => code(r[col('predicted_class')])),
                 classes: classes.length,
-                proba: Float64Array.from(mine.flatMap((r) => probCols.map((j) => Number(r[j])))),
+                probs: Float64Array.from(mine.flatMap((r) => probCols.map((j) => Number(r[j])))),
               });
             } else {
               v = metric.fn({ actual: Float64Array.from(mine, (r) => Number(r[col('actual')])), predicted: Float64Array.from(mine, (r) => Number(r[col('predicted_value')])) });

@@ -79,7 +79,7 @@ describe('score: a round trip through eval --predictions', () => {
     const c = await cli(['compare', json, scoredJson, '--json', '-']);
     expect(c.stderr).toBe('');
     expect(c.code).toBe(0);
-    const g = await cli(['gate', '--baseline', json, '--current', scoredJson]);
+    const g = await cli(['gate', '--previous', json, '--current', scoredJson]);
     expect(g.code).toBe(0);
     expect(g.stdout).toMatch(/pass/i);
   });
@@ -117,11 +117,11 @@ describe('score: published worked examples through the scoring path', () => {
     const actual = [...classes];
     const predicted = scores.map((s) => (s >= 0.5 ? 'p' : 'n'));
     const f = tmp.file('fawcett.csv', fileOf(actual, predicted, scores.map((s) => [1 - s, s]), ['n', 'p']));
-    const s = await cli(['score', f, '--actual', 'actual', '--predicted', 'predicted', '--fold', 'fold', '--prob', 'p_', '--metric', 'roc_auc', '--json', '-']);
+    const s = await cli(['score', f, '--actual', 'actual', '--predicted', 'predicted', '--fold', 'fold', '--prob', 'p_', '--metric', 'roc-auc', '--json', '-']);
     expect(s.code).toBe(0);
     const r = JSON.parse(s.stdout) as Report;
     expect(r.data.classes).toEqual(['n', 'p']);
-    expect(Math.abs(r.learners[0].pooled.roc_auc! - 0.68)).toBeLessThan(1e-12);
+    expect(Math.abs(r.learners[0].pooled['roc-auc']! - 0.68)).toBeLessThan(1e-12);
     // no training sizes in the file: assumed k-fold, and said so
     expect(r.source?.trainRows).toBe('assumed-kfold');
     expect(r.learners[0].folds.map((x) => x.trainRows)).toEqual([10, 10]);
@@ -142,9 +142,9 @@ describe('score: published worked examples through the scoring path', () => {
     expect(actual.length).toBe(109);
     const predicted = probs.map((p) => (p[0] >= 0.5 ? 'abnormal' : 'normal'));
     const f = tmp.file('hanley.csv', fileOf(actual, predicted, probs, ['abnormal', 'normal']));
-    const s = await cli(['score', f, '--actual', 'actual', '--predicted', 'predicted', '--fold', 'fold', '--prob', 'p_', '--metric', 'roc_auc', '--json', '-']);
+    const s = await cli(['score', f, '--actual', 'actual', '--predicted', 'predicted', '--fold', 'fold', '--prob', 'p_', '--metric', 'roc-auc', '--json', '-']);
     expect(s.code).toBe(0);
-    const auc = (JSON.parse(s.stdout) as Report).learners[0].pooled.roc_auc!;
+    const auc = (JSON.parse(s.stdout) as Report).learners[0].pooled['roc-auc']!;
     expect(Math.abs(auc - 0.893)).toBeLessThan(5e-4); // published to three decimals
   });
 
@@ -212,7 +212,7 @@ describe('score: a gate between a foldwise run and an outside run', () => {
     const s = await cli(['score', f, '--actual', 'actual', '--predicted', 'predicted_class', '--fold', 'fold', '--learner', 'learner', '--prob', 'prob:', '--json', out]);
     expect(s.stderr).toMatch(/^foldwise: warning: the predictions file gives no training sizes/);
     expect(s.code).toBe(0);
-    const g = await cli(['gate', '--baseline', json, '--current', out]);
+    const g = await cli(['gate', '--previous', json, '--current', out]);
     expect(g.code).toBe(2);
     expect(g.stderr).toMatch(/plan\.assignment/);
     // rows given, but the folds shifted by one: another assignment
@@ -222,7 +222,7 @@ describe('score: a gate between a foldwise run and an outside run', () => {
     const out2 = join(tmp.dir, 'shifted.json');
     // folds renumbered 1->2, ..., 5->1: the same groups of rows under other fold numbers
     expect((await cli(['score', f2, '--actual', 'actual', '--predicted', 'predicted_class', '--fold', 'fold', '--learner', 'learner', '--row', 'row', '--prob', 'prob:', '--json', out2])).code).toBe(0);
-    const g2 = await cli(['gate', '--baseline', json, '--current', out2]);
+    const g2 = await cli(['gate', '--previous', json, '--current', out2]);
     expect(g2.code).toBe(2);
     expect(g2.stderr).toMatch(/plan\.assignment/);
   });

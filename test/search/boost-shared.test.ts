@@ -52,8 +52,8 @@ describe('predictAll: boost candidates over rounds share one fit', () => {
       for (const [i, c] of cands.entries()) {
         const m = boost.fit(Xtr, subsetTarget(problem.target, train), c.params, { rng: createRng(seed), seed });
         expect(Array.from(preds[i].predicted)).toEqual(Array.from(m.predict(Xte)));
-        if (task === 'classification') expect(Array.from(preds[i].proba!)).toEqual(Array.from(m.predictProba!(Xte)));
-        else expect(preds[i].proba).toBeUndefined();
+        if (task === 'classification') expect(Array.from(preds[i].probs!)).toEqual(Array.from(m.probabilities!(Xte)));
+        else expect(preds[i].probs).toBeUndefined();
       }
     });
   }

@@ -31,8 +31,8 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
   const y = problem.target;
   const splitSeed = 12345;
 
-  it('kNN: one neighbour search for a grid of k and weights, identical to fitting each', () => {
-    const cands = candidates(['knn:k=1', 'knn:k=4', 'knn:k=9,weights=distance', 'knn:k=30', 'knn:k=2,weights=distance']);
+  it('kNN: one neighbour search for a grid of k and vote, identical to fitting each', () => {
+    const cands = candidates(['knn:k=1', 'knn:k=4', 'knn:k=9,vote=inverse', 'knn:k=30', 'knn:k=2,vote=inverse']);
     const work = newWorkCount();
     const preds = predictAll(split, y, cands, splitSeed, work);
     expect(work.fits).toBe(1);
@@ -43,7 +43,7 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
     for (const [i, c] of cands.entries()) {
       const model = c.learner.fit(Xtr, subsetTarget(y, train), c.params, { rng: createRng(1), seed: 1 });
       expect(Array.from(preds[i].predicted)).toEqual(Array.from(model.predict(Xte)));
-      expect(Array.from(preds[i].proba!)).toEqual(Array.from(model.predictProba!(Xte)));
+      expect(Array.from(preds[i].probs!)).toEqual(Array.from(model.probabilities!(Xte)));
     }
   });
 
@@ -61,7 +61,7 @@ describe('predictAll: shared work gives exactly the predictions of separate fits
     for (const [i, c] of cands.entries()) {
       const model = forest.fit(Xtr, subsetTarget(y, train), c.params, { rng: createRng(seed), seed });
       expect(Array.from(preds[i].predicted)).toEqual(Array.from(model.predict(Xte)));
-      expect(Array.from(preds[i].proba!)).toEqual(Array.from(model.predictProba!(Xte)));
+      expect(Array.from(preds[i].probs!)).toEqual(Array.from(model.probabilities!(Xte)));
     }
   });
 

@@ -50,7 +50,7 @@ describe('nested selection on pure noise (Varma & Simon 2006)', () => {
       const r = tune(table, {
         target: 'label',
         // 20 values of k x 2 weightings = 40 candidates
-        learners: ['knn:k=1..39+2,weights=uniform|distance'],
+        learners: ['knn:k=1..39+2,vote=equal|inverse'],
         metrics: ['accuracy'],
         seed,
         timing: false,
@@ -110,7 +110,7 @@ describe('nested selection on a signal with a known best range of k', () => {
     const list = { ...nearest(mat(train.X), mat(fresh.X), K), stride: K, rows: fresh.y.length };
     const truth = new Map<number, number>();
     for (const k of ks) {
-      const pred = predictFromNeighbours(list, Float64Array.from(train.y), train.y.length, 2, k, 'uniform').predicted;
+      const pred = predictFromNeighbours(list, Float64Array.from(train.y), train.y.length, 2, k, 'equal').predicted;
       let hit = 0;
       for (let i = 0; i < fresh.y.length; i++) if (pred[i] === fresh.y[i]) hit++;
       truth.set(k, hit / fresh.y.length);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { KNN_WEIGHTS, knn, nearest, predictFromNeighbours } from '../../src/learners/knn.js';
+import { KNN_VOTES, knn, nearest, predictFromNeighbours } from '../../src/learners/knn.js';
 import { knnRef } from '../../src/learners/knn-ref.js';
 import type { Matrix, Target } from '../../src/learners/types.js';
 import { createRng } from '../../src/run/rng.js';
@@ -17,7 +17,7 @@ function rowsOf(X: Matrix, from: number, to: number): Matrix {
 }
 
 describe('predictFromNeighbours: every k and weighting from one neighbour list equals knn itself', () => {
-  // The reference here is knn's own predict / predictProba (the brief: the votes and tie rules
+  // The reference here is knn's own predict / probabilities (the brief: the votes and tie rules
   // must equal knn's exactly). Tied data on purpose: coarse grid features make equal distances,
   // copied rows make distance 0 (the 1/d rule's special case), and 3 classes make tied votes.
   const X = gridMatrix(150, 3, 7, 4);
@@ -30,14 +30,14 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
   const K = 25;
   const list = { ...nearest(X, Q, K), stride: K, rows: Q.rows };
 
-  it('classification: predictions and probabilities, k = 1..25, uniform and distance', () => {
+  it('classification: predictions and probabilities, k = 1..25, equal and inverse votes', () => {
     let checked = 0;
-    for (const weights of KNN_WEIGHTS) {
+    for (const vote of KNN_VOTES) {
       for (let k = 1; k <= K; k++) {
-        const model = knn.fit(X, y, { k, weights }, ctx);
-        const shared = predictFromNeighbours(list, Float64Array.from(codes), X.rows, 3, k, weights);
+        const model = knn.fit(X, y, { k, vote }, ctx);
+        const shared = predictFromNeighbours(list, Float64Array.from(codes), X.rows, 3, k, vote);
         expect(Array.from(shared.predicted)).toEqual(Array.from(model.predict(Q)));
-        expect(Array.from(shared.proba!)).toEqual(Array.from(model.predictProba!(Q)));
+        expect(Array.from(shared.probs!)).toEqual(Array.from(model.probabilities!(Q)));
         checked++;
       }
     }
@@ -48,19 +48,19 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
     let zero = 0;
     for (let i = 0; i < Q.rows; i++) if (list.dist2[i * K] === 0) zero++;
     expect(zero).toBeGreaterThanOrEqual(20);
-    // with k = 2 uniform and 3 classes, a query whose two neighbours differ has a tied vote
+    // with k = 2 equal votes and 3 classes, a query whose two neighbours differ has a tied vote
     let tied = 0;
     for (let i = 0; i < Q.rows; i++) if (codes[list.index[i * K]] !== codes[list.index[i * K + 1]]) tied++;
     expect(tied).toBeGreaterThan(10);
   });
 
   it('regression: the (weighted) mean of the neighbours, identical to knn for every k', () => {
-    for (const weights of KNN_WEIGHTS) {
+    for (const vote of KNN_VOTES) {
       for (const k of [1, 2, 7, 25]) {
-        const model = knn.fit(X, yr, { k, weights }, ctx);
-        const shared = predictFromNeighbours(list, values, X.rows, 0, k, weights);
+        const model = knn.fit(X, yr, { k, vote }, ctx);
+        const shared = predictFromNeighbours(list, values, X.rows, 0, k, vote);
         expect(Array.from(shared.predicted)).toEqual(Array.from(model.predict(Q)));
-        expect(shared.proba).toBeUndefined();
+        expect(shared.probs).toBeUndefined();
       }
     }
   });
@@ -69,9 +69,9 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
     const small = rowsOf(X, 0, 6);
     const ySmall: Target = { task: 'classification', codes: codes.slice(0, 6), classes: ['a', 'b', 'c'] };
     const l6 = { ...nearest(small, Q, 6), stride: 6, rows: Q.rows };
-    const model = knn.fit(small, ySmall, { k: 40, weights: 'uniform' }, ctx);
-    expect(Array.from(predictFromNeighbours(l6, Float64Array.from(codes.slice(0, 6)), 6, 3, 40, 'uniform').predicted)).toEqual(Array.from(model.predict(Q)));
-    expect(() => predictFromNeighbours(list, Float64Array.from(codes), X.rows, 3, 26, 'uniform')).toThrow('knn: 26 neighbours asked from a list of 25 per query');
+    const model = knn.fit(small, ySmall, { k: 40, vote: 'equal' }, ctx);
+    expect(Array.from(predictFromNeighbours(l6, Float64Array.from(codes.slice(0, 6)), 6, 3, 40, 'equal').predicted)).toEqual(Array.from(model.predict(Q)));
+    expect(() => predictFromNeighbours(list, Float64Array.from(codes), X.rows, 3, 26, 'equal')).toThrow('knn: 26 neighbours asked from a list of 25 per query');
   });
 
   it('agrees with ml-knn (knn-ref) on untied data for odd k with two classes', () => {
@@ -84,7 +84,7 @@ describe('predictFromNeighbours: every k and weighting from one neighbour list e
     const t2: Target = { task: 'classification', codes: c2, classes: ['no', 'yes'] };
     const l = { ...nearest(A, B, 15), stride: 15, rows: B.rows };
     for (const k of [1, 5, 15]) {
-      const ours = predictFromNeighbours(l, Float64Array.from(c2), A.rows, 2, k, 'uniform').predicted;
+      const ours = predictFromNeighbours(l, Float64Array.from(c2), A.rows, 2, k, 'equal').predicted;
       const ref = knnRef.fit(A, t2, { k }, ctx).predict(B);
       expect(Array.from(ours)).toEqual(Array.from(ref));
     }

@@ -20,16 +20,16 @@ const cmp = (a: SearchCandidate, b: SearchCandidate) => compareComplexity(a.lear
 
 describe('complexity order (documented in complexity.ts)', () => {
   it('follows each learner\'s declared direction, most important option first', () => {
-    const [k3, k9, k9d, f1, f2, f3, t] = cands(['knn:k=3', 'knn:k=9', 'knn:k=9,weights=distance', 'forest:depth=3,trees=500', 'forest:depth=5,trees=10', 'forest:depth=3,trees=20', 'tree']);
+    const [k3, k9, k9d, f1, f2, f3, t] = cands(['knn:k=3', 'knn:k=9', 'knn:k=9,vote=inverse', 'forest:depth=3,trees=500', 'forest:depth=5,trees=10', 'forest:depth=3,trees=20', 'tree']);
     expect(cmp(k9, k3)).toBeLessThan(0); // more neighbours is simpler (ParamSpec simpler: higher)
-    expect(cmp(k9, k9d)).toBeLessThan(0); // uniform before distance at equal k
-    expect(cmp(k3, k9d)).toBeGreaterThan(0); // k decides before weights
+    expect(cmp(k9, k9d)).toBeLessThan(0); // equal before inverse votes at equal k
+    expect(cmp(k3, k9d)).toBeGreaterThan(0); // k decides before vote
     expect(cmp(f1, f2)).toBeLessThan(0); // depth decides before trees
     expect(cmp(f3, f1)).toBeLessThan(0); // fewer trees simpler at equal depth
     expect(cmp(k3, k3)).toBe(0);
     expect(cmp(k3, t)).toBeNull(); // different learners are not compared
-    expect(describeRanks(getLearner('knn'))).toBe('knn: k (higher simpler), weights (uniform < distance)');
-    expect(describeRanks(getLearner('forest'))).toBe('forest: depth (lower simpler), minLeaf (higher simpler), trees (lower simpler), bins (lower simpler)');
+    expect(describeRanks(getLearner('knn'))).toBe('knn: k (higher simpler), vote (equal < inverse)');
+    expect(describeRanks(getLearner('forest'))).toBe('forest: depth (lower simpler), min-leaf (higher simpler), trees (lower simpler), bins (lower simpler)');
   });
 });
 
@@ -90,7 +90,7 @@ describe('pickCandidate: best and the one-standard-error rule', () => {
 
   it('property: one-se is never more complex than best, and equals it with one candidate (fast-check)', () => {
     const ks = [1, 2, 3, 5, 8, 13, 21, 34];
-    const all = cands(ks.flatMap((k) => [`knn:k=${k}`, `knn:k=${k},weights=distance`]));
+    const all = cands(ks.flatMap((k) => [`knn:k=${k}`, `knn:k=${k},vote=inverse`]));
     const stat = fc.record({ mean: fc.double({ min: 0, max: 1, noNaN: true }), sd: fc.double({ min: 0, max: 0.3, noNaN: true }) });
     fc.assert(
       fc.property(fc.array(stat, { minLength: all.length, maxLength: all.length }), fc.boolean(), (raw, higher) => {

@@ -43,7 +43,7 @@ describe('search value syntax (lists and ranges; our own syntax, documented in v
     // whole-number option, factor 1.5: 1.5^i rounded (1, 1.5, 2.25, 3.375, 5.06, 7.59, 11.4,
     // 17.1, 25.6, 38.4, 57.7, 86.5 -> repeats dropped), computed by hand from the definition
     expect(values(knn, 'k', '1..100*1.5')).toEqual([1, 2, 3, 5, 8, 11, 17, 26, 38, 58, 86]);
-    expect(values(knn, 'weights', 'uniform|distance')).toEqual(['uniform', 'distance']);
+    expect(values(knn, 'vote', 'equal|inverse')).toEqual(['equal', 'inverse']);
     expect(values(forest, 'features', 'sqrt|frac:0.5')).toEqual(['sqrt', 'frac:0.5']);
   });
 
@@ -61,7 +61,7 @@ describe('search value syntax (lists and ranges; our own syntax, documented in v
     expect(bad(knn, 'k', '1..9+0')).toThrow('the step after + must be greater than 0');
     expect(bad(knn, 'k', '1..9*1')).toThrow('the factor after * must be greater than 1');
     expect(bad(knn, 'k', '1..9+1.5')).toThrow('needs a whole start and step');
-    expect(bad(knn, 'weights', 'a..b')).toThrow(UsageError);
+    expect(bad(knn, 'vote', 'a..b')).toThrow(UsageError);
     expect(bad(forest, 'trees', '1..1000000')).toThrow('--learner forest:trees=1..1000000: trees=1..1000000: more than 100000 values; use a larger step or --sample over a continuous range');
     expect(bad(knn, 'k', '1|')).toThrow('an empty item in the list');
     expect(bad(smooth, 'alpha', '0.1|0.5..1')).toThrow('a continuous range must be the only item');
@@ -71,13 +71,13 @@ describe('search value syntax (lists and ranges; our own syntax, documented in v
 
 describe('search space: grid size, limits, order, merging', () => {
   it('counts the grid as the product of the lists, summed over specs', () => {
-    const s = parseSearchSpace(['knn:k=1..9+2,weights=uniform|distance', 'forest:trees=10|20,depth=2|4|8']);
+    const s = parseSearchSpace(['knn:k=1..9+2,vote=equal|inverse', 'forest:trees=10|20,depth=2|4|8']);
     expect(s.size).toBe(5 * 2 + 2 * 3);
     const { candidates, plan } = searchCandidates(s, 'classification', {}, 1);
     expect(plan).toMatchObject({ gridSize: 16, tried: 16, sampled: false, limit: DEFAULT_MAX_CANDIDATES });
     expect(candidates.length).toBe(16);
     // first option varies slowest; default values leave the canonical spec
-    expect(candidates.slice(0, 3).map((c) => c.spec)).toEqual(['knn:k=1', 'knn:k=1,weights=distance', 'knn:k=3']);
+    expect(candidates.slice(0, 3).map((c) => c.spec)).toEqual(['knn:k=1', 'knn:k=1,vote=inverse', 'knn:k=3']);
     expect(candidates[4].spec).toBe('knn');
     expect(candidates.map((c) => c.id)).toEqual([...Array(16).keys()]);
   });

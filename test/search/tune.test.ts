@@ -45,11 +45,11 @@ function checkInvariants(r: TuneReport): void {
 }
 
 describe('tune on the Palmer penguins file', () => {
-  const r = run({ learners: ['knn:k=1|3|5|9|15,weights=uniform|distance'], seed: 3 });
+  const r = run({ learners: ['knn:k=1|3|5|9|15,vote=equal|inverse'], seed: 3 });
 
   it('reports a schema-valid nested search with an outer estimate, a recommendation and stability', () => {
     checkInvariants(r);
-    expect(r.schema).toBe('foldwise-tune/1');
+    expect(r.schema).toBe('foldwise-tune/2');
     expect(r.plan.outer).toEqual({ kind: 'kfold', text: 'kfold:5', folds: 5, repeats: 1, stratified: true });
     expect(r.plan.inner).toEqual({ kind: 'kfold', text: 'kfold:3', folds: 3, repeats: 1, stratified: true });
     expect(r.plan.searchRows).toBe(344);
@@ -75,7 +75,7 @@ describe('tune on the Palmer penguins file', () => {
   });
 
   it('is deterministic for a seed, and uses eval\'s outer folds (same sizes, same single-candidate scores)', () => {
-    expect(JSON.stringify(run({ learners: ['knn:k=1|3|5|9|15,weights=uniform|distance'], seed: 3 }))).toBe(JSON.stringify(r));
+    expect(JSON.stringify(run({ learners: ['knn:k=1|3|5|9|15,vote=equal|inverse'], seed: 3 }))).toBe(JSON.stringify(r));
     // with one candidate the nested search must refit exactly that model on each outer fold:
     // eval with plan kfold:5 and the same seed has the same folds, so the same fold scores
     const one = run({ learners: ['knn:k=7'], seed: 3 });
@@ -115,20 +115,20 @@ describe('tune on the Palmer penguins file', () => {
   });
 
   it('searches several learners together, sharing forest fits across tree counts', () => {
-    const m = run({ learners: ['knn:k=5|15', 'forest:trees=5|10|20,depth=3'], metrics: ['balanced_accuracy', 'accuracy'], inner: 'kfold:2' });
+    const m = run({ learners: ['knn:k=5|15', 'forest:trees=5|10|20,depth=3'], metrics: ['balanced-accuracy', 'accuracy'], inner: 'kfold:2' });
     checkInvariants(m);
     expect(m.candidates.length).toBe(5);
     // per split: one neighbour search and one forest (for 3 tree counts) = 2 fits
     expect(m.search.fits).toBe(2 * (5 * 2 + 2) + 5);
     expect(m.selection.complexity).toEqual([
-      'knn: k (higher simpler), weights (uniform < distance)',
-      'forest: depth (lower simpler), minLeaf (higher simpler), trees (lower simpler), bins (lower simpler)',
+      'knn: k (higher simpler), vote (equal < inverse)',
+      'forest: depth (lower simpler), min-leaf (higher simpler), trees (lower simpler), bins (lower simpler)',
     ]);
-    expect(Object.keys(m.outer.summary)).toEqual(['balanced_accuracy', 'accuracy']);
+    expect(Object.keys(m.outer.summary)).toEqual(['balanced-accuracy', 'accuracy']);
   });
 
   it('random search reports the grid size and the number tried', () => {
-    const s = run({ learners: ['knn:k=1..60,weights=uniform|distance'], sample: 8, seed: 4 });
+    const s = run({ learners: ['knn:k=1..60,vote=equal|inverse'], sample: 8, seed: 4 });
     checkInvariants(s);
     expect(s.search).toMatchObject({ gridSize: 120, tried: 8, sampled: true });
   });

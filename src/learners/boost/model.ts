@@ -48,7 +48,7 @@ export interface BoostModel extends Model {
   readonly parts: BoostParts;
   readonly rounds: number;
   predict(X: Matrix): Int32Array | Float64Array;
-  predictProba?(X: Matrix): Float64Array;
+  probabilities?(X: Matrix): Float64Array;
   /** predictions from the base score and the first r rounds (0 <= r <= rounds) */
   predictRounds(X: Matrix, r: number): Int32Array | Float64Array;
   probaRounds?(X: Matrix, r: number): Float64Array;
@@ -144,7 +144,7 @@ function classesOf(proba: Float64Array, n: number, C: number): Int32Array {
   return codes;
 }
 
-/** Predictions (and probabilities, for classes) from raw scores: what predict and predictProba give. */
+/** Predictions (and probabilities, for classes) from raw scores: what predict and probabilities give. */
 export function outputsOf(parts: BoostParts, F: Float64Array, rows: number): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
   if (parts.task === 'regression') return { predicted: F };
   const proba = probaOf(parts, F, rows);
@@ -174,7 +174,7 @@ export function makeBoostModel(parts: BoostParts): BoostModel {
     toJSON: () => boostToJSON(parts),
   };
   if (parts.task === 'regression') return base;
-  return { ...base, predictProba: (X: Matrix) => probaRounds(X, R), probaRounds };
+  return { ...base, probabilities: (X: Matrix) => probaRounds(X, R), probaRounds };
 }
 
 export function boostToJSON(parts: BoostParts): Record<string, unknown> {

@@ -2,7 +2,7 @@
  * How many features a forest draws at random at every split (the `features` option).
  *
  * Forms, for p features:
- *   auto     floor(sqrt(p)) for classification, floor(p / 3) for regression (at least 1). This is
+ *   breiman  floor(sqrt(p)) for classification, floor(p / 3) for regression (at least 1). This is
  *            common practice, from Liaw & Wiener (2002), "Classification and Regression by
  *            randomForest", R News 2(3):18-22 (free: https://journal.r-project.org/articles/RN-2002-022/);
  *            Breiman (2001) himself tried small counts such as floor(log2(p) + 1).
@@ -16,12 +16,12 @@ import { UsageError } from '../../errors.js';
 import type { Task } from '../types.js';
 
 const RULE =
-  'auto, sqrt, log2, all, frac:F with 0 < F <= 1, or count:M with M an integer >= 1';
+  'breiman, sqrt, log2, all, frac:F with 0 < F <= 1, or count:M with M an integer >= 1';
 
 /** Canonical form of a `features` value, or a UsageError naming the option and its limits. */
 export function parseFeatureCount(raw: string): string {
   const s = raw.trim().toLowerCase();
-  if (s === 'auto' || s === 'sqrt' || s === 'log2' || s === 'all') return s;
+  if (s === 'breiman' || s === 'sqrt' || s === 'log2' || s === 'all') return s;
   const bad = (why: string) => new UsageError(`option "features" must be ${why}, got ${JSON.stringify(raw)}`);
   const m = /^(frac|count):(.*)$/.exec(s);
   if (!m) throw bad(RULE);
@@ -41,7 +41,7 @@ export function resolveFeatureCount(canonical: string, p: number, task: Task): n
   // the 1e-9 keeps products such as 0.29 * 100 = 28.999999999999996 from losing a feature
   const atLeastOne = (k: number) => Math.min(p, Math.max(1, Math.floor(k + 1e-9)));
   switch (canonical) {
-    case 'auto':
+    case 'breiman':
       return task === 'classification' ? atLeastOne(Math.sqrt(p)) : atLeastOne(p / 3);
     case 'sqrt':
       return atLeastOne(Math.sqrt(p));

@@ -24,7 +24,7 @@ import { resolveFeatureCount } from './feature-count.js';
 import { resolveSampleSize } from './sample-size.js';
 import { classWeights } from '../class-balance.js';
 import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
-import { type Criterion, type GrowTarget, TreeGrower } from './grow.js';
+import { type Impurity, type GrowTarget, TreeGrower } from './grow.js';
 import { NodeStore } from './node-store.js';
 
 export interface CartSettings {
@@ -33,7 +33,7 @@ export interface CartSettings {
   readonly minLeaf: number;
   /** canonical `features` value (see feature-count.ts) */
   readonly features: string;
-  readonly criterion: 'gini' | 'entropy';
+  readonly impurity: 'gini' | 'entropy';
   readonly bins: number;
   readonly bootstrap: boolean;
   /** canonical `sample` value (see sample-size.ts); forest only */
@@ -72,7 +72,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   const p = X.cols;
   const binned = binMatrix(X, s.bins, kind);
   const mtry = resolveFeatureCount(s.features, p, y.task);
-  const criterion: Criterion = y.task === 'regression' ? 'variance' : s.criterion;
+  const impurity: Impurity = y.task === 'regression' ? 'variance' : s.impurity;
 
   let target: GrowTarget;
   if (y.task === 'classification') {
@@ -85,7 +85,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     for (let i = 0; i < n; i++) centred[i] = y.values[i] - mean;
     target = { kind: 'values', values: centred, raw: y.values };
   }
-  const grower = new TreeGrower(binned, target, { maxDepth: s.depth, minLeaf: s.minLeaf, mtry, criterion });
+  const grower = new TreeGrower(binned, target, { maxDepth: s.depth, minLeaf: s.minLeaf, mtry, impurity });
 
   const rebalance = s.rebalance ?? 'none';
   const cw = classWeights(kind, rebalance, y.task === 'classification' ? y.codes : null, classCount);
@@ -114,10 +114,10 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   const settings = new Map<string, number | string>([
     ['trees', s.trees],
     ['depth', s.depth],
-    ['minLeaf', s.minLeaf],
+    ['min-leaf', s.minLeaf],
     ['features', s.features],
     ['featuresPerSplit', mtry],
-    ['criterion', criterion],
+    ['impurity', impurity],
     ['bins', s.bins],
   ]);
   if (rebalance !== 'none') settings.set('rebalance', rebalance);

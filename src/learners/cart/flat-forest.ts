@@ -129,13 +129,13 @@ export function predictPrefixOf(parts: FlatForestParts, X: Matrix, trees: number
     return out;
   }
   const C = parts.classCount;
-  const proba = probaPrefix(parts, X, trees);
+  const probs = probaPrefix(parts, X, trees);
   const codes = new Int32Array(X.rows);
   for (let i = 0; i < X.rows; i++) {
     let bestK = 0;
     let bestP = -1;
     for (let k = 0; k < C; k++) {
-      const v = proba[i * C + k];
+      const v = probs[i * C + k];
       if (v > bestP) {
         bestP = v;
         bestK = k;

@@ -51,7 +51,7 @@ import type { Rng } from '../../run/rng.js';
 import type { BinnedMatrix } from './bins.js';
 import type { NodeStore } from './node-store.js';
 
-export type Criterion = 'gini' | 'entropy' | 'variance';
+export type Impurity = 'gini' | 'entropy' | 'variance';
 
 /** What a tree is grown to predict: class codes 0..classCount-1, or (centred) values. */
 export type GrowTarget =
@@ -69,7 +69,7 @@ export interface GrowSettings {
   readonly minLeaf: number;
   /** features drawn per node, 1..p */
   readonly mtry: number;
-  readonly criterion: Criterion;
+  readonly impurity: Impurity;
 }
 
 function xlogx(x: number): number {
@@ -488,7 +488,7 @@ export class TreeGrower {
     const L = this.leftTot;
     L.fill(0);
     const minLeaf = this.settings.minLeaf;
-    const entropy = this.settings.criterion === 'entropy';
+    const entropy = this.settings.impurity === 'entropy';
     // gini: maximise sum L_k^2 / W_L + sum R_k^2 / W_R (sums of squares of integer weights are exact)
     let sqL = 0;
     let sqR = 0;
@@ -668,7 +668,7 @@ export class TreeGrower {
       const tot = this.tot;
       const L = this.leftTot;
       L.fill(0);
-      const entropy = this.settings.criterion === 'entropy';
+      const entropy = this.settings.impurity === 'entropy';
       let sqL = 0;
       let sqR = 0;
       let parentScore: number;

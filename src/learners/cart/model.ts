@@ -1,15 +1,15 @@
 /**
  * The Model object of the `tree` and `forest` learners, over a FlatForestParts.
  *
- * Besides the Learner interface's predict / predictProba / toJSON it offers:
+ * Besides the Learner interface's predict / probabilities / toJSON it offers:
  *   importance()                  mean decrease in impurity per feature, summing to 1 (all zeros
  *                                 when no tree has a split)
  *   predictPrefix(X, k)           predictions from the first k trees only (1 <= k <= treeCount)
- *   predictProbaPrefix(X, k)      probabilities from the first k trees (classification)
+ *   probabilitiesPrefix(X, k)      probabilities from the first k trees (classification)
  * so that a grid over tree counts can be scored from prefixes of one fitted forest: the first k
  * trees of a forest of T trees are exactly the forest of k trees with the same seed, since every
  * tree has its own generator (see forest.ts).
- * A regression model has no predictProba / predictProbaPrefix property at all.
+ * A regression model has no probabilities / probabilitiesPrefix property at all.
  */
 import type { Matrix, Model, Task } from '../types.js';
 import { type CartKind, type FlatForestParts, partsToJSON, predictPrefixOf, probaPrefix } from './flat-forest.js';
@@ -23,9 +23,9 @@ export interface CartModel extends Model {
   /** resolved settings the model was fitted with */
   readonly settings: ReadonlyMap<string, number | string>;
   predict(X: Matrix): Int32Array | Float64Array;
-  predictProba?(X: Matrix): Float64Array;
+  probabilities?(X: Matrix): Float64Array;
   predictPrefix(X: Matrix, trees: number): Int32Array | Float64Array;
-  predictProbaPrefix?(X: Matrix, trees: number): Float64Array;
+  probabilitiesPrefix?(X: Matrix, trees: number): Float64Array;
   /** mean decrease in impurity per feature, normalised to sum 1 (a fresh copy) */
   importance(): Float64Array;
   /** node count of each tree */
@@ -61,7 +61,7 @@ export function makeModel(parts: FlatForestParts): CartModel {
   if (parts.task === 'regression') return base;
   return {
     ...base,
-    predictProba: (X: Matrix) => probaPrefix(parts, X, T),
-    predictProbaPrefix: (X: Matrix, trees: number) => probaPrefix(parts, X, trees),
+    probabilities: (X: Matrix) => probaPrefix(parts, X, T),
+    probabilitiesPrefix: (X: Matrix, trees: number) => probaPrefix(parts, X, trees),
   };
 }

@@ -31,12 +31,12 @@ interface Saved {
   readonly task: Target['task'];
   readonly classes: number;
   readonly predicted: number[];
-  readonly proba?: number[];
+  readonly probs?: number[];
 }
 
 function replayModel(saved: Saved): Model {
   const predicted = saved.task === 'classification' ? Int32Array.from(saved.predicted) : Float64Array.from(saved.predicted);
-  const proba = saved.proba ? Float64Array.from(saved.proba) : undefined;
+  const probs = saved.probs ? Float64Array.from(saved.probs) : undefined;
   const check = (X: Matrix): void => {
     if (X.rows !== predicted.length) {
       throw new InputError(`${saved.learner}: a command model holds the predictions for the ${predicted.length} test rows of fold ${saved.fold} only; it cannot predict ${X.rows} other rows`);
@@ -49,7 +49,7 @@ function replayModel(saved: Saved): Model {
     },
     toJSON: () => saved,
   };
-  if (proba) model.predictProba = (X) => (check(X), proba.slice());
+  if (probs) model.probabilities = (X) => (check(X), probs.slice());
   return model;
 }
 
@@ -103,7 +103,7 @@ export function commandLearner(program: CommandProgram, setup: CommandSetup): Le
         task: y.task,
         classes: classes?.length ?? 0,
         predicted: Array.from(read.predicted),
-        ...(read.task === 'classification' && read.proba ? { proba: Array.from(read.proba) } : {}),
+        ...(read.task === 'classification' && read.probs ? { probs: Array.from(read.probs) } : {}),
       });
     },
     load(json) {

@@ -8,7 +8,7 @@ import { CommandFoldError } from './errors.js';
 import { PROBABILITY_SUM_TOLERANCE } from './protocol.js';
 
 export type ReadPredictions =
-  | { readonly task: 'classification'; readonly predicted: Int32Array; readonly proba?: Float64Array }
+  | { readonly task: 'classification'; readonly predicted: Int32Array; readonly probs?: Float64Array }
   | { readonly task: 'regression'; readonly predicted: Float64Array };
 
 const NUMBER = /^\s*[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?\s*$/;
@@ -70,7 +70,7 @@ export function readPredictions(text: string, path: string, rows: number, classe
     slot[j] = k as number;
   });
   const C = classes.length;
-  const proba = new Float64Array(rows * C);
+  const probs = new Float64Array(rows * C);
   for (let i = 0; i < rows; i++) {
     const line = lines[i + 1];
     let sum = 0;
@@ -78,11 +78,11 @@ export function readPredictions(text: string, path: string, rows: number, classe
       const t = line[j];
       const v = NUMBER.test(t) ? Number(t) : NaN;
       if (!(v >= 0 && v <= 1)) fail(i + 2, `column "${header[j].slice(0, 40)}": "${t.slice(0, 40)}" is not a probability from 0 to 1`);
-      proba[i * C + slot[j]] = v;
+      probs[i * C + slot[j]] = v;
       sum += v;
     }
     if (Math.abs(sum - 1) > PROBABILITY_SUM_TOLERANCE) fail(i + 2, `the probabilities sum to ${sum}, not 1 (tolerance ${PROBABILITY_SUM_TOLERANCE})`);
-    for (let c = 0; c < C; c++) proba[i * C + c] /= sum;
+    for (let c = 0; c < C; c++) probs[i * C + c] /= sum;
   }
-  return { task: 'classification', predicted: argmaxRows(proba, C), proba };
+  return { task: 'classification', predicted: argmaxRows(probs, C), probs };
 }

@@ -58,7 +58,7 @@ export function comparisonChart(ctx: ChartContext): string | undefined {
     }
     g.push(`<circle cx="${px(x(p.diff))}" cy="${cy}" r="6" fill="${colour}" stroke="#ffffff" stroke-width="1.2"><title>${esc(`${labels[i]}: ${signed(p.diff)}, corrected 95% interval ${intervalText(p.ci95)}, p ${pText(p.p)}`)}</title></circle>`);
     g.push(svgText(right + 12, cy + 1, `${signed(p.diff)}  (${intervalText(p.ci95)})`, `font-size="13" fill="${INK}"`));
-    g.push(svgText(right + 12, cy + 17, `${verdict}; won ${p.wins} of ${p.folds} folds`, `font-size="13" fill="${MUTED}"`));
+    g.push(svgText(right + 12, cy + 17, `${verdict}; won ${p.wins} of ${p.folds} fold${p.folds === 1 ? "" : "s"}`, `font-size="13" fill="${MUTED}"`));
     g.push('</g>');
     body.push(g.join('\n'));
     words.push(`${labels[i]} (against ${against}): difference ${signed(p.diff)}, corrected 95% interval ${intervalText(p.ci95)}, ${verdict}; better on ${p.wins}, equal on ${p.ties}, worse on ${p.losses} of ${p.folds} paired folds.`);

@@ -8,6 +8,7 @@
  * then, for both, the quick audit's suspects ("Data audit") and the warnings.
  */
 import { esc } from './escape.js';
+import { foldCount } from '../fold-label.js';
 import type { DataSection, Report, ReportAudit } from '../types.js';
 import type { TunePlanInfo, TuneReport } from '../tune-types.js';
 
@@ -57,7 +58,7 @@ function footer(items: readonly string[], audit: ReportAudit | undefined, warnin
 export function evalFooter(report: Report): string {
   const p = report.plan;
   const plan = [
-    `${p.text} (${p.folds} folds${p.repeats > 1 ? ` × ${p.repeats} repeats` : ''})`,
+    `${p.text} (${foldCount(p)}${p.repeats > 1 ? ` × ${p.repeats} repeats` : ''})`,
     p.stratified ? 'stratified' : 'not stratified',
     p.group !== undefined ? `grouped by ${p.group}` : '',
     p.order !== undefined ? `ordered by ${p.order}` : '',

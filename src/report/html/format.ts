@@ -31,23 +31,23 @@ function unitOf(metric: string, target: string): string {
   switch (metric) {
     case 'accuracy':
       return 'share of rows right, 0 to 1';
-    case 'balanced_accuracy':
+    case 'balanced-accuracy':
       return 'mean recall over classes, 0 to 1';
-    case 'macro_precision':
-    case 'macro_recall':
-    case 'macro_f1':
-    case 'roc_auc':
+    case 'macro-precision':
+    case 'macro-recall':
+    case 'macro-f1':
+    case 'roc-auc':
       return '0 to 1';
     case 'mcc':
     case 'kappa':
       return '−1 to 1';
-    case 'log_loss':
+    case 'log-loss':
       return 'nats per row';
     case 'brier':
       return 'squared probability error per row, 0 to 2';
     case 'mae':
     case 'rmse':
-    case 'median_absolute_error':
+    case 'medae':
       return `units of ${target}`;
     case 'r2':
       return 'share of variance explained, at most 1';

@@ -1,5 +1,5 @@
 /**
- * The gate chart: the change of the gated metric (current mean minus baseline mean, in the
+ * The gate chart: the change of the gated metric (current mean minus previous mean, in the
  * metric's units) as a dot with its corrected 95% interval, a line at zero, and a dashed line
  * at the largest drop the gate allows (--max-drop, on the worse side of zero). The gate fails
  * on a regression when even the optimistic one-sided bound of the drop passes that line.
@@ -25,7 +25,7 @@ export function gateChart(v: GateVerdict): string {
   const x = linearScale(Math.min(...values), Math.max(...values), left, right, 6);
   const colour = v.verdict === 'pass' ? PASS : FAIL;
   const better = v.higherIsBetter ? 'higher' : 'lower';
-  const body: string[] = [xAxis(x, top, bottom, `change in ${v.metric}, current minus baseline (${better} is better)`)];
+  const body: string[] = [xAxis(x, top, bottom, `change in ${v.metric}, current minus previous (${better} is better)`)];
   body.push(`<line class="zero" x1="${px(x(0))}" x2="${px(x(0))}" y1="${top}" y2="${bottom}" stroke="${INK}" stroke-width="1.5"/>`);
   // with --max-drop 0 the limit is the zero line itself: one line, one label
   const zeroLabel = limit === 0 ? 'no change (largest allowed drop 0)' : 'no change';
@@ -41,9 +41,9 @@ export function gateChart(v: GateVerdict): string {
     id: 'gate',
     width: WIDTH,
     height: bottom + 56,
-    title: `Change in ${v.metric} from the baseline run to the current run`,
-    desc: `Gate ${v.verdict}. Change ${signed(v.change)} (current ${num(v.current.mean)} minus baseline ${num(v.baseline.mean)}), corrected 95% interval ${intervalText(v.ci95)}; largest allowed drop ${num(v.maxDrop)}.`,
-    caption: `The dot is the change of the mean ${v.metric} (current minus baseline), the bar its corrected 95% interval from the ${v.rule} rule; the dashed line marks the largest drop the gate allows.`,
+    title: `Change in ${v.metric} from the previous run to the current run`,
+    desc: `Gate ${v.verdict}. Change ${signed(v.change)} (current ${num(v.current.mean)} minus previous ${num(v.previous.mean)}), corrected 95% interval ${intervalText(v.ci95)}; largest allowed drop ${num(v.maxDrop)}.`,
+    caption: `The dot is the change of the mean ${v.metric} (current minus previous), the bar its corrected 95% interval from the ${v.rule} rule; the dashed line marks the largest drop the gate allows.`,
     body: body.join('\n'),
   });
 }

@@ -1,6 +1,6 @@
 /**
- * The HTML page of a gate verdict (format foldwise-gate/1): the verdict and its reasons in
- * words, the baseline and current means side by side, the change chart (src/report/html/
+ * The HTML page of a gate verdict (format foldwise-gate/2): the verdict and its reasons in
+ * words, the previous and current means side by side, the change chart (src/report/html/
  * gate-chart.ts), and the rule's figures, paths and warnings in a footer block.
  */
 import { esc } from './escape.js';
@@ -25,9 +25,9 @@ export function renderGateHtml(v: GateVerdict): string {
     `<p><span class="verdict" style="background:${v.verdict === 'pass' ? PASS : FAIL}">${v.verdict === 'pass' ? 'PASS' : 'FAIL'}</span></p>`,
     `<p class="lead">${esc(says)}</p>`,
     '</header>',
-    '<section><h2>Baseline against current</h2>',
+    '<section><h2>Previous against current</h2>',
     '<table class="sides"><thead><tr><th scope="col">run</th><th scope="col">learner</th><th scope="col">folds</th><th scope="col">mean</th><th scope="col">file</th></tr></thead><tbody>',
-    ...(['baseline', 'current'] as const).map((k) => `<tr><th scope="row">${k}</th><td>${esc(v[k].learner)}</td><td>${v[k].folds}</td><td data-mean="${v[k].mean}">${num(v[k].mean)}</td><td><code>${esc(v[k].path)}</code></td></tr>`),
+    ...(['previous', 'current'] as const).map((k) => `<tr><th scope="row">${k}</th><td>${esc(v[k].learner)}</td><td>${v[k].folds}</td><td data-mean="${v[k].mean}">${num(v[k].mean)}</td><td><code>${esc(v[k].path)}</code></td></tr>`),
     '</tbody></table>',
     gateChart(v),
     '</section>',
@@ -36,7 +36,7 @@ export function renderGateHtml(v: GateVerdict): string {
     item('change', esc(`${signed(v.change)} (drop ${num(v.drop)}, one-sided bound ${num(v.dropBound)})`)),
     item('test', esc(`t ${v.t === null ? '–' : num(v.t, 3)}, df ${v.df}, one-sided p ${pText(v.p)}, alpha ${v.alpha}`)),
     item('floor', esc(v.absoluteMin === null ? 'none' : num(v.absoluteMin))),
-    ...(v.accepted !== undefined ? [item('accepted', esc(v.accepted ? 'yes, the baseline file was replaced' : 'no'))] : []),
+    ...(v.accepted !== undefined ? [item('accepted', esc(v.accepted ? 'yes, the previous report was replaced' : 'no'))] : []),
     item('format', esc(v.schema)),
     '</dl><h3>Warnings</h3>',
     warningsBlock(v.warnings),

@@ -127,7 +127,7 @@ export function summaryChart(ctx: ChartContext): string {
     words.push(`Dashed line: baseline mean ${num(baseMean)}.`);
   }
   const folds = report.plan.folds * report.plan.repeats;
-  const title = `${metric} of each learner over the ${folds} folds`;
+  const title = `${metric} of each learner over ${report.plan.kind === "holdout" ? "the validation split" : `the ${folds} folds`}`;
   return figure({
     id: 'summary',
     width: WIDTH,

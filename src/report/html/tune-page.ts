@@ -1,5 +1,5 @@
 /**
- * The HTML page of a tune report (format foldwise-tune/1). From the top:
+ * The HTML page of a tune report (format foldwise-tune/2). From the top:
  * - a header with the two numbers a tune run gives and must not mix up: the nested outer
  *   estimate (the number to quote) and the recommendation (the candidate to deploy, whose inner
  *   mean is the search's own optimistic figure), with the stability of the picks, the

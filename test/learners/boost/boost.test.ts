@@ -63,7 +63,7 @@ describe('boost: one round, one split, computed by hand (Chen & Guestrin 2016 eq
     expect(rootOf(m)).toEqual({ feature: 0, threshold: 2.5 });
     close(m.gainTotals()[0], 0.9050911, 1e-7);
     const sig = (f: number) => 1 / (1 + Math.exp(-f));
-    const proba = m.predictProba!(col([1, 5]));
+    const proba = m.probabilities!(col([1, 5]));
     expect(proba.length).toBe(4);
     close(proba[1], sig(0.4054651 - 0.8108108), 1e-7);
     close(proba[3], sig(0.4054651 + 0.6976744), 1e-7);
@@ -122,18 +122,18 @@ describe('boost: base score and exact fits (Friedman 2001, F_0 and Algorithm 1)'
   it('zero rounds gives the training shares: log-odds for two classes, log shares for more', () => {
     const two = fit(col([1, 2, 3, 4]), cls([0, 1, 1, 1]), { rounds: 0 });
     close(two.parts.base[0], Math.log(0.75 / 0.25), 1e-12);
-    const p2 = two.predictProba!(col([7]));
+    const p2 = two.probabilities!(col([7]));
     close(p2[0], 0.25, 1e-12);
     close(p2[1], 0.75, 1e-12);
     const three = fit(col([1, 2, 3, 4, 5]), cls([0, 1, 1, 2, 2], ['a', 'b', 'c']), { rounds: 0 });
-    const p3 = three.predictProba!(col([7]));
+    const p3 = three.probabilities!(col([7]));
     expect(p3.length).toBe(3);
     [0.2, 0.4, 0.4].forEach((v, k) => close(p3[k], v, 1e-12));
   });
 
   it('a class the training rows lack gets share 1/(2n), not zero (the floor)', () => {
     const m = fit(col([1, 2, 3, 4]), cls([0, 0, 2, 2], ['a', 'b', 'c']), { rounds: 0 });
-    const p = m.predictProba!(col([0]));
+    const p = m.probabilities!(col([0]));
     // shares 0.5, 1/8 (floored), 0.5 before softmax renormalises them to 0.5/1.125 etc.
     close(p[1], 0.125 / 1.125, 1e-12);
     expect(p[1]).toBeGreaterThan(0);
@@ -208,7 +208,7 @@ describe('boost: determinism, prefixes, round trip', () => {
       const a = fit(X, y, random, 11);
       const b = fit(X, y, random, 11);
       const c = fit(X, y, random, 12);
-      const out = (m: BoostModel) => Array.from(task === 'regression' ? m.predict(X) : m.predictProba!(X));
+      const out = (m: BoostModel) => Array.from(task === 'regression' ? m.predict(X) : m.probabilities!(X));
       expect(out(b)).toEqual(out(a));
       expect(out(c)).not.toEqual(out(a));
     }
@@ -221,7 +221,7 @@ describe('boost: determinism, prefixes, round trip', () => {
       for (const r of [0, 1, 7, 30]) {
         const short = fit(X, y, { ...random, rounds: r }, 9);
         expect(Array.from(long.predictRounds(X, r))).toEqual(Array.from(short.predict(X)));
-        if (task !== 'regression') expect(Array.from(long.probaRounds!(X, r))).toEqual(Array.from(short.predictProba!(X)));
+        if (task !== 'regression') expect(Array.from(long.probaRounds!(X, r))).toEqual(Array.from(short.probabilities!(X)));
       }
       const [s0, s7] = long.scoresAt(X, [0, 7]);
       expect(s0.length).toBe(X.rows * long.parts.width);
@@ -239,7 +239,7 @@ describe('boost: determinism, prefixes, round trip', () => {
       const m = fit(X, y, params as Params);
       const back = boost.load(JSON.parse(JSON.stringify(m.toJSON())));
       expect(Array.from(back.predict(X))).toEqual(Array.from(m.predict(X)));
-      if (m.predictProba) expect(Array.from(back.predictProba!(X))).toEqual(Array.from(m.predictProba(X)));
+      if (m.probabilities) expect(Array.from(back.probabilities!(X))).toEqual(Array.from(m.probabilities(X)));
     }
   });
 
@@ -255,7 +255,7 @@ describe('boost: determinism, prefixes, round trip', () => {
   it('softmax probabilities are rows summing to 1, and beat the base score on its own data', () => {
     const { X, y } = synthetic('three', 300, 8);
     const m = fit(X, y, {});
-    const p = m.predictProba!(X);
+    const p = m.probabilities!(X);
     expect(p.length).toBe(900);
     for (let i = 0; i < 300; i++) close(p[3 * i] + p[3 * i + 1] + p[3 * i + 2], 1, 1e-12);
     const pred = m.predict(X);
@@ -332,8 +332,8 @@ describe('boost: early stopping on an inner split of the training rows only', ()
     expect(keep.notes()['stopped-at']).toBe(refit.notes()['stopped-at']);
     // the refit is the plain fit of that many rounds on all rows, with the same seed
     const plain = fit(X, y, { rounds: refit.rounds });
-    expect(Array.from(refit.predictProba!(X))).toEqual(Array.from(plain.predictProba!(X)));
-    expect(Array.from(keep.predictProba!(X))).not.toEqual(Array.from(plain.predictProba!(X)));
+    expect(Array.from(refit.probabilities!(X))).toEqual(Array.from(plain.probabilities!(X)));
+    expect(Array.from(keep.probabilities!(X))).not.toEqual(Array.from(plain.probabilities!(X)));
   });
 
   it('without stop there are no notes', () => {

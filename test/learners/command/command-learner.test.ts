@@ -48,18 +48,18 @@ describe('readPredictions', () => {
   it('labels, values, probability columns by name (missing classes are 0), BOM and final line break', () => {
     const l = readPredictions('\uFEFFlabel\nGentoo\nAdelie\n', P, 2, classes);
     expect(l.task === 'classification' && Array.from(l.predicted)).toEqual([2, 0]);
-    expect(l.task === 'classification' && l.proba).toBeUndefined();
+    expect(l.task === 'classification' && l.probs).toBeUndefined();
     const v = readPredictions('y\n1.5\n-2e3', P, 2, undefined);
     expect(Array.from(v.predicted)).toEqual([1.5, -2000]);
     const p = readPredictions('Gentoo,Adelie\n0.25,0.75\n1,0\n', P, 2, classes);
     expect(p.task).toBe('classification');
     if (p.task !== 'classification') return;
-    expect(Array.from(p.proba!)).toEqual([0.75, 0, 0.25, 0, 0, 1]);
+    expect(Array.from(p.probs!)).toEqual([0.75, 0, 0.25, 0, 0, 1]);
     expect(Array.from(p.predicted)).toEqual([0, 2]);
     // a sum within the tolerance is rescaled to 1
     const q = readPredictions('Adelie,Chinstrap,Gentoo\n0.33333,0.33333,0.33333\n', P, 1, classes);
     if (q.task !== 'classification') return;
-    expect(Math.abs(q.proba!.reduce((s, x) => s + x, 0) - 1)).toBeLessThan(1e-15);
+    expect(Math.abs(q.probs!.reduce((s, x) => s + x, 0) - 1)).toBeLessThan(1e-15);
     // ties go to the lower class code, as everywhere in foldwise
     expect(Array.from(q.predicted)).toEqual([0]);
   });
@@ -129,10 +129,10 @@ describe('the command learner as a learner', () => {
     const model = learner.fit(X, y, params, { rng: createRng(1), seed: 7, fold });
     expect(Array.from(model.predict(Xtest))).toEqual([1, 1]);
     // the training shares 1/4 and 3/4, as foldwise's baseline would give
-    expect(Array.from(model.predictProba!(Xtest))).toEqual([0.25, 0.75, 0.25, 0.75]);
+    expect(Array.from(model.probabilities!(Xtest))).toEqual([0.25, 0.75, 0.25, 0.75]);
     const back = learner.load(JSON.parse(JSON.stringify(model.toJSON())));
     expect(Array.from(back.predict(Xtest))).toEqual([1, 1]);
-    expect(Array.from(back.predictProba!(Xtest))).toEqual([0.25, 0.75, 0.25, 0.75]);
+    expect(Array.from(back.probabilities!(Xtest))).toEqual([0.25, 0.75, 0.25, 0.75]);
     expect(() => back.predict(X)).toThrow(/holds the predictions for the 2 test rows of fold r1\.f1 only/);
     expect(() => learner.load({ learner: 'baseline' })).toThrow(/not a saved model of this command learner/);
   });

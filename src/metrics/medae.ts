@@ -10,8 +10,8 @@
 import { checkRegression } from './checks.js';
 import type { RegressionInput } from './types.js';
 
-export function medianAbsoluteError(input: RegressionInput): number {
-  checkRegression('median_absolute_error', input);
+export function medae(input: RegressionInput): number {
+  checkRegression('medae', input);
   const { actual, predicted } = input;
   const n = actual.length;
   const errors = new Float64Array(n);

@@ -1,5 +1,5 @@
 /**
- * Random-split plans (`shuffle:N@F`): N independent splits, each a fresh random choice of
+ * Random-split plans (`resplit:N@F`): N independent splits, each a fresh random choice of
  * test rows, about a fraction F of them; the other rows train. Source for the method: Hastie,
  * Tibshirani & Friedman, The Elements of Statistical Learning, 2nd ed., section 7.10 (the
  * validation-set approach, repeated).
@@ -30,7 +30,7 @@ import { countOf } from './input.js';
 import { classIndex } from './stratify.js';
 import type { BuiltPlan, Fold, PlanInput, PlanSpec } from './types.js';
 
-type ShuffleSpec = Extract<PlanSpec, { kind: 'shuffle' }>;
+type ResplitSpec = Extract<PlanSpec, { kind: 'resplit' }>;
 
 const TRAIN = 0;
 const TEST = 1;
@@ -39,7 +39,7 @@ function split(part: Int32Array, s: number): Fold {
   return { repeat: 0, fold: s, train: rowsWhere(part, (p) => p === TRAIN), test: rowsWhere(part, (p) => p === TEST) };
 }
 
-export function buildShuffle(spec: ShuffleSpec, input: PlanInput): BuiltPlan {
+export function buildResplit(spec: ResplitSpec, input: PlanInput): BuiltPlan {
   const { splits, testFraction: f } = spec;
   const { n, rng } = input;
   const label = `--plan ${formatPlan(spec)}`;
