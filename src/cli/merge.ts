@@ -4,7 +4,7 @@ import type { Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { EXIT_OK, InputError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import { checkWritable } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { mergeParts, parsePartial } from '../run/partial.js';
@@ -35,8 +35,7 @@ export function registerMerge(prog: Command, io: Io, setCode: (code: number) => 
     .option('--no-timing', 'leave timings out (byte-identical to a single run with --no-timing)')
     .option('--verbose', 'print stack traces of errors')
     .action((paths: string[], flags: MergeFlags) => {
-      if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-      if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+      guardPaths(paths.map((path) => ({ option: 'merge', path })), [{ option: '--json', path: flags.json }, { option: '--markdown', path: flags.markdown }]);
       const parts = paths.map((p) => parsePartial(readPart(p), p));
       const report = mergeParts(parts, paths, flags.timing);
       writeOutputs(io, flags, { json: () => renderJson(report), markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter) });

@@ -4,7 +4,6 @@
  * place that touches `process`.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { realpathSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
@@ -16,7 +15,8 @@ import { LEARNERS } from '../learners/index.js';
 import { TASKS, type Task } from '../learners/types.js';
 import { getMetric, METRICS } from '../metrics/index.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { writeFileAtomic } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { renderJson } from '../report/json.js';
 import { renderEvalHtml } from '../report/html/index.js';
 import { renderMarkdown } from '../report/markdown.js';
@@ -145,25 +145,9 @@ export function parseJobs(text: string): number {
   return Number(text);
 }
 
-/** Refuses outputs that would overwrite the input or each other. */
+/** Refuses outputs that would overwrite the data file or each other (see guard.ts). */
 export function checkOutputs(data: string, outputs: readonly (readonly [string, string | undefined])[]): void {
-  const real = (p: string): string => {
-    try {
-      return realpathSync(p);
-    } catch {
-      return resolve(p);
-    }
-  };
-  const input = data === '-' ? undefined : real(data);
-  const seen = new Map<string, string>();
-  for (const [option, path] of outputs) {
-    if (!path || path === '-') continue;
-    const r = real(path);
-    if (r === input) throw new UsageError(`${option} ${path}: is the input file; give another name`);
-    const before = seen.get(r);
-    if (before) throw new UsageError(`${before} and ${option} ${path}: the same file; give two names`);
-    seen.set(r, `${option} ${path}`);
-  }
+  guardPaths([{ option: 'the data file', path: data }], outputs.map(([option, path]) => ({ option, path })));
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
@@ -171,9 +155,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
   }
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]]);
-  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const seed = parseSeed(flags.seed);
   const jobs = parseJobs(flags.jobs);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);

@@ -15,7 +15,6 @@ import { loadCsv } from '../data/load-csv.js';
 import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
-import { checkWritable } from '../report/atomic.js';
 import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
@@ -69,9 +68,6 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     throw new UsageError(`${flags.json === '-' ? '--json' : '--markdown'} - and --html -: only one of them can go to standard output`);
   }
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html]]);
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
-  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
   const seed = parseSeed(flags.seed);
   const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
   const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
