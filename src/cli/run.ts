@@ -23,7 +23,8 @@ import { renderMarkdown } from '../report/markdown.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { ON_FOLD_ERROR_CHOICES, type OnFoldError } from '../run/tasks.js';
 import { DEFAULT_TIMEOUT_S } from '../learners/command/protocol.js';
-import { execute } from '../run/execute.js';
+import { execute, InterruptedError } from '../run/execute.js';
+import { readSettings } from '../run/identity.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
 import { progressFor } from './progress.js';
@@ -35,6 +36,7 @@ import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { writeOutputs } from './output.js';
+import { runCleanups } from './cleanup.js';
 import { runSplit } from './split.js';
 import { printAuditSuspects } from './warnings.js';
 
@@ -47,6 +49,10 @@ export interface Io {
   readonly cwd?: string;
   /** true once the user asked to stop (SIGINT); the run then stops cleanly */
   readonly interrupted?: () => boolean;
+  /** aborted (reason: the signal's name) when the user or a scheduler asks the run to stop */
+  readonly stop?: AbortSignal;
+  /** catch stop signals from now on (until the returned function is called); without it they keep their default action */
+  readonly armStops?: () => () => void;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -165,6 +171,8 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
+  let disarm: (() => void) | undefined;
+  const missing = flags.missing !== undefined ? parseMissing(flags.missing) : DEFAULT_MISSING;
   const result = await execute(table, {
     ...problemOptionsOf(flags),
     plan: flags.plan,
@@ -184,6 +192,14 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     shard,
     journal: flags.journal,
     stopRequested: io.interrupted,
+    stop: io.stop,
+    // the tasks run in worker threads (also with --jobs 1) so that signals are seen during a long fit
+    isolate: Boolean(io.armStops),
+    onTasks: () => {
+      disarm = io.armStops?.();
+    },
+    notice: (text) => io.stderr.write(`foldwise: warning: ${text}\n`),
+    read: readSettings(missing, flags.categorical ?? [], parseDelimiter(flags.delimiter ?? ',')),
     baseDir: io.cwd ?? resolve('.'),
     progress: (done, total, resumed) => {
       if (resumed && !resumedNote) {
@@ -192,7 +208,11 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
       }
       progress?.tasks(done, total);
     },
-  }).finally(() => progress?.stop());
+  }).finally(() => {
+    progress?.stop();
+    disarm?.();
+  });
+  if (io.stop?.aborted) throw new InterruptedError(`stopped (${String(io.stop.reason)})`, io.stop.reason);
   if (result.kind === 'partial') {
     writeFileAtomic(flags.json!, `${JSON.stringify(result.partial)}\n`, '--json');
     return EXIT_OK;
@@ -297,18 +317,24 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
     await prog.parseAsync([...argv], { from: 'user' });
     return code;
   } catch (e) {
-    if (e instanceof CommanderError) {
-      // help and version exit with code 0; every other commander error is a usage error
-      return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
-    }
-    if (e instanceof FoldwiseError) {
-      io.stderr.write(`foldwise: ${e.message.replace(/\r?\n|\r/g, ' ')}\n`);
-      if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
-      return e.exitCode;
-    }
-    const err = e as Error;
-    io.stderr.write(`foldwise: internal error: ${err?.message ?? String(e)} (this is a bug; rerun with --verbose and report it)\n`);
-    if (verbose && err?.stack) io.stderr.write(`${err.stack}\n`);
-    return 70;
+    return errorCode(e, io, verbose);
+  } finally {
+    runCleanups();
   }
+}
+
+function errorCode(e: unknown, io: Io, verbose: boolean): number {
+  if (e instanceof CommanderError) {
+    // help and version exit with code 0; every other commander error is a usage error
+    return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
+  }
+  if (e instanceof FoldwiseError) {
+    io.stderr.write(`foldwise: ${e.message.replace(/\r?\n|\r/g, ' ')}\n`);
+    if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
+    return e.exitCode;
+  }
+  const err = e as Error;
+  io.stderr.write(`foldwise: internal error: ${err?.message ?? String(e)} (this is a bug; rerun with --verbose and report it)\n`);
+  if (verbose && err?.stack) io.stderr.write(`${err.stack}\n`);
+  return 70;
 }

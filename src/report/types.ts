@@ -97,7 +97,8 @@ export interface Report {
     /** true when the holdout part was scored (--final) */
     readonly finalScored?: boolean;
   };
-  readonly settings: { readonly impute: string };
+  /** imputation; and how the data was read (absent in reports of older versions and of library calls without them) */
+  readonly settings: { readonly impute: string; readonly missing?: readonly string[]; readonly categorical?: readonly string[]; readonly delimiter?: string };
   /** the reported metrics, headline first */
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];
