@@ -138,6 +138,7 @@ interface EvalFlags extends DataFlags, CommandFlags {
   markdown?: string;
   timing: boolean;
   jobs: string;
+  overCores?: boolean;
   shard?: string;
   journal?: string;
   quiet?: boolean;
@@ -163,7 +164,11 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]]);
   if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const seed = parseSeed(flags.seed);
-  const jobs = parseJobs(flags.jobs);
+  const asked = parseJobs(flags.jobs);
+  // each worker holds its own copy of the fold matrices: more workers than cores only costs memory
+  const cores = availableParallelism();
+  const jobs = flags.overCores ? asked : Math.min(asked, cores);
+  if (jobs < asked) io.stderr.write(`foldwise: warning: --jobs ${asked}: capped at the ${cores} cores of this machine (add --over-cores to run ${asked} workers anyway)\n`);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
   const commands = commandSetupOf(flags, io);
@@ -277,7 +282,8 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
     .option('--html <file>', 'write a self-contained HTML page with charts to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
-    .option('--jobs <n>', 'worker threads (default: the available cores)', String(availableParallelism()))
+    .option('--jobs <n>', 'worker threads (default and most: the available cores; see --over-cores)', String(availableParallelism()))
+    .option('--over-cores', 'let --jobs exceed the number of cores (each worker costs memory, and more workers than cores gain no speed)')
     .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')
     .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
     .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')

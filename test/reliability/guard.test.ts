@@ -118,3 +118,15 @@ describe('rewrites', () => {
     expect(removeStaleTemps(join(d, 'r.json'))).toBe(0);
   });
 });
+
+describe('--jobs', () => {
+  it('is capped at the cores unless --over-cores, with one warning line; the report is the same', async () => {
+    const { availableParallelism } = await import('node:os');
+    const d = fresh('jobs');
+    const one = await cli(['eval', join(d, 'data.csv'), ...EVAL, '--json', '-']);
+    const many = await cli(['eval', join(d, 'data.csv'), ...EVAL.filter((a, i, all) => a !== '--jobs' && all[i - 1] !== '--jobs'), '--jobs', '256', '--json', '-']);
+    expect(many.code).toBe(0);
+    expect(many.stderr).toBe(`foldwise: warning: --jobs 256: capped at the ${availableParallelism()} cores of this machine (add --over-cores to run 256 workers anyway)\n`);
+    expect(many.stdout).toBe(one.stdout);
+  });
+});
