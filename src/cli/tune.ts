@@ -12,6 +12,9 @@ import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
 import { resolve } from 'node:path';
 import { loadCsv } from '../data/load-csv.js';
+import { defineProblem } from '../data/problem.js';
+import { parsePlan } from '../plans/parse.js';
+import { resolveMetrics } from '../run/prepare.js';
 import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
@@ -79,9 +82,20 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
-  io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
+  const note = `foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`;
 
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  // the note comes once the data, target, plans and metrics are known to be usable, so that a
+  // refused run prints its one error line only
+  resolveMetrics(defineProblem(table, problemOptionsOf(flags)), flags.metric);
+  parsePlan(flags.plan);
+  try {
+    parsePlan(flags.inner);
+  } catch (e) {
+    if (e instanceof UsageError) throw new UsageError(e.message.replace(/^--plan\b/, '--inner'));
+    throw e;
+  }
+  io.stderr.write(note);
   const report = tune(table, {
     ...problemOptionsOf(flags),
     plan: flags.plan,

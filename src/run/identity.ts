@@ -48,7 +48,9 @@ export interface RunIdentity {
   /** the programs of command: learners (present only when the run has some) */
   readonly programs?: readonly string[];
   /** how the data was read (present when the caller says: the CLI always does) */
-  readonly read?: ReadSettings;
+  readonly missing?: readonly string[];
+  readonly categorical?: readonly string[];
+  readonly delimiter?: string;
   /** the kinds the columns were read as, in header order ("n" numeric, "c" categorical) */
   readonly kinds: string;
   readonly onFoldError: string;
@@ -73,7 +75,7 @@ export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
     learners: p.candidates.map((c) => c.spec),
     metrics: p.metrics.map((m) => m.name),
     ...(programs.length ? { programs } : {}),
-    ...(read ? { read } : {}),
+    ...(read ? { missing: read.missing, categorical: read.categorical, delimiter: read.delimiter } : {}),
     kinds: p.table.fingerprint.schema.map(([, k]) => (k === 'numeric' ? 'n' : 'c')).join(''),
     onFoldError: p.onFoldError ?? 'fail',
     audit: p.audit !== undefined,
@@ -85,8 +87,13 @@ const short = (v: unknown): string => {
   return t.length > 40 ? `${t.slice(0, 37)}...` : t;
 };
 
-/** The fields where two identities differ, as "field (a vs b)"; empty when they are the same. */
-export function identityDiff(a: RunIdentity, b: RunIdentity): string[] {
+/**
+ * The fields where two identities differ, as "field (A: a, B: b)" with the labels given
+ * (default "field (a vs b)"); empty when they are the same.
+ */
+export function identityDiff(a: RunIdentity, b: RunIdentity, labels?: readonly [string, string]): string[] {
   const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])] as (keyof RunIdentity)[];
-  return keys.filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k} (${short(a[k])} vs ${short(b[k])})`);
+  return keys
+    .filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k]))
+    .map((k) => (labels ? `${k} (${labels[0]}: ${short(a[k])}, ${labels[1]}: ${short(b[k])})` : `${k} (${short(a[k])} vs ${short(b[k])})`));
 }
