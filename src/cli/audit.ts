@@ -11,9 +11,8 @@ import { renderAuditJson, renderAuditMarkdown } from '../audit/render.js';
 import { AUDIT_LIMITS } from '../audit/types.js';
 import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, UsageError } from '../errors.js';
-import { checkWritable } from '../report/atomic.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
-import { addDataOptions, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io, problemOptionsOf } from './run.js';
+import { addDataOptions, checkOutputs, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io, problemOptionsOf } from './run.js';
 
 interface AuditFlags extends DataFlags {
   plan: string;
@@ -33,8 +32,7 @@ export function parseClusterThreshold(text: string): number {
 
 async function runAudit(data: string, flags: AuditFlags, io: Io): Promise<number> {
   if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown]]);
   const seed = parseSeed(flags.seed);
   const clusterThreshold = parseClusterThreshold(flags.clusterThreshold);
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));

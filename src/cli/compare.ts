@@ -10,7 +10,8 @@ import { compareReports } from '../compare/compare-reports.js';
 import { readReport } from '../compare/read-report.js';
 import { renderCompareMarkdown } from '../compare/render.js';
 import { EXIT_OK } from '../errors.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { writeFileAtomic } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import type { Io } from './run.js';
 
 interface CompareFlags {
@@ -23,12 +24,12 @@ interface CompareFlags {
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
 function runCompare(firstPath: string, secondPath: string, flags: CompareFlags, io: Io): number {
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
+  guardPaths([{ option: 'compare', path: firstPath }, { option: 'compare', path: secondPath }], [{ option: '--json', path: flags.json }]);
   const first = readReport(firstPath, 'compare');
   const second = readReport(secondPath, 'compare');
   const result = compareReports(first, second, { metric: flags.metric, learners: flags.learner });
   for (const w of result.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
-  if (flags.json) {
+  if (flags.json !== undefined) {
     const text = `${JSON.stringify({ schema: 'foldwise-compare/2', ...result }, null, 2)}\n`;
     if (flags.json === '-') io.stdout.write(text);
     else writeFileAtomic(flags.json, text, '--json');

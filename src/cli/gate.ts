@@ -25,7 +25,8 @@ import { readReport } from '../compare/read-report.js';
 import { renderGateMarkdown, renderNotComparableMarkdown } from '../compare/render.js';
 import type { GateVerdict } from '../compare/types.js';
 import { EXIT_OK, EXIT_REGRESSION, UsageError } from '../errors.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { checkWritable, writeFilesAtomic, type FileWrite } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import type { Io } from './run.js';
 
 interface GateFlags {
@@ -66,10 +67,15 @@ function runGate(flags: GateFlags, io: Io): number {
   const maxDrop = parseNumberOption(flags.maxDrop, '--max-drop', "a number >= 0, in the metric's units");
   const alpha = parseNumberOption(flags.alpha, '--alpha', 'a number above 0 and below 0.5 (such as 0.05)');
   const absoluteMin = flags.absoluteMin === undefined ? undefined : parseNumberOption(flags.absoluteMin, '--absolute-min', "a number, in the metric's units");
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
+  const summary = io.env?.GITHUB_STEP_SUMMARY;
   if (flags.baseline !== undefined) throw new UsageError(`gate --baseline is now --previous (the committed report; "baseline" names the majority/mean learner): write --previous ${flags.baseline}`);
   if (flags.previous === undefined) throw new UsageError("gate: required option '--previous <file>' not specified: the committed report to gate against");
   const previous = flags.previous;
+  // the previous report is an input; only --accept on a pass replaces it, by design
+  const inputs = [{ option: '--previous', path: previous }, { option: '--current', path: flags.current }];
+  guardPaths(inputs, [{ option: '--json', path: flags.json }]);
+  // the summary is appended to (a failure there is only a warning), but never to an input
+  if (summary) guardPaths(inputs, [{ option: 'GITHUB_STEP_SUMMARY', path: summary }], false);
   if (flags.accept) checkWritable(previous, '--previous');
   const base = readReport(previous, 'gate --previous');
   const cur = readReport(flags.current, 'gate --current');
@@ -86,18 +92,19 @@ function runGate(flags: GateFlags, io: Io): number {
     }
     throw e;
   }
+  const files: FileWrite[] = [];
   if (flags.accept) {
     const accepted = verdict.verdict === 'pass';
-    if (accepted && resolve(previous) !== resolve(flags.current)) writeFileAtomic(previous, cur.text, '--previous');
+    if (accepted && resolve(previous) !== resolve(flags.current)) files.push({ path: previous, text: cur.text, option: '--previous' });
     verdict = { ...verdict, accepted };
   }
   for (const w of verdict.warnings) io.stderr.write(`foldwise: warning: ${w}\n`);
   const md = renderGateMarkdown(verdict);
-  if (flags.json) {
-    const json = `${JSON.stringify(verdict, null, 2)}\n`;
-    if (flags.json === '-') io.stdout.write(json);
-    else writeFileAtomic(flags.json, json, '--json');
-  }
+  const json = `${JSON.stringify(verdict, null, 2)}\n`;
+  if (flags.json !== undefined && flags.json !== '-') files.push({ path: flags.json, text: json, option: '--json' });
+  // the accepted baseline and the verdict file are written together or not at all
+  writeFilesAtomic(files);
+  if (flags.json === '-') io.stdout.write(json);
   if (toStdout) io.stdout.write(md);
   appendSummary(io, md);
   return verdict.verdict === 'pass' ? EXIT_OK : EXIT_REGRESSION;

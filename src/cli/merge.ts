@@ -4,11 +4,11 @@ import type { Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import { checkWritable } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { mergePartsWithRecords, parsePartial } from '../run/partial.js';
-import { checkPredictionsPath, writePredictions } from './predictions-output.js';
+import { checkPredictionsPath, withPredictions } from './predictions-output.js';
 import type { Io } from './run.js';
 
 interface MergeFlags {
@@ -41,20 +41,21 @@ export function registerMerge(prog: Command, io: Io, setCode: (code: number) => 
       if ([flags.json, flags.markdown, flags.predictions].filter((f) => f === '-').length > 1) {
         throw new UsageError('--json -, --markdown - and --predictions -: only one of them can go to standard output');
       }
-      if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-      if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
       checkPredictionsPath(flags.predictions);
-      if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
+      guardPaths(
+        paths.map((path) => ({ option: 'merge', path })),
+        [{ option: '--json', path: flags.json }, { option: '--markdown', path: flags.markdown }, { option: '--predictions', path: flags.predictions }],
+      );
       const parts = paths.map((p) => parsePartial(readPart(p), p));
       const { report, frame, records, keep } = mergePartsWithRecords(parts, paths, flags.timing);
       if (flags.predictions) {
         const missing = records.find((r) => !r.failed && !r.rows);
         if (missing) throw new InputError(`merge --predictions: the parts carry no row numbers (task ${missing.id}); they were made by an older foldwise: rerun the shards`);
-        await writePredictions(io, flags.predictions, frame, records, keep);
       }
-      if (flags.predictions !== '-' || flags.json || flags.markdown) {
+      await withPredictions(io, flags.predictions, () => ({ frame, records, keep }), () => {
+        if (flags.predictions === '-' && flags.json === undefined && flags.markdown === undefined) return;
         writeOutputs(io, flags, { json: () => renderJson(report), markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter) });
-      }
+      });
       setCode(EXIT_OK);
     });
 }

@@ -1,8 +1,11 @@
 /**
  * Progress on standard error (cli-progress): while a CSV loads (megabytes read of the file's
  * size), a note while the quick audit runs, then the tasks (done of total, elapsed, estimated
- * time left). Shown only when standard error is a terminal, not under CI, and not with --quiet;
- * it prints no colours (so NO_COLOR holds).
+ * time left). The bar is shown when standard error is a terminal and not under CI; it prints
+ * no colours (so NO_COLOR holds). Off a terminal (a CI log, a file) a plain line
+ * `foldwise: progress: 12/40 tasks done, 1m05s elapsed, about 3m20s left` is printed at most
+ * every PLAIN_INTERVAL_S seconds (FOLDWISE_PROGRESS_SECONDS in the environment sets another
+ * interval), so a short run prints none. Nothing at all with --quiet.
  */
 import { SingleBar } from 'cli-progress';
 import type { Io } from './run.js';
@@ -19,9 +22,47 @@ export interface Progress {
 
 const MB = 1024 * 1024;
 
-export function progressFor(io: Io, quiet: boolean): Progress | undefined {
+/** Seconds between plain progress lines off a terminal. */
+export const PLAIN_INTERVAL_S = 30;
+
+/** 65 -> "1m05s", 3725 -> "1h02m05s". */
+export function duration(seconds: number): string {
+  const s = Math.max(0, Math.round(seconds));
+  const h = Math.floor(s / 3600);
+  const m = Math.floor((s % 3600) / 60);
+  const r = s % 60;
+  const two = (n: number): string => String(n).padStart(2, '0');
+  return h > 0 ? `${h}h${two(m)}m${two(r)}s` : m > 0 ? `${m}m${two(r)}s` : `${r}s`;
+}
+
+/** Plain progress lines for standard error off a terminal, at most one per `intervalS`. */
+function plainProgress(io: Io, intervalS: number, now: () => number): Progress {
+  const started = now();
+  let last = started;
+  let first: { at: number; done: number } | undefined;
+  return {
+    loading() {},
+    phase() {},
+    tasks(done, total) {
+      const t = now();
+      if (!first) first = { at: t, done };
+      if ((t - last) / 1000 < intervalS || done >= total) return;
+      last = t;
+      const rate = (done - first.done) / Math.max(1e-9, (t - first.at) / 1000);
+      const left = rate > 0 ? `, about ${duration((total - done) / rate)} left` : '';
+      io.stderr.write(`foldwise: progress: ${done}/${total} tasks done, ${duration((t - started) / 1000)} elapsed${left}\n`);
+    },
+    stop() {},
+  };
+}
+
+export function progressFor(io: Io, quiet: boolean, now: () => number = Date.now): Progress | undefined {
   const stream = io.stderr as NodeJS.WriteStream;
-  if (quiet || !stream.isTTY || io.env?.CI) return undefined;
+  if (quiet) return undefined;
+  if (!stream.isTTY || io.env?.CI) {
+    const set = Number(io.env?.FOLDWISE_PROGRESS_SECONDS);
+    return plainProgress(io, io.env?.FOLDWISE_PROGRESS_SECONDS !== undefined && Number.isFinite(set) && set >= 0 ? set : PLAIN_INTERVAL_S, now);
+  }
   let bar: SingleBar | undefined;
   let kind: 'loading' | 'tasks' | undefined;
   const start = (k: 'loading' | 'tasks', format: string, total: number, value: number): void => {

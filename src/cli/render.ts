@@ -13,7 +13,8 @@ import { readReport, schemaPath } from '../compare/read-report.js';
 import type { GateVerdict } from '../compare/types.js';
 import { EXIT_OK, InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { writeFileAtomic } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
 import type { TuneReport } from '../report/tune-types.js';
 import { TUNE_SCHEMA } from '../search/tune.js';
@@ -82,7 +83,7 @@ export function renderFile(path: string): string {
 }
 
 async function runRender(path: string, flags: RenderFlags, io: Io): Promise<number> {
-  if (flags.html !== '-') checkWritable(flags.html, '--html');
+  guardPaths([{ option: 'render', path }], [{ option: '--html', path: flags.html }]);
   const html = renderFile(path);
   if (flags.html === '-') io.stdout.write(html);
   else writeFileAtomic(flags.html, html, '--html');

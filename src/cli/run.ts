@@ -4,7 +4,6 @@
  * place that touches `process`.
  */
 import { Command, CommanderError, Option } from 'commander';
-import { realpathSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
@@ -17,14 +16,16 @@ import { LEARNERS } from '../learners/index.js';
 import { TASKS, type Task } from '../learners/types.js';
 import { getMetric, METRICS } from '../metrics/index.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { writeFileAtomic } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { renderJson } from '../report/json.js';
 import { renderEvalHtml } from '../report/html/index.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { ON_FOLD_ERROR_CHOICES, type OnFoldError } from '../run/tasks.js';
 import { DEFAULT_TIMEOUT_S } from '../learners/command/protocol.js';
-import { execute } from '../run/execute.js';
+import { execute, InterruptedError } from '../run/execute.js';
+import { readSettings } from '../run/identity.js';
 import { withWiderSamples } from '../run/pooled-sample.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
@@ -39,7 +40,8 @@ import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { writeOutputs } from './output.js';
-import { checkPredictionsPath, writePredictions } from './predictions-output.js';
+import { checkPredictionsPath, withPredictions } from './predictions-output.js';
+import { runCleanups } from './cleanup.js';
 import { runSplit } from './split.js';
 import { printAuditSuspects } from './warnings.js';
 
@@ -52,6 +54,10 @@ export interface Io {
   readonly cwd?: string;
   /** true once the user asked to stop (SIGINT); the run then stops cleanly */
   readonly interrupted?: () => boolean;
+  /** aborted (reason: the signal's name) when the user or a scheduler asks the run to stop */
+  readonly stop?: AbortSignal;
+  /** catch stop signals from now on (until the returned function is called); without it they keep their default action */
+  readonly armStops?: () => () => void;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -140,6 +146,7 @@ interface EvalFlags extends DataFlags, CommandFlags {
   markdown?: string;
   timing: boolean;
   jobs: string;
+  overCores?: boolean;
   shard?: string;
   journal?: string;
   quiet?: boolean;
@@ -155,25 +162,9 @@ export function parseJobs(text: string): number {
   return Number(text);
 }
 
-/** Refuses outputs that would overwrite the input or each other. */
+/** Refuses outputs that would overwrite the data file or each other (see guard.ts). */
 export function checkOutputs(data: string, outputs: readonly (readonly [string, string | undefined])[]): void {
-  const real = (p: string): string => {
-    try {
-      return realpathSync(p);
-    } catch {
-      return resolve(p);
-    }
-  };
-  const input = data === '-' ? undefined : real(data);
-  const seen = new Map<string, string>();
-  for (const [option, path] of outputs) {
-    if (!path || path === '-') continue;
-    const r = real(path);
-    if (r === input) throw new UsageError(`${option} ${path}: is the input file; give another name`);
-    const before = seen.get(r);
-    if (before) throw new UsageError(`${before} and ${option} ${path}: the same file; give two names`);
-    seen.set(r, `${option} ${path}`);
-  }
+  guardPaths([{ option: 'the data file', path: data }], outputs.map(([option, path]) => ({ option, path })));
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
@@ -185,12 +176,13 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   }
   checkPredictionsPath(flags.predictions);
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]]);
-  if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
-  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
+  if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const seed = parseSeed(flags.seed);
-  const jobs = parseJobs(flags.jobs);
+  const asked = parseJobs(flags.jobs);
+  // each worker holds its own copy of the fold matrices: more workers than cores only costs memory
+  const cores = availableParallelism();
+  const jobs = flags.overCores ? asked : Math.min(asked, cores);
+  if (jobs < asked) io.stderr.write(`foldwise: warning: --jobs ${asked}: capped at the ${cores} cores of this machine (add --over-cores to run ${asked} workers anyway)\n`);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
@@ -199,6 +191,8 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
+  let disarm: (() => void) | undefined;
+  const missing = flags.missing !== undefined ? parseMissing(flags.missing) : DEFAULT_MISSING;
   const result = await execute(table, {
     ...problemOptionsOf(flags),
     plan: flags.plan,
@@ -219,6 +213,14 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     journal: flags.journal,
     keep: flags.predictionsKeep,
     stopRequested: io.interrupted,
+    stop: io.stop,
+    // the tasks run in worker threads (also with --jobs 1) so that signals are seen during a long fit
+    isolate: Boolean(io.armStops),
+    onTasks: () => {
+      disarm = io.armStops?.();
+    },
+    notice: (text) => io.stderr.write(`foldwise: warning: ${text}\n`),
+    read: readSettings(missing, flags.categorical ?? [], parseDelimiter(flags.delimiter ?? ',')),
     baseDir: io.cwd ?? resolve('.'),
     progress: (done, total, resumed) => {
       if (resumed && !resumedNote) {
@@ -227,7 +229,11 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
       }
       progress?.tasks(done, total);
     },
-  }).finally(() => progress?.stop());
+  }).finally(() => {
+    progress?.stop();
+    disarm?.();
+  });
+  if (io.stop?.aborted) throw new InterruptedError(`stopped (${String(io.stop.reason)})`, io.stop.reason);
   if (result.kind === 'partial') {
     writeFileAtomic(flags.json!, `${JSON.stringify(result.partial)}\n`, '--json');
     return EXIT_OK;
@@ -236,17 +242,18 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   if (commands?.keepTemp) io.stderr.write(`foldwise: --keep-temp: the folders of each fold are in ${commands.tempRoot} (foldwise-NAME-FOLD-*)\n`);
-  if (flags.predictions) await writePredictions(io, flags.predictions, result.frame, result.records, flags.predictionsKeep ?? []);
   // with the predictions on standard output, a report is written only where a flag says
-  const reportsAsked = Boolean(flags.json || flags.markdown || flags.html);
-  if (flags.predictions !== '-' || reportsAsked) {
+  const reportsAsked = flags.json !== undefined || flags.markdown !== undefined || flags.html !== undefined;
+  const made = () => ({ frame: result.frame, records: result.records, keep: flags.predictionsKeep ?? [] });
+  await withPredictions(io, flags.predictions, made, () => {
+    if (flags.predictions === '-' && !reportsAsked) return;
     writeOutputs(io, flags, {
       json: () => renderJson(report),
       markdown: () => renderMarkdown(report, (m) => getMetric(m).higherIsBetter),
       // the page is made where every prediction is known: its charts draw up to 5,000 of them
       html: () => renderEvalHtml(withWiderSamples(report, result.records)),
     });
-  }
+  });
   return EXIT_OK;
 }
 
@@ -298,7 +305,8 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
     .option('--html <file>', 'write a self-contained HTML page with charts to a file, or - for standard output')
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
-    .option('--jobs <n>', 'worker threads (default: the available cores)', String(availableParallelism()))
+    .option('--jobs <n>', 'worker threads (default and most: the available cores; see --over-cores)', String(availableParallelism()))
+    .option('--over-cores', 'let --jobs exceed the number of cores (each worker costs memory, and more workers than cores gain no speed)')
     .option('--shard <i/n>', 'run only shard I of N and write a part for foldwise merge (with --json FILE)')
     .option('--journal <file>', 'record finished tasks; rerunning the same command resumes from it')
     .option('--quiet', 'no progress bar or notes on standard error (warnings still print)')
@@ -342,18 +350,24 @@ export async function run(argv: readonly string[], io: Io): Promise<number> {
     await prog.parseAsync([...argv], { from: 'user' });
     return code;
   } catch (e) {
-    if (e instanceof CommanderError) {
-      // help and version exit with code 0; every other commander error is a usage error
-      return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
-    }
-    if (e instanceof FoldwiseError) {
-      io.stderr.write(`foldwise: ${e.message.replace(/\r?\n|\r/g, ' ')}\n`);
-      if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
-      return e.exitCode;
-    }
-    const err = e as Error;
-    io.stderr.write(`foldwise: internal error: ${err?.message ?? String(e)} (this is a bug; rerun with --verbose and report it)\n`);
-    if (verbose && err?.stack) io.stderr.write(`${err.stack}\n`);
-    return 70;
+    return errorCode(e, io, verbose);
+  } finally {
+    runCleanups();
   }
+}
+
+function errorCode(e: unknown, io: Io, verbose: boolean): number {
+  if (e instanceof CommanderError) {
+    // help and version exit with code 0; every other commander error is a usage error
+    return e.exitCode === 0 ? EXIT_OK : EXIT_BAD_INPUT;
+  }
+  if (e instanceof FoldwiseError) {
+    io.stderr.write(`foldwise: ${e.message.replace(/\r?\n|\r/g, ' ')}\n`);
+    if (verbose && e.stack) io.stderr.write(`${e.stack}\n`);
+    return e.exitCode;
+  }
+  const err = e as Error;
+  io.stderr.write(`foldwise: internal error: ${err?.message ?? String(e)} (this is a bug; rerun with --verbose and report it)\n`);
+  if (verbose && err?.stack) io.stderr.write(`${err.stack}\n`);
+  return 70;
 }

@@ -4,7 +4,8 @@ import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
-import { checkWritable, writeFileAtomic } from '../report/atomic.js';
+import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
+import { guardPaths } from './guard.js';
 import { splitTable } from '../run/split.js';
 import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io, problemOptionsOf } from './run.js';
 
@@ -26,7 +27,6 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
   if (!flags.out && !flags.assign) throw new UsageError('split: give --out DIR for part files, --assign FILE for the assignment, or both');
   const seed = parseSeed(flags.seed);
   checkOutputs(data, [['--assign', flags.assign]]);
-  if (flags.assign) checkWritable(flags.assign, '--assign');
   let table;
   let text: string;
   if (data === '-') {
@@ -46,15 +46,19 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     delimiter: parseDelimiter(flags.delimiter ?? ','),
     parts: Boolean(flags.out),
   });
+  const writes: FileWrite[] = [];
+  if (flags.out) for (const [file, csv] of result.files) writes.push({ path: join(flags.out, file), text: csv, option: '--out' });
+  if (flags.assign) writes.push({ path: flags.assign, text: result.assignment, option: '--assign' });
+  // no part file may replace the data file (a part named like it, in its folder) or --assign
+  guardPaths([{ option: 'the data file', path: data }], writes, false);
   if (flags.out) {
     try {
       mkdirSync(flags.out, { recursive: true });
     } catch (e) {
       throw new InputError(`--out ${flags.out}: cannot create the folder (${(e as NodeJS.ErrnoException).code}); check the path`);
     }
-    for (const [file, csv] of result.files) writeFileAtomic(join(flags.out, file), csv, '--out');
-    io.stderr.write(`foldwise: wrote ${result.files.size} part files for ${result.planText} to ${flags.out}\n`);
   }
-  if (flags.assign) writeFileAtomic(flags.assign, result.assignment, '--assign');
+  writeFilesAtomic(writes);
+  if (flags.out) io.stderr.write(`foldwise: wrote ${result.files.size} part files for ${result.planText} to ${flags.out}\n`);
   return EXIT_OK;
 }

@@ -12,10 +12,12 @@ import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
 import { resolve } from 'node:path';
 import { loadCsv } from '../data/load-csv.js';
+import { defineProblem } from '../data/problem.js';
+import { parsePlan } from '../plans/parse.js';
+import { resolveMetrics } from '../run/prepare.js';
 import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
-import { checkWritable } from '../report/atomic.js';
 import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
@@ -24,7 +26,7 @@ import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tuneWithPredictions } from '../search/tune.js';
 import { tuneRecords } from '../search/tune-predictions.js';
 import { checkKeep, keptText } from '../run/predictions-out.js';
-import { checkPredictionsPath, writePredictions } from './predictions-output.js';
+import { checkPredictionsPath, withPredictions } from './predictions-output.js';
 import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './run.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
@@ -77,10 +79,6 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   if (flags.predictions === '-' && [flags.json, flags.markdown, flags.html].includes('-')) throw new UsageError('--predictions - and another output to -: only one of them can go to standard output');
   checkPredictionsPath(flags.predictions);
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--predictions', flags.predictions]]);
-  if (flags.predictions && flags.predictions !== '-') checkWritable(flags.predictions, '--predictions');
-  if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
-  if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
-  if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
   const seed = parseSeed(flags.seed);
   const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
   const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
@@ -92,9 +90,20 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
-  if (!flags.quiet) io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
+  const note = `foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`;
 
   const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  // the note comes once the data, target, plans and metrics are known to be usable, so that a
+  // refused run prints its one error line only
+  resolveMetrics(defineProblem(table, problemOptionsOf(flags)), flags.metric);
+  parsePlan(flags.plan);
+  try {
+    parsePlan(flags.inner);
+  } catch (e) {
+    if (e instanceof UsageError) throw new UsageError(e.message.replace(/^--plan\b/, '--inner'));
+    throw e;
+  }
+  if (!flags.quiet) io.stderr.write(note);
   const keep = flags.predictionsKeep ?? [];
   const { report, predictions } = tuneWithPredictions(table, {
     ...problemOptionsOf(flags),
@@ -114,16 +123,16 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   });
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
-  if (flags.predictions) {
-    const y = predictions.problem.target;
-    checkKeep(table, keep, y.task, y.task === 'classification' ? y.classes : []);
+  const y = predictions.problem.target;
+  if (flags.predictions) checkKeep(table, keep, y.task, y.task === 'classification' ? y.classes : []);
+  const made = () => {
     const { frame, records } = tuneRecords(predictions, report.metrics);
-    const kept = keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records;
-    await writePredictions(io, flags.predictions, frame, kept, keep);
-  }
-  if (flags.predictions !== '-' || flags.json || flags.markdown || flags.html) {
+    return { frame, records: keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records, keep };
+  };
+  await withPredictions(io, flags.predictions, made, () => {
+    if (flags.predictions === '-' && flags.json === undefined && flags.markdown === undefined && flags.html === undefined) return;
     writeOutputs(io, flags, { json: () => `${JSON.stringify(report, null, 2)}\n`, markdown: () => renderTuneMarkdown(report), html: () => renderTuneHtml(report) });
-  }
+  });
   return EXIT_OK;
 }
 

@@ -1,14 +1,13 @@
 /**
- * Writing a large output in chunks, atomically: the chunks go to a temporary file in the same
- * folder, which is flushed and renamed over the target, so memory does not grow with the file
- * and a reader never sees half of it. Standard output ("-") gets the chunks as they come,
- * waiting for the stream to drain when it asks to.
+ * Writing a large output in chunks: the chunks go to a temporary file beside the target
+ * (`.NAME.<pid>-<hex>.tmp`, as src/report/atomic.ts names them), flushed, so memory does not grow
+ * with the file; the caller then renames it into place with the run's other outputs (commit) or
+ * removes it (abort), so a failed run leaves no trace. Standard output ("-") gets the chunks as
+ * they come, waiting for the stream to drain when it asks to.
  */
-import { randomBytes } from 'node:crypto';
 import { closeSync, fsyncSync, openSync, realpathSync, renameSync, rmSync, statSync, writeSync } from 'node:fs';
-import { basename, dirname, join } from 'node:path';
 import { InputError } from '../errors.js';
-import { checkWritable } from './atomic.js';
+import { checkWritable, removeStaleTemps, tempNameOf } from './atomic.js';
 
 export interface ChunkSink {
   write(text: string): unknown;
@@ -22,7 +21,21 @@ export async function writeChunks(sink: ChunkSink, chunks: Iterable<string>): Pr
   }
 }
 
-export function writeChunksAtomic(path: string, chunks: Iterable<string>, option: string): void {
+export interface Staged {
+  /** renames the temporary file into place */
+  commit(): void;
+  /** removes the temporary file */
+  abort(): void;
+}
+
+const failed = (option: string, path: string, e: unknown): InputError => {
+  if (e instanceof InputError) return e;
+  const code = (e as NodeJS.ErrnoException).code ?? String(e);
+  return new InputError(`${option} ${path}: cannot be written (${code}); check the path, the free space and the permissions`);
+};
+
+/** Writes the chunks to a temporary file beside `path`; nothing is in place until `commit`. */
+export function stageChunks(path: string, chunks: Iterable<string>, option: string): Staged {
   checkWritable(path, option);
   let target = path;
   try {
@@ -36,21 +49,45 @@ export function writeChunksAtomic(path: string, chunks: Iterable<string>, option
   } catch {
     existing = undefined;
   }
-  const inPlace = existing !== undefined && !existing.isFile();
-  const tmp = inPlace ? target : join(dirname(target), `.${basename(target)}.${randomBytes(6).toString('hex')}.tmp`);
+  if (existing && !existing.isFile()) {
+    // a device or a pipe is written in place when committed (renaming over it would replace it)
+    const all = [...chunks];
+    return {
+      commit: () => {
+        try {
+          const fd = openSync(target, 'w');
+          for (const c of all) writeSync(fd, c);
+          closeSync(fd);
+        } catch (e) {
+          throw failed(option, path, e);
+        }
+      },
+      abort: () => undefined,
+    };
+  }
+  removeStaleTemps(target);
+  const tmp = tempNameOf(target);
   let fd = -1;
   try {
-    fd = openSync(tmp, inPlace ? 'w' : 'wx', existing?.isFile() ? existing.mode & 0o777 : 0o644);
+    fd = openSync(tmp, 'wx', existing ? existing.mode & 0o777 : 0o644);
     for (const c of chunks) writeSync(fd, c);
-    if (!inPlace) fsyncSync(fd);
+    fsyncSync(fd);
     closeSync(fd);
     fd = -1;
-    if (!inPlace) renameSync(tmp, target);
   } catch (e) {
     if (fd >= 0) closeSync(fd);
-    if (!inPlace) rmSync(tmp, { force: true });
-    if (e instanceof InputError) throw e;
-    const code = (e as NodeJS.ErrnoException).code ?? String(e);
-    throw new InputError(`${option} ${path}: cannot be written (${code}); check the path, the free space and the permissions`);
+    rmSync(tmp, { force: true });
+    throw failed(option, path, e);
   }
+  return {
+    commit: () => {
+      try {
+        renameSync(tmp, target);
+      } catch (e) {
+        rmSync(tmp, { force: true });
+        throw failed(option, path, e);
+      }
+    },
+    abort: () => rmSync(tmp, { force: true }),
+  };
 }

@@ -123,7 +123,8 @@ export interface Report {
   };
   /** present when the scores were computed by `foldwise score` from a predictions file */
   readonly source?: ReportSource;
-  readonly settings: { readonly impute: string };
+  /** imputation; and how the data was read (absent in reports of older versions and of library calls without them) */
+  readonly settings: { readonly impute: string; readonly missing?: readonly string[]; readonly categorical?: readonly string[]; readonly delimiter?: string };
   /** the reported metrics, headline first */
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];

@@ -11,7 +11,7 @@ import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
 import type { Report } from '../report/types.js';
 import { assembleReport, frameOf, recordsOf, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { checkKeep, keptText } from './predictions-out.js';
-import { identityOf } from './identity.js';
+import { identityOf, withReadSettings, type ReadSettings } from './identity.js';
 import { openJournal } from './journal.js';
 import { makePartial, type PartialReport } from './partial.js';
 import { runPool } from './pool.js';
@@ -19,10 +19,13 @@ import { prepareRun, withAudit, type EvaluateOptions } from './prepare.js';
 import { shardTasks, type ShardSpec } from './shard.js';
 import { runTasks, taskList, type TaskResult } from './tasks.js';
 
-/** A run stopped on request (SIGINT): exit code 130, as shells use for an interrupt. */
+/**
+ * A run stopped on request: exit code 128 + the signal's number, as shells report a process
+ * ended by that signal (130 for SIGINT, 143 for SIGTERM, 129 for SIGHUP).
+ */
 export class InterruptedError extends FoldwiseError {
-  constructor(message: string) {
-    super(message, 130);
+  constructor(message: string, signal: unknown = 'SIGINT') {
+    super(message, signal === 'SIGTERM' ? 143 : signal === 'SIGHUP' ? 129 : 130);
   }
 }
 
@@ -42,6 +45,19 @@ export interface ExecOptions {
   readonly commands?: CommandSetup;
   /** --predictions-keep: input columns whose text the records carry (for the predictions file) */
   readonly keep?: readonly string[];
+  /**
+   * aborted to stop the run at once (its reason, such as "SIGTERM", picks the exit code): the
+   * tasks under way are abandoned (workers terminated), the finished ones are in the journal
+   */
+  readonly stop?: AbortSignal;
+  /** run the tasks in a worker thread even with jobs 1, so this thread stays free for signals */
+  readonly isolate?: boolean;
+  /** called once the tasks are about to run (after the data checks), for example to arm signal handlers */
+  readonly onTasks?: () => void;
+  /** notes for the user (a journal's broken tail cut off) */
+  readonly notice?: (text: string) => void;
+  /** what the loader was told (missing tokens, forced categorical columns, delimiter): part of the run's identity */
+  readonly read?: ReadSettings;
 }
 
 export type ExecResult =
@@ -56,8 +72,9 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   checkKeep(table, keep, prepared.problem.task, prepared.problem.target.task === 'classification' ? prepared.problem.target.classes : []);
   const all = taskList(prepared);
   const mine = exec.shard ? shardTasks(all, exec.shard) : all;
-  const identity = identityOf(prepared);
+  const identity = identityOf(prepared, exec.read);
   const journal = exec.journal ? openJournal(exec.journal, identity, prepared.problem.target.task === 'classification') : undefined;
+  if (journal?.cutAt) exec.notice?.(`--journal ${journal.path}: from line ${journal.cutAt} on, the lines fail their checksum (a write cut short); cut off there, those tasks run again`);
   const results = new Map<string, TaskResult>();
   try {
     for (const t of mine) {
@@ -73,29 +90,30 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
       exec.progress?.(results.size, mine.length, resumed);
     };
     const jobs = Math.max(1, Math.floor(exec.jobs ?? 1));
-    if (jobs > 1 && todo.length > 1) {
-      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands);
+    exec.onTasks?.();
+    const where = (reason?: unknown): string =>
+      `${journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : ''}${reason ? ` (${String(reason)})` : ''}`;
+    if ((jobs > 1 || exec.isolate) && todo.length > 0) {
+      const stopped = (reason: unknown): Error => new InterruptedError(`interrupted${where(reason)}`, reason);
+      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands, exec.stop, stopped);
     } else {
       // one split at a time, yielding to the event loop in between so that a SIGINT handler
       // (which only runs when the loop gets control) can ask the run to stop
       for (let i = 0; i < todo.length; ) {
         let j = i;
         while (j < todo.length && todo[j].foldIndex === todo[i].foldIndex) j++;
-        if (exec.stopRequested?.()) break;
+        if (exec.stopRequested?.() || exec.stop?.aborted) break;
         runTasks(prepared, todo.slice(i, j), done, exec.stopRequested);
         await new Promise<void>((resolve) => setImmediate(resolve));
         i = j;
       }
     }
-    if (results.size < mine.length) {
-      const where = journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : '';
-      throw new InterruptedError(`interrupted${where}`);
-    }
+    if (results.size < mine.length) throw new InterruptedError(`interrupted${where(exec.stop?.reason)}`, exec.stop?.reason);
   } finally {
     journal?.close();
   }
   const ordered = mine.map((t) => results.get(t.id)!);
-  const frame = frameOf(prepared);
+  const frame = withReadSettings(frameOf(prepared), exec.read);
   const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
   if (exec.shard) {
     const records = withKeep(recordsOf(prepared, ordered, new Set(mine.map((t) => t.id))));

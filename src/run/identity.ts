@@ -1,9 +1,34 @@
 /**
- * What makes two runs the same run: data fingerprint, problem, plan, seed, settings, learners
- * and metrics. Journals and shard parts carry it; resuming or merging refuses a mismatch and
- * says exactly what differs.
+ * What makes two runs the same run: data fingerprint, how the data was read (missing tokens,
+ * forced categorical columns, delimiter, the resulting column kinds), problem, plan, seed,
+ * settings (imputation, --final, --on-fold-error, the quick audit), learners and metrics.
+ * Journals and shard parts carry it; resuming or merging refuses a mismatch and says exactly
+ * what differs. What only changes how a run is carried out (jobs, shards, timings, progress,
+ * temporary folders) is left out.
  */
+import type { ReportFrame } from './evaluate.js';
 import type { Prepared } from './prepare.js';
+
+/** What the loader was told, as the report's settings show it. */
+export interface ReadSettings {
+  /** texts read as missing besides the empty cell, sorted */
+  readonly missing: readonly string[];
+  /** columns read as categorical by request, sorted */
+  readonly categorical: readonly string[];
+  readonly delimiter: string;
+}
+
+/** The read settings in canonical form (sorted, without the empty cell, no repeats). */
+export function readSettings(missing: readonly string[], categorical: readonly string[], delimiter: string): ReadSettings {
+  const sorted = (xs: readonly string[]): string[] => [...new Set(xs)].sort();
+  return { missing: sorted(missing.map((t) => t.trim()).filter((t) => t !== '')), categorical: sorted(categorical), delimiter };
+}
+
+/** The frame with the read settings added to its settings (unchanged without them). */
+export function withReadSettings(frame: ReportFrame, read: ReadSettings | undefined): ReportFrame {
+  if (!read) return frame;
+  return { ...frame, settings: { ...frame.settings, missing: read.missing, categorical: read.categorical, delimiter: read.delimiter } };
+}
 
 export interface RunIdentity {
   readonly sha256: string;
@@ -22,9 +47,17 @@ export interface RunIdentity {
   readonly metrics: readonly string[];
   /** the programs of command: learners (present only when the run has some) */
   readonly programs?: readonly string[];
+  /** how the data was read (present when the caller says: the CLI always does) */
+  readonly missing?: readonly string[];
+  readonly categorical?: readonly string[];
+  readonly delimiter?: string;
+  /** the kinds the columns were read as, in header order ("n" numeric, "c" categorical) */
+  readonly kinds: string;
+  readonly onFoldError: string;
+  readonly audit: boolean;
 }
 
-export function identityOf(p: Prepared): RunIdentity {
+export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
   const programs = p.candidates.filter((c) => c.learner.name.startsWith('command:')).map((c) => `${c.learner.name}=${c.learner.origin ?? ''}`);
   return {
     sha256: p.table.fingerprint.sha256,
@@ -42,6 +75,10 @@ export function identityOf(p: Prepared): RunIdentity {
     learners: p.candidates.map((c) => c.spec),
     metrics: p.metrics.map((m) => m.name),
     ...(programs.length ? { programs } : {}),
+    ...(read ? { missing: read.missing, categorical: read.categorical, delimiter: read.delimiter } : {}),
+    kinds: p.table.fingerprint.schema.map(([, k]) => (k === 'numeric' ? 'n' : 'c')).join(''),
+    onFoldError: p.onFoldError ?? 'fail',
+    audit: p.audit !== undefined,
   };
 }
 
@@ -50,8 +87,13 @@ const short = (v: unknown): string => {
   return t.length > 40 ? `${t.slice(0, 37)}...` : t;
 };
 
-/** The fields where two identities differ, as "field (a vs b)"; empty when they are the same. */
-export function identityDiff(a: RunIdentity, b: RunIdentity): string[] {
+/**
+ * The fields where two identities differ, as "field (A: a, B: b)" with the labels given
+ * (default "field (a vs b)"); empty when they are the same.
+ */
+export function identityDiff(a: RunIdentity, b: RunIdentity, labels?: readonly [string, string]): string[] {
   const keys = [...new Set([...Object.keys(a), ...Object.keys(b)])] as (keyof RunIdentity)[];
-  return keys.filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k])).map((k) => `${k} (${short(a[k])} vs ${short(b[k])})`);
+  return keys
+    .filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k]))
+    .map((k) => (labels ? `${k} (${labels[0]}: ${short(a[k])}, ${labels[1]}: ${short(b[k])})` : `${k} (${short(a[k])} vs ${short(b[k])})`));
 }

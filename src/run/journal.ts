@@ -3,10 +3,18 @@
  * identity); each further line is one finished task's result, written with one write call and
  * flushed to disk (fsync) before the next task is counted as done. Rerunning the same command
  * with the same journal skips the tasks it holds; a journal of another run is refused with
- * what differs. A last line cut short by a kill is ignored (that task simply runs again), and a
- * failed task (--on-fold-error skip) is not written, so resuming tries it again.
+ * what differs. A failed task (--on-fold-error skip) is not written, so resuming tries it again.
+ *
+ * Each task line is the result's JSON object with a checksum added as its last field,
+ * `{...RESULT,"sha":"<16 hex>"}`: the first 16 hex digits of the SHA-256 of the exact text of
+ * `{...RESULT}`, so a changed digit is never read as a result. A line that fails its check with good lines after it is refused, naming the journal
+ * and the line; lines failing at the end (a write cut short by a kill, a disk that filled) are
+ * cut off and those tasks run again. Only regular files are journals, of at most
+ * `journalLimit()` bytes.
  */
-import { closeSync, existsSync, fsyncSync, openSync, readFileSync, writeSync } from 'node:fs';
+import { createHash } from 'node:crypto';
+import { closeSync, fsyncSync, ftruncateSync, openSync, readFileSync, statSync, writeSync } from 'node:fs';
+import { totalmem } from 'node:os';
 import { InputError, UsageError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
 import { identityDiff, type RunIdentity } from './identity.js';
@@ -15,16 +23,44 @@ import type { TaskResult } from './tasks.js';
 
 export const JOURNAL_FORMAT = 'foldwise-journal/2';
 
+/** The largest journal read back: a quarter of the machine's memory. */
+export function journalLimit(): number {
+  return Math.floor(totalmem() / 4);
+}
+
 export interface Journal {
   readonly path: string;
   /** results already in the journal when it was opened */
   readonly done: ReadonlyMap<string, TaskResult>;
+  /** set when lines failing their checksum were cut off the end: the first such line */
+  readonly cutAt?: number;
   append(r: TaskResult): void;
   close(): void;
 }
 
-function readJournal(path: string, identity: RunIdentity, classification: boolean): Map<string, TaskResult> {
-  const lines = readFileSync(path, 'utf8').split('\n');
+const sha16 = (text: string): string => createHash('sha256').update(text).digest('hex').slice(0, 16);
+const TASK_LINE = /^(\{.*),"sha":"([0-9a-f]{16})"\}$/;
+
+/** The journal line of a result, with its checksum. */
+export function journalLine(r: TaskResult): string {
+  const payload = JSON.stringify(resultToJSON(r));
+  return `${payload.slice(0, -1)},"sha":"${sha16(payload)}"}`;
+}
+
+function writeFailure(path: string, e: unknown): InputError {
+  const code = (e as NodeJS.ErrnoException).code ?? String(e);
+  const hint = code === 'ENOSPC' ? 'the disk is full; free some space and rerun the same command to resume' : 'check the path and permissions';
+  return new InputError(`--journal ${path}: cannot be written (${code}); ${hint}`);
+}
+
+interface Read {
+  readonly done: Map<string, TaskResult>;
+  /** byte length of the good part, and the 1-based line where a failing tail starts */
+  readonly cut?: { readonly bytes: number; readonly line: number };
+}
+
+function readJournal(path: string, text: string, identity: RunIdentity, classification: boolean): Read {
+  const lines = text.split('\n');
   let head: { journal?: string; identity?: RunIdentity };
   try {
     head = JSON.parse(lines[0]);
@@ -36,47 +72,93 @@ function readJournal(path: string, identity: RunIdentity, classification: boolea
   const diff = identityDiff(head.identity, identity);
   if (diff.length) throw new UsageError(`--journal ${path}: it belongs to another run, which differs in ${diff.join(', ')}; use a new journal file`);
   const done = new Map<string, TaskResult>();
-  const last = lines.length - 1;
+  let bytes = Buffer.byteLength(lines[0]) + 1;
+  let firstBad: { line: number; bytes: number } | undefined;
   for (let i = 1; i < lines.length; i++) {
-    if (lines[i] === '') continue;
-    let j: unknown;
-    try {
-      j = JSON.parse(lines[i]);
-    } catch {
-      if (i === last) break; // cut short by a kill: the task runs again
-      throw new InputError(`--journal ${path}: line ${i + 1} is broken; the journal was changed by hand`);
+    const line = lines[i];
+    const end = bytes + Buffer.byteLength(line) + (i < lines.length - 1 ? 1 : 0);
+    if (line === '' && i === lines.length - 1) break;
+    const m = TASK_LINE.exec(line);
+    let r: TaskResult | undefined;
+    if (m && sha16(`${m[1]}}`) === m[2]) {
+      try {
+        r = resultFromJSON(JSON.parse(`${m[1]}}`), classification, `--journal ${path}: line ${i + 1}`);
+      } catch (e) {
+        if (e instanceof InputError) throw e;
+        r = undefined;
+      }
     }
-    const r = resultFromJSON(j, classification, `--journal ${path}: line ${i + 1}`);
-    done.set(r.id, r);
+    if (r) {
+      if (firstBad) {
+        throw new InputError(
+          `--journal ${path}: line ${firstBad.line} fails its checksum (the journal was changed); use a new journal file, or delete line ${firstBad.line} to run that task again`,
+        );
+      }
+      done.set(r.id, r);
+    } else if (!firstBad) {
+      firstBad = { line: i + 1, bytes };
+    }
+    bytes = end;
   }
-  return done;
+  return { done, ...(firstBad ? { cut: { bytes: firstBad.bytes, line: firstBad.line } } : {}) };
 }
 
 export function openJournal(path: string, identity: RunIdentity, classification: boolean): Journal {
-  const exists = existsSync(path) && readFileSync(path, 'utf8').length > 0;
-  const done = exists ? readJournal(path, identity, classification) : new Map<string, TaskResult>();
+  let size = -1;
+  try {
+    const st = statSync(path);
+    if (!st.isFile()) throw new InputError(`--journal ${path}: is ${st.isDirectory() ? 'a folder' : 'not a regular file'}; give a file name for the journal`);
+    size = st.size;
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    if ((e as NodeJS.ErrnoException).code !== 'ENOENT') throw new InputError(`--journal ${path}: cannot be read (${(e as NodeJS.ErrnoException).code})`);
+  }
+  const limit = journalLimit();
+  if (size > limit) throw new InputError(`--journal ${path}: has ${size} bytes, more than the ${limit} (a quarter of this machine's memory) a journal may have; use a new journal file`);
+  const exists = size > 0;
+  const read: Read = exists ? readJournal(path, readFileSync(path, 'utf8'), identity, classification) : { done: new Map() };
   let fd: number;
   try {
-    fd = openSync(path, 'a');
+    fd = openSync(path, exists ? 'r+' : 'w');
   } catch (e) {
     throw new InputError(`--journal ${path}: cannot be opened (${(e as NodeJS.ErrnoException).code}); check the path`);
   }
-  const line = (obj: unknown): void => {
-    writeSync(fd, `${JSON.stringify(obj)}\n`);
-    fsyncSync(fd);
+  let position = 0;
+  const write = (text: string): void => {
+    try {
+      const buf = Buffer.from(text);
+      let off = 0;
+      while (off < buf.length) {
+        const n = writeSync(fd, buf, off, buf.length - off, position);
+        off += n;
+        position += n;
+      }
+      fsyncSync(fd);
+    } catch (e) {
+      throw writeFailure(path, e);
+    }
   };
-  if (!exists) line({ journal: JOURNAL_FORMAT, identity });
+  if (!exists) write(`${JSON.stringify({ journal: JOURNAL_FORMAT, identity })}\n`);
   else {
+    const text = readFileSync(path);
+    position = read.cut ? read.cut.bytes : text.length;
+    if (read.cut) {
+      try {
+        ftruncateSync(fd, position);
+      } catch (e) {
+        throw writeFailure(path, e);
+      }
+    }
     // make sure a line cut short by a kill does not swallow the next one
-    const text = readFileSync(path, 'utf8');
-    if (!text.endsWith('\n')) writeSync(fd, '\n');
+    if (position > 0 && text[position - 1] !== 0x0a) write('\n');
   }
   return {
     path,
-    done,
+    done: read.done,
+    ...(read.cut ? { cutAt: read.cut.line } : {}),
     // a failed task is not journaled: a resumed run tries it again
     append: (r) => {
-      if (!r.failed) line(resultToJSON(r));
+      if (!r.failed) write(`${journalLine(r)}\n`);
     },
     close: () => closeSync(fd),
   };

@@ -146,12 +146,21 @@ export function mergePartsWithRecords(
   if (parts.length === 0) throw new InputError('merge: give the part files to merge');
   const first = parts[0];
   parts.forEach((p, i) => {
-    const diff = identityDiff(first.identity, p.identity);
+    const diff = identityDiff(p.identity, first.identity, [names[i], names[0]]);
     // parts of another foldwise version may differ in ways the identity does not show
     const version = (q: PartialReport): string => JSON.stringify(q.tool?.version ?? null);
     if (version(p) !== version(first)) diff.unshift(`foldwise version (${version(first)} vs ${version(p)})`);
     if (diff.length) throw new InputError(`merge: ${names[i]} belongs to another run than ${names[0]}: it differs in ${diff.join(', ')}`);
     if (p.shard.count !== first.shard.count) throw new InputError(`merge: ${names[i]} is shard ${p.shard.index}/${p.shard.count}, ${names[0]} is of ${first.shard.count}`);
+  });
+  // the same shard given twice (the same file, or a copy) is a mistake of the command line
+  const shardOf = new Map<number, string>();
+  parts.forEach((p, i) => {
+    const before = shardOf.get(p.shard.index);
+    if (before !== undefined) {
+      throw new InputError(`merge: ${before} and ${names[i]} are both shard ${p.shard.index}/${p.shard.count} (doubled); give each part once (one file per shard 1 to ${p.shard.count})`);
+    }
+    shardOf.set(p.shard.index, names[i]);
   });
   const seen = new Map<string, string>();
   const doubled: string[] = [];

@@ -1,7 +1,13 @@
 /**
  * Runs tasks on a pool of worker threads. Tasks are sent in batches of one split each (so a
- * split's preprocessing is fitted once per batch), to whichever worker is free next. The results
+ * split's preprocessing is fitted once per batch), to whichever worker is free next; a worker
+ * posts each task's result as soon as it is done (so a journal holds it at once). The results
  * are the same whatever the number of workers: every task carries its own seed.
+ *
+ * The pool ends on every path: when a task fails, when `done` throws (a journal on a full
+ * disk), when a worker crashes, and when `stop` is aborted (SIGINT, SIGTERM), the workers are
+ * terminated at once (a long fit is interrupted; its task runs again on resume) and the pool
+ * rejects with the cause.
  */
 import { Worker } from 'node:worker_threads';
 import type { Table } from '../data/types.js';
@@ -35,6 +41,10 @@ function batches(tasks: readonly TaskSpec[]): string[][] {
   return out;
 }
 
+/** A stop request (the abort reason, such as "SIGINT") as the error the pool rejects with. */
+export type StopError = (reason: unknown) => Error;
+
+type WorkerMessage = { result?: TaskResult; batchDone?: true; error?: string; exitCode?: number };
 
 export async function runPool(
   table: Table,
@@ -45,6 +55,8 @@ export async function runPool(
   stopRequested?: () => boolean,
   baseDir = '/',
   commands?: CommandSetup,
+  stop?: AbortSignal,
+  stopError: StopError = (reason) => new FoldwiseError(`stopped (${String(reason)})`, 130),
 ): Promise<TaskResult[]> {
   const queue = batches(tasks);
   const results: TaskResult[] = [];
@@ -52,15 +64,27 @@ export async function runPool(
   const shared = shareTable(table);
   const count = Math.max(1, Math.min(jobs, queue.length));
   const workers: Worker[] = [];
+  let onAbort: (() => void) | undefined;
   try {
     await new Promise<void>((resolve, reject) => {
       let running = 0;
-      let failed = false;
+      let ended = false;
+      const fail = (e: unknown): void => {
+        if (ended) return;
+        ended = true;
+        reject(e);
+      };
+      if (stop?.aborted) return fail(stopError(stop.reason));
+      onAbort = () => fail(stopError(stop!.reason));
+      stop?.addEventListener('abort', onAbort, { once: true });
       const next = (w: Worker): void => {
         const batch = stopRequested?.() ? undefined : queue.shift();
         if (!batch) {
           w.postMessage(null);
-          if (--running === 0) resolve();
+          if (--running === 0 && !ended) {
+            ended = true;
+            resolve();
+          }
           return;
         }
         w.postMessage(batch);
@@ -69,28 +93,33 @@ export async function runPool(
         const w = new Worker(workerUrl(), { workerData: { table: shared, options, baseDir, commands } });
         workers.push(w);
         running++;
-        w.on('message', (msg: { results?: TaskResult[]; error?: string; exitCode?: number }) => {
-          if (failed) return;
-          if (msg.error !== undefined) {
-            failed = true;
-            reject(msg.exitCode === undefined ? new Error(msg.error) : new FoldwiseError(msg.error, msg.exitCode));
+        w.on('message', (msg: WorkerMessage) => {
+          if (ended) return;
+          if (msg.error !== undefined) return fail(msg.exitCode === undefined ? new Error(msg.error) : new FoldwiseError(msg.error, msg.exitCode));
+          if (msg.result) {
+            results.push(msg.result);
+            try {
+              done?.(msg.result);
+            } catch (e) {
+              fail(e);
+            }
             return;
           }
-          for (const r of msg.results!) {
-            results.push(r);
-            done?.(r);
-          }
-          next(w);
+          if (msg.batchDone) next(w);
         });
-        w.on('error', (e) => {
-          failed = true;
-          reject(e);
+        w.on('error', fail);
+        w.on('exit', (code) => {
+          if (!ended && code !== 0) fail(new Error(`a worker thread ended with code ${code}`));
         });
         next(w);
       }
     });
   } finally {
-    await Promise.all(workers.map((w) => w.terminate()));
+    if (onAbort) stop?.removeEventListener('abort', onAbort);
+    // a worker blocked in a command: fold ends when its program's supervisor does; do not wait
+    // for it longer than a moment, and do not let it hold the process open
+    for (const w of workers) w.unref();
+    await Promise.race([Promise.all(workers.map((w) => w.terminate())), new Promise((r) => setTimeout(r, 3000).unref())]);
   }
   return results;
 }

@@ -8,6 +8,7 @@
 import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
 import { problemRowsCsv } from '../data/csv-text.js';
+import { FoldwiseError } from '../errors.js';
 import { CommandFoldError } from '../learners/command/errors.js';
 import { foldLabel } from '../report/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
@@ -172,9 +173,17 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
     const t2 = performance.now();
     const notes = notesOf(model.notes?.());
     return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
-  } catch (e) {
+  } catch (caught) {
+    // a module: learner's own error is the user's code failing on this fold, not a bug of foldwise
+    const e = c.learner.name.startsWith('module:') && !(caught instanceof FoldwiseError) ? moduleFoldError(c.learner.name, fold.label, caught) : caught;
     if (!(e instanceof CommandFoldError) || ctx.onFoldError !== 'skip') throw e;
     const empty = ctx.problem.task === 'classification' ? new Int32Array(0) : new Float64Array(0);
     return { id: t.id, predicted: empty, fitMs: performance.now() - t0, predictMs: 0, failed: e.message };
   }
+}
+
+/** The error of a module: learner's fit or predict on one fold, naming the module and the fold. */
+function moduleFoldError(learner: string, fold: string, e: unknown): CommandFoldError {
+  const message = e instanceof Error ? e.message : String(e);
+  return new CommandFoldError(`${learner} fold ${fold}: the learner threw: ${message.replace(/\s+/g, ' ').slice(0, 300)} (--on-fold-error skip records the fold as failed and goes on)`);
 }

@@ -1,7 +1,8 @@
 /**
  * A worker thread of the pool. It prepares the same run as the main thread from the shared
  * table and the options (deterministic, so its task list is the same), then runs the batches of
- * task ids it is sent and posts their results back.
+ * task ids it is sent, posting each task's result as soon as it is done and a `batchDone` after
+ * the batch.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { FoldwiseError } from '../errors.js';
@@ -22,8 +23,8 @@ parentPort!.on('message', (ids: string[] | null) => {
     return;
   }
   try {
-    const results = runTasks(prepared, ids.map((id) => byId.get(id)!));
-    parentPort!.postMessage({ results });
+    runTasks(prepared, ids.map((id) => byId.get(id)!), (result) => parentPort!.postMessage({ result }));
+    parentPort!.postMessage({ batchDone: true });
   } catch (e) {
     const exitCode = e instanceof FoldwiseError ? e.exitCode : undefined;
     parentPort!.postMessage({ error: e instanceof Error ? e.message : String(e), ...(exitCode === undefined ? {} : { exitCode }) });

@@ -84,13 +84,17 @@ describe('foldwise tune', () => {
     expect((JSON.parse(ok.stdout) as TuneReport).candidates.length).toBe(300);
   });
 
-  it('prints the count before the data is read', async () => {
+  // #25 item 12: a refused run prints its one error line only; the count comes once the data,
+  // target, plans and metrics are known to be usable (the space is still counted before reading)
+  it('prints the count once the input is known usable, and nothing but the error otherwise', async () => {
     const r = await cli(['tune', join(tmp.dir, 'missing.csv'), '--target', 'y', '--learner', 'knn:k=1|2']);
     expect(r.code).toBe(2);
     const lines = r.stderr.trim().split('\n');
-    expect(lines.length).toBe(2);
-    expect(lines[0]).toBe('foldwise: tune: 2 candidates in a grid of 2; outer kfold:5, inner kfold:3');
-    expect(lines[1].startsWith('foldwise: ')).toBe(true);
+    expect(lines.length).toBe(1);
+    expect(lines[0].startsWith('foldwise: ')).toBe(true);
+    const ok = await cli([...ARGS, '--learner', 'knn:k=1|2', '--plan', 'kfold:2', '--inner', 'kfold:2', '--no-audit', '--json', '-']);
+    expect(ok.code).toBe(0);
+    expect(ok.stderr.trim().split('\n')[0]).toBe('foldwise: tune: 2 candidates in a grid of 2; outer kfold:2, inner kfold:2');
   });
 
   const bad: [string, string[], RegExp][] = [
