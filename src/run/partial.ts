@@ -149,7 +149,7 @@ export function mergePartsWithRecords(
     const diff = identityDiff(p.identity, first.identity, [names[i], names[0]]);
     // parts of another foldwise version may differ in ways the identity does not show
     const version = (q: PartialReport): string => JSON.stringify(q.tool?.version ?? null);
-    if (version(p) !== version(first)) diff.unshift(`foldwise version (${version(first)} vs ${version(p)})`);
+    if (version(p) !== version(first)) diff.unshift(`foldwise version (${names[i]}: ${version(p)}, ${names[0]}: ${version(first)})`);
     if (diff.length) throw new InputError(`merge: ${names[i]} belongs to another run than ${names[0]}: it differs in ${diff.join(', ')}`);
     if (p.shard.count !== first.shard.count) throw new InputError(`merge: ${names[i]} is shard ${p.shard.index}/${p.shard.count}, ${names[0]} is of ${first.shard.count}`);
   });

@@ -55,7 +55,7 @@ describe('no output replaces an input', () => {
     expect((await cli(['eval', join(d, 'data.csv'), ...EVAL, '--json', rep])).code).toBe(0);
     const part = join(d, 'p.json');
     expect((await cli(['eval', join(d, 'data.csv'), ...EVAL, '--shard', '1/1', '--json', part])).code).toBe(0);
-    await refused(d, ['gate', '--baseline', rep, '--current', rep, '--json', rep], /--json .*r\.json: is the file read by --baseline/);
+    await refused(d, ['gate', '--previous', rep, '--current', rep, '--json', rep], /--json .*r\.json: is the file read by --previous/);
     await refused(d, ['compare', rep, rep, '--json', rep], /is the file read by compare/);
     await refused(d, ['render', rep, '--html', rep], /is the file read by render/);
     await refused(d, ['merge', part, '--json', part], /is the file read by merge/);

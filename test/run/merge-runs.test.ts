@@ -60,13 +60,13 @@ describe('merge and retried or foreign parts', () => {
     const seed = await part('seed-2.json', '2/2', '--seed', '7');
     const bySeed = await cli(['merge', p1, seed, '--json', join(tmp.dir, 'seed.json')]);
     expect(bySeed.code).toBe(2);
-    expect(bySeed.stderr).toMatch(/seed-2\.json belongs to another run than .*mine-1\.json: it differs in seed \(1 vs 7\)/);
+    expect(bySeed.stderr).toMatch(/seed-2\.json belongs to another run than .*mine-1\.json: it differs in seed \(.*seed-2\.json: 7, .*mine-1\.json: 1\)/);
 
     const dataPart = join(tmp.dir, 'data-2.json');
     expect((await cli([...args(shorter), '--shard', '2/2', '--json', dataPart])).code).toBe(0);
     const byData = await cli(['merge', p1, dataPart, '--json', join(tmp.dir, 'data.json')]);
     expect(byData.code).toBe(2);
-    expect(byData.stderr).toMatch(/data-2\.json belongs to another run .* differs in sha256 \(.*\), rowsUsed \(344 vs 343\)/);
+    expect(byData.stderr).toMatch(/data-2\.json belongs to another run .* differs in sha256 \(.*\), rowsUsed \(.*data-2\.json: 343, .*mine-1\.json: 344\)/);
 
     // a part written by another foldwise version: the same run otherwise, so only the version differs
     const foreign = JSON.parse(readFileSync(p2, 'utf8'));
@@ -76,6 +76,6 @@ describe('merge and retried or foreign parts', () => {
     writeFileSync(versionPart, JSON.stringify(foreign));
     const byVersion = await cli(['merge', p1, versionPart, '--json', join(tmp.dir, 'version.json')]);
     expect(byVersion.code).toBe(2);
-    expect(byVersion.stderr).toBe(`foldwise: merge: ${versionPart} belongs to another run than ${p1}: it differs in foldwise version ("${VERSION}" vs "0.0.9")\n`);
+    expect(byVersion.stderr).toBe(`foldwise: merge: ${versionPart} belongs to another run than ${p1}: it differs in foldwise version (${versionPart}: "0.0.9", ${p1}: "${VERSION}")\n`);
   });
 });
