@@ -192,7 +192,7 @@ function gateRun(t: Tally, base: LoadedReport, cur: LoadedReport, baseSpec: stri
   t.meanDrop += v.drop;
   if (v.verdict === 'fail') t.gate++;
   // coverage of the corrected 95% interval of the change (current - baseline) for the true change
-  if (v.ci95[0] <= -truth && -truth <= v.ci95[1]) t.covered++;
+  if (v.ci95 && v.ci95[0] <= -truth && -truth <= v.ci95[1]) t.covered++;
   if (paired) {
     const b = base.report.learners.find((l) => l.spec === baseSpec)!.folds.map((f) => f.scores.accuracy as number);
     const c = cur.report.learners.find((l) => l.spec === curSpec)!.folds.map((f) => f.scores.accuracy as number);

@@ -19,9 +19,9 @@ import { medianAbsoluteError } from './median-absolute-error.js';
 import { r2 } from './r2.js';
 import { rmse } from './rmse.js';
 import { rocAuc } from './roc-auc.js';
-import type { ClassificationInput, Metric, RegressionInput } from './types.js';
+import type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 
-export type { ClassificationInput, Metric, RegressionInput } from './types.js';
+export type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 export { confusionMatrix } from './confusion-matrix.js';
 export { perClassScores, type PerClassScores } from './per-class.js';
 export {
@@ -62,14 +62,46 @@ export type MetricName = (typeof METRIC_NAMES)[number];
 
 export type Task = Metric['task'];
 
+/** The worst log loss: -ln(1e-15), the clip of src/metrics/log-loss.ts. */
+const LOG_LOSS_MAX = -Math.log(1e-15);
+
+const UNIT: ScoreRules = { range: [0, 1], proportion: false, rank: false };
+const SIGNED: ScoreRules = { range: [-1, 1], proportion: false, rank: false };
+const ERROR: ScoreRules = { range: [0, Infinity], proportion: false, rank: false };
+
+/**
+ * The fold value of a macro average (balanced_accuracy, macro_*): undefined (NaN, reported as
+ * null) when a class of the problem has no row in the scored part. Averaged over the classes
+ * the fold happens to hold, a constant predictor of the majority class would score a perfect
+ * recall on a fold without the minority class (balanced accuracy 1.0 where its no-skill value is
+ * 1/classes); a fold that cannot measure a class cannot measure the average over classes. The
+ * metric functions themselves keep their documented conventions for direct use.
+ */
+export function everyClass(fn: (input: ClassificationInput) => number): (input: ClassificationInput) => number {
+  return (input) => {
+    const value = fn(input);
+    const seen = new Uint8Array(input.classes);
+    let missing = input.classes;
+    for (let i = 0; i < input.actual.length && missing > 0; i++) {
+      const c = input.actual[i];
+      if (seen[c] === 0) {
+        seen[c] = 1;
+        missing--;
+      }
+    }
+    return missing > 0 ? NaN : value;
+  };
+}
+
 function classification(
   name: MetricName,
   fn: (input: ClassificationInput) => number,
   needsProba: boolean,
   higherIsBetter: boolean,
   doc: string,
+  rules: ScoreRules = UNIT,
 ): [MetricName, Metric] {
-  return [name, { name, task: 'classification', needsProba, higherIsBetter, doc, fn }];
+  return [name, { name, task: 'classification', needsProba, higherIsBetter, doc, fn, ...rules }];
 }
 
 function regression(
@@ -77,24 +109,25 @@ function regression(
   fn: (input: RegressionInput) => number,
   higherIsBetter: boolean,
   doc: string,
+  rules: ScoreRules = ERROR,
 ): [MetricName, Metric] {
-  return [name, { name, task: 'regression', needsProba: false, higherIsBetter, doc, fn }];
+  return [name, { name, task: 'regression', needsProba: false, higherIsBetter, doc, fn, ...rules }];
 }
 
 export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metric>([
-  classification('accuracy', accuracy, false, true, 'share of rows predicted correctly'),
-  classification('balanced_accuracy', balancedAccuracy, false, true, 'mean per-class recall over the classes present in actual'),
-  classification('macro_precision', macroPrecision, false, true, 'unweighted mean of per-class precision (never-predicted class counts 0)'),
-  classification('macro_recall', macroRecall, false, true, 'unweighted mean of per-class recall over classes in actual or predicted'),
-  classification('macro_f1', macroF1, false, true, 'unweighted mean of per-class F1 over classes in actual or predicted'),
-  classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined'),
-  classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined"),
-  classification('log_loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [1e-15, 1-1e-15]'),
-  classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)'),
-  classification('roc_auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
+  classification('accuracy', accuracy, false, true, 'share of rows predicted correctly', { ...UNIT, proportion: true }),
+  classification('balanced_accuracy', everyClass(balancedAccuracy), false, true, 'mean per-class recall; null on a fold that lacks a class'),
+  classification('macro_precision', everyClass(macroPrecision), false, true, 'unweighted mean of per-class precision (never-predicted class counts 0); null on a fold that lacks a class'),
+  classification('macro_recall', everyClass(macroRecall), false, true, 'unweighted mean of per-class recall; null on a fold that lacks a class'),
+  classification('macro_f1', everyClass(macroF1), false, true, 'unweighted mean of per-class F1; null on a fold that lacks a class'),
+  classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined', SIGNED),
+  classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined", SIGNED),
+  classification('log_loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [1e-15, 1-1e-15]', { ...ERROR, range: [0, LOG_LOSS_MAX] }),
+  classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)', { ...ERROR, range: [0, 2] }),
+  classification('roc_auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
-  regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant'),
+  regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant', { ...ERROR, range: [-Infinity, 1] }),
   regression('median_absolute_error', medianAbsoluteError, false, 'median absolute error'),
 ]);
 

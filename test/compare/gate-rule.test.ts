@@ -100,8 +100,8 @@ describe('unpairedGateTest: Welch test with a Nadeau-Bengio corrected variance o
     // one-sided p and the 95% interval from jstat's Student t with 8 df
     expect(Math.abs(r.p - (1 - jStat.studentt.cdf(0.942809, 8)))).toBeLessThan(1e-6);
     const half = jStat.studentt.inv(0.975, 8) * Math.sqrt(0.00045);
-    expect(Math.abs(r.ci95[0] - (-0.02 - half))).toBeLessThan(1e-9);
-    expect(Math.abs(r.ci95[1] - (-0.02 + half))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![0] - (-0.02 - half))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![1] - (-0.02 + half))).toBeLessThan(1e-9);
   });
 
   it('matches the hand derivation with unequal variances (df = 100/17)', () => {
