@@ -153,7 +153,7 @@ export function pairedGateTest(baseline: readonly number[], current: readonly nu
     currentMean: mean([...current]),
     baselineFolds: j,
     currentFolds: j,
-    change: -s * drop,
+    change: 0 - s * drop, // 0 - x: never -0
     drop,
     df: j - 1,
   };
