@@ -27,9 +27,9 @@
  * Improvement: the same one-sided test of H0: gain <= 0 (gain = -drop) rejected at alpha.
  *
  * Floors (variance-floor.ts in src/stats): for a share of test rows (accuracy; `proportion`)
- * each variance is at least the binomial floor: for the paired rule that of a difference,
- * |mean drop| (1 - |mean drop|) / testRows with the add-two estimate; for the unpaired rule each
- * run's own p (1 - p) / testRows. So equal fold scores never give an infinite t: a 2-fold report
+ * the variance of each mean is at least the binomial floor over the rows of a split
+ * (testRows + trainRows = N): for the paired rule that of a difference, q~ (1 - q~) / N with
+ * q~ the add-two estimate of |mean drop|; for the unpaired rule each run's own p~ (1 - p~) / N. So equal fold scores never give an infinite t: a 2-fold report
  * with one error more in each fold is not a regression "with 95% confidence".
  * Zero spread (SE = 0, possible only without a floor): nothing can be claimed beyond what the
  * scores show. A mean drop <= maxDrop passes (t = null, p = 1, no interval): the runs agree
@@ -107,6 +107,11 @@ function checkSeries(name: string, xs: readonly number[]): void {
   if (!xs.every(Number.isFinite)) throw new InputError(`gate: the ${name} run has a score that is not a finite number`);
 }
 
+/** Sample variance, exactly 0 for equal scores (no rounding residue of the mean). */
+function spread(xs: readonly number[]): number {
+  return xs.every((x) => x === xs[0]) ? 0 : sampleVariance([...xs]);
+}
+
 type Base = Pick<GateTest, 'rule' | 'baselineMean' | 'currentMean' | 'baselineFolds' | 'currentFolds' | 'change' | 'drop' | 'df'>;
 
 /** The one-sided decisions and the interval from the drop's standard error (see the module text). */
@@ -145,8 +150,9 @@ export function pairedGateTest(baseline: readonly number[], current: readonly nu
   const drops = baseline.map((b, i) => s * (b - current[i]));
   const flat = drops.every((x) => x === drops[0]);
   const drop = flat ? drops[0] : mean(drops);
-  const floor = o.proportion ? binomialVarianceFloor(Math.abs(drop), correction.testRows, j) : 0;
-  const v = Math.max(flat ? 0 : sampleVariance(drops), floor);
+  const factor = correctedVarianceFactor(j, correction);
+  const floor = o.proportion ? binomialVarianceFloor(Math.abs(drop), correction.testRows + correction.trainRows) : 0;
+  const v = Math.max(factor * (flat ? 0 : sampleVariance(drops)), floor);
   const base: Base = {
     rule: 'paired',
     baselineMean: mean([...baseline]),
@@ -157,7 +163,7 @@ export function pairedGateTest(baseline: readonly number[], current: readonly nu
     drop,
     df: j - 1,
   };
-  return decide(base, Math.sqrt(correctedVarianceFactor(j, correction) * v), o);
+  return decide(base, Math.sqrt(v), o);
 }
 
 /** The unpaired (Welch, corrected variances) rule on two runs with different folds. */
@@ -176,10 +182,10 @@ export function unpairedGateTest(
   const jc = current.length;
   const mb = mean([...baseline]);
   const mc = mean([...current]);
-  const floorB = o.proportion ? binomialVarianceFloor(mb, baselineCorrection.testRows, jb) : 0;
-  const floorC = o.proportion ? binomialVarianceFloor(mc, currentCorrection.testRows, jc) : 0;
-  const vb = correctedVarianceFactor(jb, baselineCorrection) * Math.max(sampleVariance([...baseline]), floorB);
-  const vc = correctedVarianceFactor(jc, currentCorrection) * Math.max(sampleVariance([...current]), floorC);
+  const floorB = o.proportion ? binomialVarianceFloor(mb, baselineCorrection.testRows + baselineCorrection.trainRows) : 0;
+  const floorC = o.proportion ? binomialVarianceFloor(mc, currentCorrection.testRows + currentCorrection.trainRows) : 0;
+  const vb = Math.max(correctedVarianceFactor(jb, baselineCorrection) * spread(baseline), floorB);
+  const vc = Math.max(correctedVarianceFactor(jc, currentCorrection) * spread(current), floorC);
   const se = Math.sqrt(vb + vc);
   const df = se > 0 ? (vb + vc) ** 2 / (vb ** 2 / (jb - 1) + vc ** 2 / (jc - 1)) : jb + jc - 2;
   return decide({ rule: 'unpaired', baselineMean: mb, currentMean: mc, baselineFolds: jb, currentFolds: jc, change: mc - mb, drop: s * (mb - mc), df }, se, o);

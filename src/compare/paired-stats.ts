@@ -32,6 +32,7 @@ import {
   binomialVarianceFloor,
   clipInterval,
   correctedT,
+  correctedVarianceFactor,
   differenceRange,
   roundingTolerance,
   wilcoxon,
@@ -87,7 +88,8 @@ export function pairedStats(
   }
   let sum = 0;
   for (let i = 0; i < j; i++) sum += learner[i] - reference[i];
-  const floor = rules.proportion ? binomialVarianceFloor(Math.abs(sum / j), correction.testRows, j) : 0;
+  const rows = correction.testRows + correction.trainRows;
+  const floor = rules.proportion ? binomialVarianceFloor(Math.abs(sum / j), rows) / correctedVarianceFactor(j, correction) : 0;
   const ct = correctedT(learner, reference, correction, 0.95, floor);
   return {
     ...base,

@@ -14,8 +14,8 @@
  * same order for a and b; df = J - 1 (Bouckaert & Frank 2004).
  *
  * Variance floor: `varianceFloor` (default 0) is a lower bound of the variance of one
- * difference known from outside the scores (for shares of test rows, the binomial floor of
- * variance-floor.ts); the test uses max(s_d^2, varianceFloor). When that is still 0 (every
+ * difference, s_d^2, known from outside the scores (for shares of test rows, the binomial floor
+ * of variance-floor.ts divided by the correction factor); the test uses max(s_d^2, varianceFloor). When that is still 0 (every
  * difference the same, and no floor), the scores show no spread and none can be assumed: the
  * result refuses to claim anything, with t = null, p = null and ci95 = null. Zero spread is not
  * certainty: an infinite t or a zero-width interval would claim more than J scores hold.

@@ -18,8 +18,9 @@
  * which reproduce the NIST StRD univariate certified values (see test/stats/summary.test.ts).
  *
  * Floor and range (`rules`, from the metric registry). For a score that is a share of the test
- * rows (accuracy) the variance in the interval is max(sd^2, binomial floor) (variance-floor.ts):
- * equal fold scores are luck, not certainty. For any other metric, equal fold scores (sd = 0)
+ * rows (accuracy) the variance of the mean in the interval is at least the binomial floor over
+ * the testRows + trainRows rows of a split (variance-floor.ts): equal fold scores are luck, not
+ * certainty. For any other metric, equal fold scores (sd = 0)
  * give ci95 = null: no spread was seen and none can be assumed, so no interval is claimed.
  * The interval is clipped to the metric's range (an AUC interval never goes past 1).
  *
@@ -36,7 +37,7 @@
  */
 import { mean as ssMean, quantile as ssQuantile, sampleStandardDeviation } from 'simple-statistics';
 import { InputError } from '../errors.js';
-import { checkCorrection, checkLevel, correctedInterval, type ResampleCorrection } from './corrected-interval.js';
+import { checkCorrection, checkLevel, correctedInterval, correctedVarianceFactor, type ResampleCorrection } from './corrected-interval.js';
 import { finiteValues } from './finite-values.js';
 import { binomialVarianceFloor, clipInterval } from './variance-floor.js';
 
@@ -89,7 +90,8 @@ export function summarize(values: ArrayLike<number>, correction: ResampleCorrect
 
 /** The floored, clipped corrected interval, or null when no spread is seen and none is floored. */
 function interval(m: number, s2: number, n: number, correction: ResampleCorrection, level: number, rules: SummaryRules): [number, number] | null {
-  const v = rules.proportion ? Math.max(s2, binomialVarianceFloor(m, correction.testRows, n)) : s2;
+  const rows = correction.testRows + correction.trainRows;
+  const v = rules.proportion ? Math.max(s2, binomialVarianceFloor(m, rows) / correctedVarianceFactor(n, correction)) : s2;
   if (!(v > 0)) return null;
   const ci = correctedInterval(m, v, n, correction, level);
   return rules.range ? clipInterval(ci, rules.range) : ci;

@@ -3,20 +3,21 @@
  * the scores' spread cannot be smaller than the test rows allow, and an interval cannot claim
  * values the metric never takes.
  *
- * Binomial floor. A fold score that is a share of the fold's test rows (accuracy: correct rows /
- * test rows) has, for a fixed model, the binomial variance p (1 - p) / n_test from the test rows
- * alone; the spread across folds adds the training variation on top. So the variance of one fold
- * score is at least p (1 - p) / n_test, whatever the J scores happen to show: J equal scores
- * (zero sample variance) are luck, not certainty. The share is estimated from all J n_test test
- * rows with two successes and two failures added (the "add two" estimate of Agresti & Coull
- * 1998), so that p = 0 or 1 still gives a floor above 0:
+ * Binomial floor. A score that is a share of test rows (accuracy: correct rows / test rows)
+ * estimates a proportion from the N rows the plan tests on (N = training + test rows of a
+ * split: every row of the data for k-fold). Whatever the J fold scores happen to show, the
+ * variance of their mean cannot be below the binomial variance of a share over N rows: J equal
+ * scores (zero sample variance) are luck, not certainty. The share is estimated with two
+ * successes and two failures added (the "add two" estimate of Agresti & Coull 1998), so that a
+ * share of 0 or 1 still gives a floor above 0:
  *
- *   p~ = (p J n_test + 2) / (J n_test + 4),   floor = p~ (1 - p~) / n_test.
+ *   p~ = (p N + 2) / (N + 4),   floor of Var(mean) = p~ (1 - p~) / N,
  *
+ * and the interval uses max((1/J + n_test/n_train) s^2, floor) as the variance of the mean.
  * For a paired difference of two such shares on the same rows, d = (rows only this model gets
- * right - rows only the other gets right) / n_test, the variance over test rows is
- * (q - d^2) / n_test with q the share of rows the two models disagree on; q >= |d|, so the
- * variance is at least |d| (1 - |d|) / n_test: the same floor with p = |mean d|.
+ * right - rows only the other gets right) / n, the variance over rows is (q - d^2) / n with q the
+ * share of rows the two models disagree on; q >= |d|, so it is at least |d| (1 - |d|) / n: the
+ * same floor with p = |mean d|.
  *
  * Sources: A. Agresti and B. A. Coull, "Approximate is better than 'exact' for interval
  * estimation of binomial proportions", The American Statistician 52(2):119-126, 1998 (the
@@ -25,11 +26,10 @@
  * pairs), from memory.
  */
 
-/** The binomial floor p~ (1 - p~) / testRows of one fold score's variance (see the module text). */
-export function binomialVarianceFloor(share: number, testRows: number, folds: number): number {
-  const rows = folds * testRows;
+/** The binomial floor p~ (1 - p~) / rows of the variance of a mean share over `rows` rows (see the module text). */
+export function binomialVarianceFloor(share: number, rows: number): number {
   const p = (Math.min(1, Math.max(0, share)) * rows + 2) / (rows + 4);
-  return (p * (1 - p)) / testRows;
+  return (p * (1 - p)) / rows;
 }
 
 /** [lo, hi] clipped to [min, max]. */

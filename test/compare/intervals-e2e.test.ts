@@ -145,8 +145,8 @@ describe('every reported ci95, recomputed from the report itself', () => {
       const l = r.learners.find((x) => x.spec === 'knn')!;
       const s = foldScores(l, 'accuracy');
       const sz = meanSizes(l.folds);
-      const floor = agrestiFloor(mean(s), sz.testRows, s.length);
-      return { m: mean(s), j: s.length, v: (1 / s.length + sz.testRows / sz.trainRows) * Math.max(sampleVariance(s), floor) };
+      const floor = agrestiFloor(mean(s), sz.testRows + sz.trainRows);
+      return { m: mean(s), j: s.length, v: Math.max((1 / s.length + sz.testRows / sz.trainRows) * sampleVariance(s), floor) };
     };
     const sb = side(aReport);
     const sc = side(bReport);

@@ -75,10 +75,11 @@ describe('comparisons inside an eval report (Palmer penguins, vega-datasets; Gor
       });
       const j = d.length;
       const ratio = mean(l.folds.map((f) => f.testRows)) / mean(l.folds.map((f) => f.trainRows));
-      // Nadeau & Bengio (2003): t = mean(d) / sqrt((1/J + n_test/n_train) v), df = J - 1, with
-      // v = max(s_d^2, binomial floor of a paired difference of accuracies; issue 24 part 2)
-      const testRows = mean(l.folds.map((f) => f.testRows));
-      const se = Math.sqrt((1 / j + ratio) * Math.max(sampleVariance(d), agrestiFloor(Math.abs(mean(d)), testRows, j)));
+      // Nadeau & Bengio (2003): t = mean(d) / sqrt(max((1/J + n_test/n_train) s_d^2, floor)),
+      // df = J - 1, with the binomial floor of a paired difference of accuracies over the
+      // n_test + n_train rows of a split (issue 24 part 2)
+      const rows = mean(l.folds.map((f) => f.testRows + f.trainRows));
+      const se = Math.sqrt(Math.max((1 / j + ratio) * sampleVariance(d), agrestiFloor(Math.abs(mean(d)), rows)));
       const t = mean(d) / se;
       expect(Math.abs(p.diff - mean(d))).toBeLessThan(1e-12);
       expect(Math.abs(p.t! - t)).toBeLessThan(1e-9);

@@ -3,15 +3,15 @@ import { binomialVarianceFloor, clipInterval, differenceRange } from '../../src/
 
 describe('binomialVarianceFloor (Agresti & Coull 1998 add-two estimate)', () => {
   it('matches the hand computation', () => {
-    // 0.75 over 5 folds of 20 rows: 75 of 100 correct; p~ = 77/104; floor = p~ (1 - p~) / 20
+    // a share of 0.75 over 100 rows: 75 correct; p~ = 77/104; floor = p~ (1 - p~) / 100
     const p = 77 / 104;
-    expect(Math.abs(binomialVarianceFloor(0.75, 20, 5) - (p * (1 - p)) / 20)).toBeLessThan(1e-15);
-    // all wrong and all right give the same, non-zero floor
-    expect(binomialVarianceFloor(0, 20, 5)).toBeGreaterThan(0);
-    expect(Math.abs(binomialVarianceFloor(0, 20, 5) - binomialVarianceFloor(1, 20, 5))).toBeLessThan(1e-15);
+    expect(Math.abs(binomialVarianceFloor(0.75, 100) - (p * (1 - p)) / 100)).toBeLessThan(1e-15);
+    // all wrong and all right give the same, non-zero floor: 2/104 * 102/104 / 100
+    expect(Math.abs(binomialVarianceFloor(0, 100) - (2 / 104) * (102 / 104) / 100)).toBeLessThan(1e-15);
+    expect(Math.abs(binomialVarianceFloor(0, 100) - binomialVarianceFloor(1, 100))).toBeLessThan(1e-15);
     // shares outside [0, 1] (never from a metric) are held at the ends
-    expect(binomialVarianceFloor(1.5, 20, 5)).toBe(binomialVarianceFloor(1, 20, 5));
-    expect(binomialVarianceFloor(-0.5, 20, 5)).toBe(binomialVarianceFloor(0, 20, 5));
+    expect(binomialVarianceFloor(1.5, 100)).toBe(binomialVarianceFloor(1, 100));
+    expect(binomialVarianceFloor(-0.5, 100)).toBe(binomialVarianceFloor(0, 100));
   });
 
   it('clips intervals and gives the range of a difference', () => {
