@@ -196,7 +196,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${scored.length} folds; its summary uses the other folds`);
       }
       summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }, 0.95, m) : null;
-      const note = scoreNote(m, summary[m.name], sized);
+      const note = scoreNote(m, sized);
       if (note) warnings.push(`${c.spec}: ${note}`);
       pooled[m.name] = pooledActual && pooledPred && !pooledRefused(m, sized) ? scoreOf(m, pooledActual, pooledPred) : null;
     }

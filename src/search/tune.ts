@@ -295,7 +295,7 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
     if (missing > 0 && missing < outerFolds.length) warnings.push(`outer estimate: ${m.name} is undefined in ${missing} of ${outerFolds.length} outer folds; its summary uses the other folds`);
     if (m.needsProba && !pooledPred.proba) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
     summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }, 0.95, m) : null;
-    const note = scoreNote(m, summary[m.name], outerFolds);
+    const note = scoreNote(m, outerFolds);
     if (note) warnings.push(`outer estimate: ${note}`);
     pooled[m.name] = pooledRefused(m, outerFolds) ? null : scoreOf(m, pooledActual, pooledPred);
   }

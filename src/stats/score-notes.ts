@@ -3,7 +3,9 @@
  * a claim (README "The report"):
  *
  * - no interval: every fold scored the same value of a metric that has no variance floor
- *   (anything but accuracy, see summary.ts); the summary's ci95 is null and a warning says why;
+ *   (anything but accuracy, see summary.ts); the summary's ci95 is null, without a warning: it
+ *   happens in every report for the baseline's balanced accuracy (1 / classes on every fold),
+ *   and a warning there would bury the ones that matter (README, "The report");
  * - no pooled rank score: when every test fold holds a single row (leave-one-out, or kfold with
  *   as many folds as rows), a rank metric (ROC AUC) on the pooled out-of-fold predictions
  *   compares scores of different models, one per row. Under leave-one-out each row's own class
@@ -25,13 +27,10 @@ export function pooledRefused(metric: Named, folds: readonly { readonly testRows
   return metric.rank && folds.length > 0 && folds.every((f) => f.testRows === 1);
 }
 
-/** The warning for a summary without interval, or for a refused pooled score; undefined otherwise. */
-export function scoreNote(metric: Named, summary: { readonly n: number; readonly mean: number; readonly ci95: readonly [number, number] | null } | null, folds: readonly { readonly testRows: number }[]): string | undefined {
+/** The warning for a refused pooled score; undefined otherwise. */
+export function scoreNote(metric: Named, folds: readonly { readonly testRows: number }[]): string | undefined {
   if (pooledRefused(metric, folds)) {
     return `${metric.name} is not scored on the pooled predictions: every test fold holds one row, and ranking rows scored by different fold models is biased (under leave-one-out it ranks every row the wrong way round); use a plan with larger test folds, such as kfold:10x5`;
-  }
-  if (summary && summary.n >= 2 && summary.ci95 === null) {
-    return `every fold scored ${metric.name} ${summary.mean}; with no spread between folds and no variance floor for this metric, no interval is given (equal scores are not certainty)`;
   }
   return undefined;
 }
