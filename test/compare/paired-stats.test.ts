@@ -92,3 +92,19 @@ describe('pairedStats: one learner against a reference on the same folds', () =>
     expect(directionOf(0, true)).toBe('equal');
   });
 });
+
+describe('pairedStats: rounding noise is not a win (issue 24 part 4)', () => {
+  it('0.1 + 0.2 against 0.3 is a tie in wins/ties/losses and a zero in the Wilcoxon test', () => {
+    // 0.1 + 0.2 = 0.30000000000000004 in binary floating point (IEEE 754 double), 0.3 as a fraction
+    const s = pairedStats([0.1 + 0.2, 0.5, 0.9], [0.3, 0.25, 0.5], FIVE_FOLD, true);
+    expect([s.wins, s.ties, s.losses]).toEqual([2, 1, 0]);
+    expect(s.wilcoxon.n).toBe(2);
+  });
+
+  it('accuracy differences from counts keep their ties: the signed-rank p of the integer counts', () => {
+    // counts over 10-row folds (worked by hand in test/stats/wilcoxon.test.ts): p = 0.3125
+    const s = pairedStats([4, 4, 4, 1, 2].map((k) => k / 10), [6, 6, 6, 7, 0].map((k) => k / 10), { testRows: 10, trainRows: 40 }, true, 0, { proportion: true, range: [0, 1] });
+    expect(Math.abs(s.wilcoxon.p - 0.3125)).toBeLessThan(1e-12);
+    expect([s.wins, s.ties, s.losses]).toEqual([1, 0, 4]);
+  });
+});
