@@ -42,6 +42,7 @@
 import jStat from 'jstat';
 import { gateReports } from '../../src/compare/gate.js';
 import type { LoadedReport } from '../../src/compare/read-report.js';
+import { getMetric } from '../../src/metrics/index.js';
 import { buildPlan, parsePlan } from '../../src/plans/index.js';
 import type { Fold } from '../../src/plans/types.js';
 import type { FoldScores, LearnerReport, Report } from '../../src/report/types.js';
@@ -132,7 +133,8 @@ function learner(spec: string, folds: FoldScores[]): LearnerReport {
   const values = folds.map((f) => f.scores.accuracy as number);
   const testRows = values.length ? folds.reduce((s, f) => s + f.testRows, 0) / folds.length : 1;
   const trainRows = values.length ? folds.reduce((s, f) => s + f.trainRows, 0) / folds.length : 1;
-  return { name: spec, spec, params: {}, folds, summary: { accuracy: summarize(values, { testRows, trainRows }) }, pooled: { accuracy: null } };
+  // the interval foldwise reports for accuracy: with its binomial floor and clipped to [0, 1]
+  return { name: spec, spec, params: {}, folds, summary: { accuracy: summarize(values, { testRows, trainRows }, 0.95, getMetric('accuracy')) }, pooled: { accuracy: null } };
 }
 
 function report(seed: number, learners: LearnerReport[]): LoadedReport {
@@ -192,7 +194,7 @@ function gateRun(t: Tally, base: LoadedReport, cur: LoadedReport, baseSpec: stri
   t.meanDrop += v.drop;
   if (v.verdict === 'fail') t.gate++;
   // coverage of the corrected 95% interval of the change (current - baseline) for the true change
-  if (v.ci95[0] <= -truth && -truth <= v.ci95[1]) t.covered++;
+  if (v.ci95 && v.ci95[0] <= -truth && -truth <= v.ci95[1]) t.covered++;
   if (paired) {
     const b = base.report.learners.find((l) => l.spec === baseSpec)!.folds.map((f) => f.scores.accuracy as number);
     const c = cur.report.learners.find((l) => l.spec === curSpec)!.folds.map((f) => f.scores.accuracy as number);

@@ -1,6 +1,6 @@
 /**
  * `foldwise gate --previous PREV.json --current NEW.json [--metric M] [--learner SPEC]
- * [--current-learner SPEC] [--max-drop D] [--alpha A] [--absolute-min X] [--accept]
+ * [--current-learner SPEC] [--max-drop D] [--alpha A] [--worst-allowed X] [--accept]
  * [--json FILE|-]`: passes or fails a change against the previous report, the committed one.
  * ("Baseline" is the majority/mean learner; the gate's committed report is the "previous"
  * report. The flag was --baseline before format 2; that spelling fails naming --previous.)
@@ -8,7 +8,7 @@
  * The rule (src/compare/gate.ts and gate-rule.ts): fail only when a one-sided corrected t test
  * rejects H0 "drop <= max-drop" at alpha (paired by (repeat, fold) when the runs share their
  * folds, a labelled unpaired Welch rule when only the plan, seed or stratification differ), or
- * when --absolute-min is not met. A short Markdown verdict goes to standard output (unless
+ * when the current mean is worse than --worst-allowed. A short Markdown verdict goes to standard output (unless
  * --json -) and is appended to the file named by the environment variable GITHUB_STEP_SUMMARY,
  * when set (read from io.env).
  *
@@ -39,6 +39,7 @@ interface GateFlags {
   currentLearner?: string;
   maxDrop: string;
   alpha: string;
+  worstAllowed?: string;
   absoluteMin?: string;
   accept?: boolean;
   json?: string;
@@ -66,7 +67,10 @@ function appendSummary(io: Io, markdown: string): void {
 function runGate(flags: GateFlags, io: Io): number {
   const maxDrop = parseNumberOption(flags.maxDrop, '--max-drop', "a number >= 0, in the metric's units");
   const alpha = parseNumberOption(flags.alpha, '--alpha', 'a number above 0 and below 0.5 (such as 0.05)');
-  const absoluteMin = flags.absoluteMin === undefined ? undefined : parseNumberOption(flags.absoluteMin, '--absolute-min', "a number, in the metric's units");
+  if (flags.absoluteMin !== undefined) {
+    throw new UsageError('--absolute-min is now --worst-allowed (the worst mean score allowed: a floor when higher is better, a ceiling when lower is better)');
+  }
+  const worstAllowed = flags.worstAllowed === undefined ? undefined : parseNumberOption(flags.worstAllowed, '--worst-allowed', "a number, in the metric's units");
   const summary = io.env?.GITHUB_STEP_SUMMARY;
   if (flags.baseline !== undefined) throw new UsageError(`gate --baseline is now --previous (the committed report; "baseline" names the majority/mean learner): write --previous ${flags.baseline}`);
   if (flags.previous === undefined) throw new UsageError("gate: required option '--previous <file>' not specified: the committed report to gate against");
@@ -83,7 +87,7 @@ function runGate(flags: GateFlags, io: Io): number {
 
   let verdict: GateVerdict;
   try {
-    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, absoluteMin });
+    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, worstAllowed });
   } catch (e) {
     if (e instanceof NotComparableError) {
       const md = renderNotComparableMarkdown(e.reason);
@@ -122,7 +126,8 @@ export function registerGate(prog: Command, io: Io, setCode: (code: number) => v
     .option('--current-learner <spec>', 'the learner in the current report, when its spec differs (default: the same spec)')
     .option('--max-drop <d>', "allowed drop in the metric's units, in its worse direction", String(DEFAULT_MAX_DROP))
     .option('--alpha <a>', 'one-sided level of the test that the drop exceeds --max-drop beyond fold noise', String(DEFAULT_ALPHA))
-    .option('--absolute-min <x>', 'also fail when the current mean is worse than this limit (a floor; a ceiling for lower-is-better metrics)')
+    .option('--worst-allowed <x>', "also fail when the current mean is worse than this score in the metric's better direction (a floor for accuracy, a ceiling for rmse)")
+    .addOption(new Option('--absolute-min <x>', 'the old name of --worst-allowed (refused)').hideHelp())
     .option('--accept', 'when the gate passes, replace the previous report by the current one, atomically')
     .option('--json <file>', 'write the verdict as JSON (format foldwise-gate/2) to a file, or - for standard output')
     .option('--verbose', 'print stack traces of errors')

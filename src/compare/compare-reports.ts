@@ -67,7 +67,7 @@ export function compareReports(first: LoadedReport, second: LoadedReport, option
     return {
       first: la.spec,
       second: lb.spec,
-      stats: paired.correction ? pairedStats(paired.a, paired.b, paired.correction, higherIsBetter, paired.skipped) : null,
+      stats: paired.correction ? pairedStats(paired.a, paired.b, paired.correction, higherIsBetter, paired.skipped, getMetric(metric)) : null,
     };
   });
   const warnings: string[] = [];

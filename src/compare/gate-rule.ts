@@ -25,9 +25,18 @@
  * rule is conservative (fewer false alarms, less power than pairing).
  *
  * Improvement: the same one-sided test of H0: gain <= 0 (gain = -drop) rejected at alpha.
- * Zero spread (SE = 0): the drop is known exactly; fail when it exceeds maxDrop (t = null,
- * p = 0 when it does and 1 when it does not).
- * The reported interval of change = current - baseline is the two-sided corrected 95% interval.
+ *
+ * Floors (variance-floor.ts in src/stats): for a share of test rows (accuracy; `proportion`)
+ * the variance of each mean is at least the binomial floor over the rows of a split
+ * (testRows + trainRows = N): for the paired rule that of a difference, q~ (1 - q~) / N with
+ * q~ the add-two estimate of |mean drop|; for the unpaired rule each run's own p~ (1 - p~) / N. So equal fold scores never give an infinite t: a 2-fold report
+ * with one error more in each fold is not a regression "with 95% confidence".
+ * Zero spread (SE = 0, possible only without a floor): nothing can be claimed beyond what the
+ * scores show. A mean drop <= maxDrop passes (t = null, p = 1, no interval): the runs agree
+ * within the allowance on every fold. A mean drop > maxDrop is refused with an InputError
+ * (exit 2): fold noise cannot be told from a drop, and passing it silently would hide it.
+ * The reported interval of change = current - baseline is the two-sided corrected 95% interval,
+ * clipped to the range a difference of the metric can take.
  *
  * Sources: Nadeau & Bengio (2003) and Bouckaert & Frank (2004), see
  * src/stats/corrected-interval.ts; B. L. Welch, "The generalization of 'Student's' problem when
@@ -37,7 +46,15 @@
  */
 import { mean, sampleVariance } from 'simple-statistics';
 import { InputError, UsageError } from '../errors.js';
-import { correctedT, correctedVarianceFactor, tCdf, tQuantile, type ResampleCorrection } from '../stats/index.js';
+import {
+  binomialVarianceFloor,
+  clipInterval,
+  correctedVarianceFactor,
+  differenceRange,
+  tCdf,
+  tQuantile,
+  type ResampleCorrection,
+} from '../stats/index.js';
 
 export interface GateRuleOptions {
   readonly higherIsBetter: boolean;
@@ -45,6 +62,10 @@ export interface GateRuleOptions {
   readonly maxDrop: number;
   /** one-sided level, 0 < alpha < 0.5 */
   readonly alpha: number;
+  /** the metric is a share of test rows: floor the variances by the binomial (default false) */
+  readonly proportion?: boolean;
+  /** the values the metric takes; the interval of change is clipped to their differences */
+  readonly range?: readonly [number, number];
 }
 
 export interface GateTest {
@@ -55,11 +76,11 @@ export interface GateTest {
   readonly currentFolds: number;
   /** current mean - baseline mean, metric units */
   readonly change: number;
-  /** two-sided corrected 95% interval of change */
-  readonly ci95: [number, number];
+  /** two-sided corrected 95% interval of change; null when the spread is zero */
+  readonly ci95: [number, number] | null;
   /** change in the worse direction: positive = current worse */
   readonly drop: number;
-  /** one-sided (1 - alpha) lower confidence bound of the drop */
+  /** one-sided (1 - alpha) lower confidence bound of the drop (the drop itself without spread) */
   readonly dropBound: number;
   /** t of (drop - maxDrop); null when the spread is zero */
   readonly t: number | null;
@@ -86,10 +107,36 @@ function checkSeries(name: string, xs: readonly number[]): void {
   if (!xs.every(Number.isFinite)) throw new InputError(`gate: the ${name} run has a score that is not a finite number`);
 }
 
-/** One-sided p of P(T >= t) from a two-sided corrected-t result. */
-function upperP(t: number, twoSided: number): number {
-  if (t === 0) return 0.5;
-  return t > 0 ? twoSided / 2 : 1 - twoSided / 2;
+/** Sample variance, exactly 0 for equal scores (no rounding residue of the mean). */
+function spread(xs: readonly number[]): number {
+  return xs.every((x) => x === xs[0]) ? 0 : sampleVariance([...xs]);
+}
+
+type Base = Pick<GateTest, 'rule' | 'baselineMean' | 'currentMean' | 'baselineFolds' | 'currentFolds' | 'change' | 'drop' | 'df'>;
+
+/** The one-sided decisions and the interval from the drop's standard error (see the module text). */
+function decide(base: Base, se: number, o: GateRuleOptions): GateTest {
+  if (se === 0) {
+    if (base.drop > o.maxDrop) {
+      throw new InputError(
+        `gate: every fold shows the same scores (no spread), and the mean drop ${base.drop} exceeds --max-drop ${o.maxDrop}; with no spread the gate cannot tell a drop from fold noise, so it gives no verdict: gate on a share of rows such as accuracy, or use more folds or repeats`,
+      );
+    }
+    return { ...base, ci95: null, dropBound: base.drop, t: null, p: 1, regression: false, improvement: false };
+  }
+  const q = tQuantile(1 - o.alpha, base.df);
+  const half95 = tQuantile(0.975, base.df) * se;
+  const t = (base.drop - o.maxDrop) / se;
+  const ci: [number, number] = [base.change - half95, base.change + half95];
+  return {
+    ...base,
+    ci95: o.range ? clipInterval(ci, differenceRange(o.range)) : ci,
+    dropBound: base.drop - q * se,
+    t,
+    p: tCdf(-t, base.df),
+    regression: base.drop - q * se > o.maxDrop,
+    improvement: -base.drop - q * se > 0,
+  };
 }
 
 /** The paired rule on scores of the same folds, in the same order. */
@@ -99,31 +146,24 @@ export function pairedGateTest(baseline: readonly number[], current: readonly nu
   checkSeries('current', current);
   if (baseline.length !== current.length) throw new InputError(`gate: paired scores must pair up, got ${baseline.length} and ${current.length}`);
   const s = o.higherIsBetter ? 1 : -1;
-  const zeros = baseline.map(() => 0);
+  const j = baseline.length;
   const drops = baseline.map((b, i) => s * (b - current[i]));
-  const change = correctedT(current, baseline, correction, 0.95);
-  const level = 1 - 2 * o.alpha;
-  const shifted = correctedT(drops.map((d) => d - o.maxDrop), zeros, correction, level);
-  const gain = correctedT(drops.map((d) => -d), zeros, correction, level);
-  const drop = mean(drops);
-  // zero spread: the drop is known exactly; correctedT gives t = 0 (no difference) or +-Infinity
   const flat = drops.every((x) => x === drops[0]);
-  return {
+  const drop = flat ? drops[0] : mean(drops);
+  const factor = correctedVarianceFactor(j, correction);
+  const floor = o.proportion ? binomialVarianceFloor(Math.abs(drop), correction.testRows + correction.trainRows) : 0;
+  const v = Math.max(factor * (flat ? 0 : sampleVariance(drops)), floor);
+  const base: Base = {
     rule: 'paired',
     baselineMean: mean([...baseline]),
     currentMean: mean([...current]),
-    baselineFolds: baseline.length,
-    currentFolds: current.length,
-    change: change.meanDiff,
-    ci95: change.ci95,
+    baselineFolds: j,
+    currentFolds: j,
+    change: 0 - s * drop, // 0 - x: never -0
     drop,
-    dropBound: shifted.ci95[0] + o.maxDrop,
-    t: flat ? null : shifted.t,
-    df: shifted.df,
-    p: flat ? (shifted.meanDiff > 0 ? 0 : 1) : upperP(shifted.t, shifted.p),
-    regression: shifted.ci95[0] > 0,
-    improvement: gain.ci95[0] > 0,
+    df: j - 1,
   };
+  return decide(base, Math.sqrt(v), o);
 }
 
 /** The unpaired (Welch, corrected variances) rule on two runs with different folds. */
@@ -142,27 +182,11 @@ export function unpairedGateTest(
   const jc = current.length;
   const mb = mean([...baseline]);
   const mc = mean([...current]);
-  const vb = correctedVarianceFactor(jb, baselineCorrection) * sampleVariance([...baseline]);
-  const vc = correctedVarianceFactor(jc, currentCorrection) * sampleVariance([...current]);
+  const floorB = o.proportion ? binomialVarianceFloor(mb, baselineCorrection.testRows + baselineCorrection.trainRows) : 0;
+  const floorC = o.proportion ? binomialVarianceFloor(mc, currentCorrection.testRows + currentCorrection.trainRows) : 0;
+  const vb = Math.max(correctedVarianceFactor(jb, baselineCorrection) * spread(baseline), floorB);
+  const vc = Math.max(correctedVarianceFactor(jc, currentCorrection) * spread(current), floorC);
   const se = Math.sqrt(vb + vc);
-  const df = vb + vc > 0 ? (vb + vc) ** 2 / (vb ** 2 / (jb - 1) + vc ** 2 / (jc - 1)) : jb + jc - 2;
-  const change = mc - mb;
-  const drop = s * (mb - mc);
-  const base = { rule: 'unpaired' as const, baselineMean: mb, currentMean: mc, baselineFolds: jb, currentFolds: jc, change, drop, df };
-  if (se === 0) {
-    const excess = drop - o.maxDrop;
-    return { ...base, ci95: [change, change], dropBound: drop, t: null, p: excess > 0 ? 0 : 1, regression: excess > 0, improvement: drop < 0 };
-  }
-  const q = tQuantile(1 - o.alpha, df);
-  const half95 = tQuantile(0.975, df) * se;
-  const t = (drop - o.maxDrop) / se;
-  return {
-    ...base,
-    ci95: [change - half95, change + half95],
-    dropBound: drop - q * se,
-    t,
-    p: tCdf(-t, df),
-    regression: drop - q * se > o.maxDrop,
-    improvement: -drop - q * se > 0,
-  };
+  const df = se > 0 ? (vb + vc) ** 2 / (vb ** 2 / (jb - 1) + vc ** 2 / (jc - 1)) : jb + jc - 2;
+  return decide({ rule: 'unpaired', baselineMean: mb, currentMean: mc, baselineFolds: jb, currentFolds: jc, change: mc - mb, drop: s * (mb - mc), df }, se, o);
 }

@@ -14,9 +14,11 @@
  *    comparable, since dropping folds on one side would bias the comparison.
  * 4. Same folds (every (repeat, fold) on both sides with equal sizes): the paired rule;
  *    otherwise the unpaired rule (gate-rule.ts). At least 2 folds per run.
- * 5. --absolute-min X: also fail when the current mean is worse than X in the metric's better
- *    direction (below X when higher is better, above X when lower is better).
- * The verdict is "fail" when the rule finds a regression or the floor is not met.
+ * 5. --worst-allowed X: also fail when the current mean is worse than X in the metric's better
+ *    direction (below X when higher is better, above X when lower is better): the worst score
+ *    allowed, whichever way the metric points (it was called --absolute-min, a name that read as
+ *    a floor for rmse too).
+ * The verdict is "fail" when the rule finds a regression or the current mean is worse than X.
  */
 import { UsageError, InputError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
@@ -38,7 +40,7 @@ export interface GateOptions {
   readonly currentLearner?: string;
   readonly maxDrop?: number;
   readonly alpha?: number;
-  readonly absoluteMin?: number;
+  readonly worstAllowed?: number;
 }
 
 /** Every fold score of the metric, or an InputError naming the file and the folds without one. */
@@ -71,8 +73,8 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   const maxDrop = options.maxDrop ?? DEFAULT_MAX_DROP;
   const alpha = options.alpha ?? DEFAULT_ALPHA;
   checkGateRuleOptions({ higherIsBetter: true, maxDrop, alpha });
-  if (options.absoluteMin !== undefined && !Number.isFinite(options.absoluteMin)) {
-    throw new UsageError(`--absolute-min ${options.absoluteMin}: expected a finite number, in the metric's units`);
+  if (options.worstAllowed !== undefined && !Number.isFinite(options.worstAllowed)) {
+    throw new UsageError(`--worst-allowed ${options.worstAllowed}: expected a finite number, in the metric's units`);
   }
   const b = base.report;
   const c = cur.report;
@@ -83,7 +85,8 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   if (!b.metrics.includes(metric)) {
     throw new UsageError(`--metric ${metric}: the reports do not score it (they score ${b.metrics.join(', ')})`);
   }
-  const higherIsBetter = getMetric(metric).higherIsBetter;
+  const scoreRules = getMetric(metric);
+  const higherIsBetter = scoreRules.higherIsBetter;
 
   let bl: LearnerReport;
   if (options.learner !== undefined) bl = findLearner(b, options.learner, '--learner', `the previous report ${base.path}`);
@@ -100,7 +103,7 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   const warnings: string[] = [];
   const vw = versionWarning(b, c);
   if (vw) warnings.push(vw);
-  const ruleOptions = { higherIsBetter, maxDrop, alpha };
+  const ruleOptions = { higherIsBetter, maxDrop, alpha, proportion: scoreRules.proportion, range: scoreRules.range };
 
   let test: GateTest;
   let unpairedBecause: string[] = differences.map((d) => describeDifferences([d]));
@@ -119,11 +122,11 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
     test = unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
   }
 
-  const floorFailed =
-    options.absoluteMin !== undefined && (higherIsBetter ? test.currentMean < options.absoluteMin : test.currentMean > options.absoluteMin);
-  const reasons: ('regression' | 'floor')[] = [];
+  const worse =
+    options.worstAllowed !== undefined && (higherIsBetter ? test.currentMean < options.worstAllowed : test.currentMean > options.worstAllowed);
+  const reasons: ('regression' | 'worst-allowed')[] = [];
   if (test.regression) reasons.push('regression');
-  if (floorFailed) reasons.push('floor');
+  if (worse) reasons.push('worst-allowed');
   return {
     schema: GATE_SCHEMA,
     verdict: reasons.length ? 'fail' : 'pass',
@@ -144,7 +147,7 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
     t: test.t,
     df: test.df,
     p: test.p,
-    absoluteMin: options.absoluteMin ?? null,
+    worstAllowed: options.worstAllowed ?? null,
     warnings,
   };
 }

@@ -11,8 +11,15 @@
  * Wins, ties and losses count the folds where this learner is better, equal or worse in the
  * metric's better direction; `direction` is the sign of diff read the same way.
  *
- * Edge cases: J = 1 gives diff and the Wilcoxon figures but no t, df, p or interval. When every
- * d_j is the same non-zero value the t statistic is infinite: t = null, p = 0, ci95 = [diff, diff].
+ * Floors, ranges and ties (`rules`, from the metric registry): for a share of test rows (accuracy)
+ * the variance of d_j is at least the binomial floor of a paired difference (src/stats/
+ * variance-floor.ts), so equal differences on every fold never give an infinite t; for other
+ * metrics equal differences give t, p and ci95 = null (no spread seen, none assumed: nothing is
+ * claimed). The interval is clipped to the range a difference can take. Two differences within
+ * roundingTolerance(testRows, largest |score|) count as equal, in the Wilcoxon ranks and in wins,
+ * ties and losses, so that scores equal as fractions are not split by rounding noise.
+ *
+ * Edge cases: J = 1 gives diff and the Wilcoxon figures but no t, df, p or interval.
  *
  * Sources: C. Nadeau and Y. Bengio, "Inference for the Generalization Error", Machine Learning
  * 52:239-281, 2003; R. R. Bouckaert and E. Frank, PAKDD 2004, LNCS 3056, pp. 3-12; F. Wilcoxon,
@@ -21,7 +28,17 @@
  */
 import { mean } from 'simple-statistics';
 import { InputError } from '../errors.js';
-import { correctedT, wilcoxon, type ResampleCorrection } from '../stats/index.js';
+import {
+  binomialVarianceFloor,
+  clipInterval,
+  correctedT,
+  correctedVarianceFactor,
+  differenceRange,
+  roundingTolerance,
+  wilcoxon,
+  type ResampleCorrection,
+  type SummaryRules,
+} from '../stats/index.js';
 import type { Direction, PairedStats } from './types.js';
 
 /** Which way `diff` points for a metric: "better", "worse" or "equal". */
@@ -36,22 +53,26 @@ export function pairedStats(
   correction: ResampleCorrection,
   higherIsBetter: boolean,
   skippedFolds = 0,
+  rules: SummaryRules = {},
 ): PairedStats {
   if (learner.length !== reference.length) {
     throw new InputError(`pairedStats: the series must pair up, got ${learner.length} and ${reference.length} scores`);
   }
   if (learner.length === 0) throw new InputError('pairedStats: need at least 1 paired score, got 0');
   const j = learner.length;
+  let scale = 0;
+  for (let i = 0; i < j; i++) scale = Math.max(scale, Math.abs(learner[i]), Math.abs(reference[i]));
+  const tolerance = roundingTolerance(correction.testRows, scale);
   let wins = 0;
   let ties = 0;
   let losses = 0;
   for (let i = 0; i < j; i++) {
     const d = learner[i] - reference[i];
-    if (d === 0) ties++;
+    if (Math.abs(d) <= tolerance) ties++;
     else if (d > 0 === higherIsBetter) wins++;
     else losses++;
   }
-  const w = wilcoxon(learner, reference);
+  const w = wilcoxon(learner, reference, { tolerance });
   const base = {
     folds: j,
     skippedFolds,
@@ -65,13 +86,17 @@ export function pairedStats(
     const diff = learner[0] - reference[0];
     return { ...base, diff, direction: directionOf(diff, higherIsBetter), ci95: null, t: null, df: null, p: null, wilcoxon: wil, wins, ties, losses };
   }
-  const ct = correctedT(learner, reference, correction);
+  let sum = 0;
+  for (let i = 0; i < j; i++) sum += learner[i] - reference[i];
+  const rows = correction.testRows + correction.trainRows;
+  const floor = rules.proportion ? binomialVarianceFloor(Math.abs(sum / j), rows) / correctedVarianceFactor(j, correction) : 0;
+  const ct = correctedT(learner, reference, correction, 0.95, floor);
   return {
     ...base,
     diff: ct.meanDiff,
     direction: directionOf(ct.meanDiff, higherIsBetter),
-    ci95: ct.ci95,
-    t: Number.isFinite(ct.t) ? ct.t : null,
+    ci95: ct.ci95 && rules.range ? clipInterval(ct.ci95, differenceRange(rules.range)) : ct.ci95,
+    t: ct.t,
     df: ct.df,
     p: ct.p,
     wilcoxon: wil,

@@ -49,7 +49,7 @@ export function renderCompareMarkdown(c: CrossComparison): string {
           num(s.learnerMean),
           signed(s.diff),
           s.ci95 ? `${signed(s.ci95[0])} to ${signed(s.ci95[1])}` : '–',
-          s.t === null ? (s.p === 0 ? (s.diff > 0 ? '∞' : '-∞') : '–') : s.t.toFixed(2),
+          s.t === null ? '–' : s.t.toFixed(2),
           s.df === null ? '–' : String(s.df),
           pValue(s.p),
           pValue(s.wilcoxon.p),
@@ -75,7 +75,7 @@ export function renderGateMarkdown(v: GateVerdict): string {
     `### foldwise gate: ${v.verdict === 'pass' ? 'PASS' : 'FAIL'}`,
     '',
     `- **Compared:** ${learners} on ${m} (${direction(v.higherIsBetter)}), previous ${cell(v.previous.path)} -> current ${cell(v.current.path)}; ${folds}`,
-    `- **Score:** ${num(v.previous.mean)} -> ${num(v.current.mean)}, change ${signed(v.change)} (95% interval ${signed(v.ci95[0])} to ${signed(v.ci95[1])}, corrected)`,
+    `- **Score:** ${num(v.previous.mean)} -> ${num(v.current.mean)}, change ${signed(v.change)} (${v.ci95 ? `95% interval ${signed(v.ci95[0])} to ${signed(v.ci95[1])}, corrected` : 'no interval: no fold shows any spread'})`,
   ];
   const test = `one-sided ${v.rule === 'paired' ? 'corrected' : 'Welch'} t test of "drop <= ${limit(v.maxDrop)}" at alpha ${limit(v.alpha)}: ${v.t === null ? 'no spread' : `t = ${v.t.toFixed(2)}`}, df ${Number.isInteger(v.df) ? v.df : v.df.toFixed(1)}, p = ${pValue(v.p)}`;
   if (v.rule === 'paired') {
@@ -85,10 +85,10 @@ export function renderGateMarkdown(v: GateVerdict): string {
       `- **Rule (unpaired):** the runs used different folds (they differ in ${v.unpairedBecause.map(cell).join(', ')}), so the two sets of fold scores are compared by a Welch test, each variance with the Nadeau-Bengio correction; conservative: pair the runs (same plan and seed) for a sharper gate. Fail only when the drop exceeds ${limit(v.maxDrop)} beyond fold noise; ${test}`,
     );
   }
-  if (v.absoluteMin !== null) {
-    const met = !v.reasons.includes('floor');
+  if (v.worstAllowed !== null) {
+    const met = !v.reasons.includes('worst-allowed');
     out.push(
-      `- **${v.higherIsBetter ? 'Floor' : 'Ceiling'}:** ${m} must be ${v.higherIsBetter ? 'at least' : 'at most'} ${limit(v.absoluteMin)} (--absolute-min): ${num(v.current.mean)}, ${met ? 'met' : 'NOT met'}`,
+      `- **Worst allowed:** ${m} must be ${v.higherIsBetter ? 'at least' : 'at most'} ${limit(v.worstAllowed)} (--worst-allowed): ${num(v.current.mean)}, ${met ? 'met' : 'NOT met'}`,
     );
   }
   let why: string;
@@ -101,8 +101,8 @@ export function renderGateMarkdown(v: GateVerdict): string {
   } else {
     why = `no drop beyond the allowed ${limit(v.maxDrop)}`;
   }
-  if (v.reasons.includes('floor')) {
-    why += `${v.reasons.includes('regression') ? '; and ' : '; but '}the score is worse than the ${v.higherIsBetter ? 'floor' : 'ceiling'} ${limit(v.absoluteMin as number)} (--absolute-min)`;
+  if (v.reasons.includes('worst-allowed')) {
+    why += `${v.reasons.includes('regression') ? '; and ' : '; but '}the score is worse than the worst allowed ${limit(v.worstAllowed as number)} (--worst-allowed)`;
   }
   out.push(`- **Verdict:** ${v.verdict}: ${why}`);
   if (v.accepted !== undefined) {

@@ -38,16 +38,16 @@ export interface PairedStats {
   /** mean of (this minus reference) over the paired folds, in the metric's units */
   readonly diff: number;
   readonly direction: Direction;
-  /** corrected 95% interval of diff; null with fewer than 2 paired folds */
+  /** corrected 95% interval of diff, clipped to the range of a difference; null whenever t is */
   readonly ci95: readonly [number, number] | null;
   /**
    * corrected resampled t of diff; null with fewer than 2 paired folds, and also when every
-   * paired difference is the same non-zero value (no spread: the statistic is infinite, p = 0)
+   * paired difference is the same and the metric has no variance floor (no spread: no claim)
    */
   readonly t: number | null;
   /** degrees of freedom, paired folds - 1; null with fewer than 2 paired folds */
   readonly df: number | null;
-  /** two-sided p-value of the corrected t; null with fewer than 2 paired folds */
+  /** two-sided p-value of the corrected t; null whenever t is */
   readonly p: number | null;
   readonly wilcoxon: WilcoxonFigures;
   /** folds where this learner is better / equal / worse than the reference */
@@ -101,8 +101,8 @@ export interface CrossComparison {
 export interface GateVerdict {
   readonly schema: 'foldwise-gate/2';
   readonly verdict: 'pass' | 'fail';
-  /** why it failed: a drop beyond fold noise, and/or the current score worse than --absolute-min */
-  readonly reasons: readonly ('regression' | 'floor')[];
+  /** why it failed: a drop beyond fold noise, and/or the current score worse than --worst-allowed */
+  readonly reasons: readonly ('regression' | 'worst-allowed')[];
   /** the current score is better than the previous one beyond fold noise (one-sided test at alpha) */
   readonly improvement: boolean;
   readonly metric: string;
@@ -116,8 +116,8 @@ export interface GateVerdict {
   readonly unpairedBecause: readonly string[];
   /** current mean minus previous mean, in the metric's units */
   readonly change: number;
-  /** corrected 95% interval of change */
-  readonly ci95: readonly [number, number];
+  /** corrected 95% interval of change, clipped to the metric's range; null when no fold shows any spread */
+  readonly ci95: readonly [number, number] | null;
   /** the change in the worse direction: positive means the current run is worse */
   readonly drop: number;
   /** one-sided (1 - alpha) lower confidence bound of the drop; the gate fails when it exceeds maxDrop */
@@ -129,8 +129,8 @@ export interface GateVerdict {
   readonly df: number;
   /** one-sided p-value of H0: drop <= maxDrop */
   readonly p: number;
-  /** the --absolute-min limit, or null */
-  readonly absoluteMin: number | null;
+  /** the --worst-allowed limit, or null */
+  readonly worstAllowed: number | null;
   /** present when --accept was given: whether the previous report's file was replaced */
   readonly accepted?: boolean;
   readonly warnings: readonly string[];

@@ -22,7 +22,7 @@ export const COMPARISON_LEVEL = 0.95;
 function entry(learner: LearnerReport, reference: LearnerReport, against: Against[], metric: string, higherIsBetter: boolean): ComparisonEntry | undefined {
   const paired = pairFolds(learner, reference, metric);
   if (!paired.correction) return undefined;
-  const stats = pairedStats(paired.a, paired.b, paired.correction, higherIsBetter, paired.skipped);
+  const stats = pairedStats(paired.a, paired.b, paired.correction, higherIsBetter, paired.skipped, getMetric(metric));
   return { learner: learner.spec, reference: reference.spec, against, ...stats };
 }
 

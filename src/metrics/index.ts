@@ -10,7 +10,7 @@ import { accuracy } from './accuracy.js';
 import { balancedAccuracy } from './balanced-accuracy.js';
 import { brier } from './brier.js';
 import { kappa } from './kappa.js';
-import { logLoss } from './log-loss.js';
+import { LOG_LOSS_EPS, logLoss } from './log-loss.js';
 import { macroF1 } from './macro-f1.js';
 import { macroPrecision } from './macro-precision.js';
 import { macroRecall } from './macro-recall.js';
@@ -20,9 +20,9 @@ import { medae } from './medae.js';
 import { r2 } from './r2.js';
 import { rmse } from './rmse.js';
 import { rocAuc } from './roc-auc.js';
-import type { ClassificationInput, Metric, RegressionInput } from './types.js';
+import type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 
-export type { ClassificationInput, Metric, RegressionInput } from './types.js';
+export type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 export { confusionMatrix } from './confusion-matrix.js';
 export { perClassScores, type PerClassScores } from './per-class.js';
 export {
@@ -63,14 +63,46 @@ export type MetricName = (typeof METRIC_NAMES)[number];
 
 export type Task = Metric['task'];
 
+/** The worst log loss: -ln(LOG_LOSS_EPS), the clip of src/metrics/log-loss.ts. */
+const LOG_LOSS_MAX = -Math.log(LOG_LOSS_EPS);
+
+const UNIT: ScoreRules = { range: [0, 1], proportion: false, rank: false };
+const SIGNED: ScoreRules = { range: [-1, 1], proportion: false, rank: false };
+const ERROR: ScoreRules = { range: [0, Infinity], proportion: false, rank: false };
+
+/**
+ * The fold value of a macro average (balanced-accuracy, macro_*): undefined (NaN, reported as
+ * null) when a class of the problem has no row in the scored part. Averaged over the classes
+ * the fold happens to hold, a constant predictor of the majority class would score a perfect
+ * recall on a fold without the minority class (balanced accuracy 1.0 where its no-skill value is
+ * 1/classes); a fold that cannot measure a class cannot measure the average over classes. The
+ * metric functions themselves keep their documented conventions for direct use.
+ */
+export function everyClass(fn: (input: ClassificationInput) => number): (input: ClassificationInput) => number {
+  return (input) => {
+    const value = fn(input);
+    const seen = new Uint8Array(input.classes);
+    let missing = input.classes;
+    for (let i = 0; i < input.actual.length && missing > 0; i++) {
+      const c = input.actual[i];
+      if (seen[c] === 0) {
+        seen[c] = 1;
+        missing--;
+      }
+    }
+    return missing > 0 ? NaN : value;
+  };
+}
+
 function classification(
   name: MetricName,
   fn: (input: ClassificationInput) => number,
   needsProba: boolean,
   higherIsBetter: boolean,
   doc: string,
+  rules: ScoreRules = UNIT,
 ): [MetricName, Metric] {
-  return [name, { name, task: 'classification', needsProba, higherIsBetter, doc, fn }];
+  return [name, { name, task: 'classification', needsProba, higherIsBetter, doc, fn, ...rules }];
 }
 
 function regression(
@@ -78,24 +110,25 @@ function regression(
   fn: (input: RegressionInput) => number,
   higherIsBetter: boolean,
   doc: string,
+  rules: ScoreRules = ERROR,
 ): [MetricName, Metric] {
-  return [name, { name, task: 'regression', needsProba: false, higherIsBetter, doc, fn }];
+  return [name, { name, task: 'regression', needsProba: false, higherIsBetter, doc, fn, ...rules }];
 }
 
 export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metric>([
-  classification('accuracy', accuracy, false, true, 'share of rows predicted correctly'),
-  classification('balanced-accuracy', balancedAccuracy, false, true, 'mean per-class recall over the classes present in actual'),
-  classification('macro-precision', macroPrecision, false, true, 'unweighted mean of per-class precision (never-predicted class counts 0)'),
-  classification('macro-recall', macroRecall, false, true, 'unweighted mean of per-class recall over classes in actual or predicted'),
-  classification('macro-f1', macroF1, false, true, 'unweighted mean of per-class F1 over classes in actual or predicted'),
-  classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined'),
-  classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined"),
-  classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [2^-53, 1-2^-53]'),
-  classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)'),
-  classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
+  classification('accuracy', accuracy, false, true, 'share of rows predicted correctly', { ...UNIT, proportion: true }),
+  classification('balanced-accuracy', everyClass(balancedAccuracy), false, true, 'mean per-class recall; null on a fold that lacks a class'),
+  classification('macro-precision', everyClass(macroPrecision), false, true, 'unweighted mean of per-class precision (never-predicted class counts 0); null on a fold that lacks a class'),
+  classification('macro-recall', everyClass(macroRecall), false, true, 'unweighted mean of per-class recall; null on a fold that lacks a class'),
+  classification('macro-f1', everyClass(macroF1), false, true, 'unweighted mean of per-class F1; null on a fold that lacks a class'),
+  classification('mcc', mcc, false, true, 'Matthews correlation, k-class form (Gorodkin R_K); 0 when undefined', SIGNED),
+  classification('kappa', kappa, false, true, "Cohen's kappa: agreement corrected for chance; 0 when undefined", SIGNED),
+  classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [2^-53, 1-2^-53]', { ...ERROR, range: [0, LOG_LOSS_MAX] }),
+  classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)', { ...ERROR, range: [0, 2] }),
+  classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
-  regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant'),
+  regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant', { ...ERROR, range: [-Infinity, 1] }),
   regression('medae', medae, false, 'median absolute error'),
 ]);
 

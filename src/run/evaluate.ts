@@ -25,6 +25,7 @@ import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { foldLabel } from '../report/fold-label.js';
 import { assignmentOf } from './assignment.js';
+import { pooledRefused, scoreNote } from '../stats/score-notes.js';
 import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
@@ -218,8 +219,10 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
       if (undefinedFolds > 0 && undefinedFolds < scored.length) {
         warnings.push(`${c.spec}: ${m.name} is undefined in ${undefinedFolds} of ${scored.length} folds; its summary uses the other folds`);
       }
-      summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
-      pooled[m.name] = pooledActual && pooledPred ? scoreOf(m, pooledActual, pooledPred) : null;
+      summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }, 0.95, m) : null;
+      const note = scoreNote(m, sized);
+      if (note) warnings.push(`${c.spec}: ${note}`);
+      pooled[m.name] = pooledActual && pooledPred && !pooledRefused(m, sized) ? scoreOf(m, pooledActual, pooledPred) : null;
     }
     const final = perLearner[li].final;
     const report: LearnerReport = {

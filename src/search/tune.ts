@@ -49,6 +49,7 @@ import { checkSeed, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
 import { createRng, deriveSeed } from '../run/rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
+import { pooledRefused, scoreNote } from '../stats/score-notes.js';
 import { VERSION } from '../version.js';
 import { describeRanks } from './complexity.js';
 import { edgeWarnings } from './edges.js';
@@ -304,8 +305,10 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     const missing = outerFolds.length - values.length;
     if (missing > 0 && missing < outerFolds.length) warnings.push(`outer estimate: ${m.name} is undefined in ${missing} of ${outerFolds.length} outer folds; its summary uses the other folds`);
     if (m.needsProba && !pooledPred.probs) warnings.push(`outer estimate: some picks give no class probabilities, so ${m.name} is not reported on pooled predictions`);
-    summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }) : null;
-    pooled[m.name] = scoreOf(m, pooledActual, pooledPred);
+    summary[m.name] = values.length ? summarize(values, { testRows: testMean, trainRows: trainMean }, 0.95, m) : null;
+    const note = scoreNote(m, outerFolds);
+    if (note) warnings.push(`outer estimate: ${note}`);
+    pooled[m.name] = pooledRefused(m, outerFolds) ? null : scoreOf(m, pooledActual, pooledPred);
   }
 
   // the tuned estimate against the baseline on the same outer folds (as eval compares learners)
@@ -320,7 +323,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
             learner: 'tuned',
             reference: 'baseline',
             against: ['baseline'],
-            ...pairedStats(paired.map((p) => p[0]), paired.map((p) => p[1]), { testRows: testMean, trainRows: trainMean }, head.higherIsBetter, outerFolds.length - paired.length),
+            ...pairedStats(paired.map((p) => p[0]), paired.map((p) => p[1]), { testRows: testMean, trainRows: trainMean }, head.higherIsBetter, outerFolds.length - paired.length, head),
           },
         ],
       }

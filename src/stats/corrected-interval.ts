@@ -56,8 +56,8 @@ export function correctedVarianceFactor(j: number, correction: ResampleCorrectio
 
 /**
  * The corrected interval mean +/- t_{J-1,(1+level)/2} sqrt(factor * s^2), for J >= 2 scores
- * with sample variance `sampleVariance`. Arguments are assumed checked by the caller.
- * A zero variance gives [mean, mean].
+ * with sample variance `sampleVariance`. Arguments are assumed checked by the caller. The
+ * callers never pass a zero variance: they floor it or refuse (see variance-floor.ts).
  */
 export function correctedInterval(
   mean: number,
@@ -66,7 +66,6 @@ export function correctedInterval(
   correction: ResampleCorrection,
   level: number,
 ): [number, number] {
-  if (sampleVariance === 0) return [mean, mean];
   const half = tQuantile((1 + level) / 2, j - 1) * Math.sqrt(correctedVarianceFactor(j, correction) * sampleVariance);
   return [mean - half, mean + half];
 }

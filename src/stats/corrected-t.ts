@@ -13,10 +13,12 @@
  * whatever `level` is (0.95 by default). For r repeats of k-fold pass all J = k*r pairs, in the
  * same order for a and b; df = J - 1 (Bouckaert & Frank 2004).
  *
- * When every difference is the same (s_d = 0): if that difference is 0, t = 0 and p = 1 (no
- * evidence of any difference; 0/0 is reported as 0, not NaN, so that it survives JSON); if it is
- * not 0, t = +Infinity or -Infinity with the sign of dbar and p = 0. In both cases
- * ci95 = [dbar, dbar].
+ * Variance floor: `varianceFloor` (default 0) is a lower bound of the variance of one
+ * difference, s_d^2, known from outside the scores (for shares of test rows, the binomial floor
+ * of variance-floor.ts divided by the correction factor); the test uses max(s_d^2, varianceFloor). When that is still 0 (every
+ * difference the same, and no floor), the scores show no spread and none can be assumed: the
+ * result refuses to claim anything, with t = null, p = null and ci95 = null. Zero spread is not
+ * certainty: an infinite t or a zero-width interval would claim more than J scores hold.
  *
  * Inputs: two arrays of equal length J >= 2, every value finite (NaN is refused with an
  * InputError; the caller filters missing folds from both arrays together).
@@ -24,7 +26,7 @@
  * Sources: Nadeau & Bengio (2003) and Bouckaert & Frank (2004), see corrected-interval.ts.
  */
 import { mean as ssMean, sampleVariance } from 'simple-statistics';
-import { InputError } from '../errors.js';
+import { InputError, UsageError } from '../errors.js';
 import {
   checkCorrection,
   checkLevel,
@@ -38,12 +40,13 @@ import { tCdf } from './t-quantile.js';
 export interface CorrectedTResult {
   /** mean of a_j - b_j */
   readonly meanDiff: number;
-  /** corrected interval of the mean difference at `level` (0.95 by default) */
-  readonly ci95: [number, number];
-  readonly t: number;
+  /** corrected interval of the mean difference at `level` (0.95 by default); null without spread */
+  readonly ci95: [number, number] | null;
+  /** null without spread (see the module text) */
+  readonly t: number | null;
   readonly df: number;
-  /** two-sided p-value */
-  readonly p: number;
+  /** two-sided p-value; null without spread */
+  readonly p: number | null;
 }
 
 export function correctedT(
@@ -51,6 +54,7 @@ export function correctedT(
   b: ArrayLike<number>,
   correction: ResampleCorrection,
   level = 0.95,
+  varianceFloor = 0,
 ): CorrectedTResult {
   const xs = finiteValues('correctedT', 'a', a);
   const ys = finiteValues('correctedT', 'b', b);
@@ -60,16 +64,18 @@ export function correctedT(
   if (xs.length < 2) throw new InputError(`correctedT: need at least 2 paired scores, got ${xs.length}`);
   checkCorrection('correctedT', correction);
   checkLevel('correctedT', level);
+  if (typeof varianceFloor !== 'number' || !(varianceFloor >= 0) || !Number.isFinite(varianceFloor)) {
+    throw new UsageError(`correctedT: varianceFloor must be a finite number >= 0, got ${varianceFloor}`);
+  }
 
   const j = xs.length;
   const df = j - 1;
   const d = xs.map((x, i) => x - ys[i]);
-  if (d.every((v) => v === d[0])) {
-    const m = d[0];
-    return { meanDiff: m, ci95: [m, m], t: m === 0 ? 0 : m > 0 ? Infinity : -Infinity, df, p: m === 0 ? 1 : 0 };
-  }
-  const m = ssMean(d);
-  const s2 = sampleVariance(d);
+  const flat = d.every((v) => v === d[0]);
+  // equal differences: the mean is that value exactly, the sample variance exactly 0
+  const m = flat ? d[0] : ssMean(d);
+  const s2 = Math.max(flat ? 0 : sampleVariance(d), varianceFloor);
+  if (s2 === 0) return { meanDiff: m, ci95: null, t: null, df, p: null };
   const t = m / Math.sqrt(correctedVarianceFactor(j, correction) * s2);
   const p = Math.min(1, 2 * tCdf(-Math.abs(t), df));
   return { meanDiff: m, ci95: correctedInterval(m, s2, j, correction, level), t, df, p };

@@ -8,9 +8,11 @@ export {
   correctedVarianceFactor,
   type ResampleCorrection,
 } from './corrected-interval.js';
-export { summarize, type Summary } from './summary.js';
+export { summarize, type Summary, type SummaryRules } from './summary.js';
+export { binomialVarianceFloor, clipInterval, differenceRange } from './variance-floor.js';
 export { correctedT, type CorrectedTResult } from './corrected-t.js';
 export {
+  roundingTolerance,
   wilcoxon,
   WILCOXON_EXACT_AUTO_MAX,
   WILCOXON_EXACT_MAX,

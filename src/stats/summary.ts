@@ -17,8 +17,15 @@
  * `sampleStandardDeviation` (two passes: the mean first, then the squared deviations from it),
  * which reproduce the NIST StRD univariate certified values (see test/stats/summary.test.ts).
  *
+ * Floor and range (`rules`, from the metric registry). For a score that is a share of the test
+ * rows (accuracy) the variance of the mean in the interval is at least the binomial floor over
+ * the testRows + trainRows rows of a split (variance-floor.ts): equal fold scores are luck, not
+ * certainty. For any other metric, equal fold scores (sd = 0)
+ * give ci95 = null: no spread was seen and none can be assumed, so no interval is claimed.
+ * The interval is clipped to the metric's range (an AUC interval never goes past 1).
+ *
  * Edge cases: n = 1 gives sd = null and ci95 = null (no spread can be estimated). When all
- * values are equal, sd = 0, mean is that value exactly and ci95 = [mean, mean]. NaN or infinite
+ * values are equal, sd = 0 and mean is that value exactly. NaN or infinite
  * values are refused with an InputError: the caller filters missing scores first, so that a
  * summary never silently covers fewer folds than it claims. An empty input is refused too.
  *
@@ -30,8 +37,17 @@
  */
 import { mean as ssMean, quantile as ssQuantile, sampleStandardDeviation } from 'simple-statistics';
 import { InputError } from '../errors.js';
-import { checkCorrection, checkLevel, correctedInterval, type ResampleCorrection } from './corrected-interval.js';
+import { checkCorrection, checkLevel, correctedInterval, correctedVarianceFactor, type ResampleCorrection } from './corrected-interval.js';
 import { finiteValues } from './finite-values.js';
+import { binomialVarianceFloor, clipInterval } from './variance-floor.js';
+
+/** What the interval may assume about a metric's scores (see the module text). */
+export interface SummaryRules {
+  /** the values a score can take; the interval is clipped to it (default: unbounded) */
+  readonly range?: readonly [number, number];
+  /** the score is a share of the test rows: floor its variance by the binomial (default false) */
+  readonly proportion?: boolean;
+}
 
 export interface Summary {
   readonly n: number;
@@ -49,7 +65,7 @@ export interface Summary {
   readonly ci95: [number, number] | null;
 }
 
-export function summarize(values: ArrayLike<number>, correction: ResampleCorrection, level = 0.95): Summary {
+export function summarize(values: ArrayLike<number>, correction: ResampleCorrection, level = 0.95, rules: SummaryRules = {}): Summary {
   const xs = finiteValues('summarize', 'values', values);
   if (xs.length === 0) throw new InputError('summarize: values is empty; need at least one score');
   checkCorrection('summarize', correction);
@@ -64,10 +80,19 @@ export function summarize(values: ArrayLike<number>, correction: ResampleCorrect
   }
   if (lo === hi) {
     // All equal: report the value itself, not a rounded recomputation of it.
-    return { n, mean: lo, median: lo, sd: n < 2 ? null : 0, min: lo, max: hi, q1: lo, q3: lo, ci95: n < 2 ? null : [lo, lo] };
+    return { n, mean: lo, median: lo, sd: n < 2 ? null : 0, min: lo, max: hi, q1: lo, q3: lo, ci95: n < 2 ? null : interval(lo, 0, n, correction, level, rules) };
   }
   const m = ssMean(xs);
   const [q1, median, q3] = ssQuantile(xs, [0.25, 0.5, 0.75]);
   const sd = sampleStandardDeviation(xs);
-  return { n, mean: m, median, sd, min: lo, max: hi, q1, q3, ci95: correctedInterval(m, sd * sd, n, correction, level) };
+  return { n, mean: m, median, sd, min: lo, max: hi, q1, q3, ci95: interval(m, sd * sd, n, correction, level, rules) };
+}
+
+/** The floored, clipped corrected interval, or null when no spread is seen and none is floored. */
+function interval(m: number, s2: number, n: number, correction: ResampleCorrection, level: number, rules: SummaryRules): [number, number] | null {
+  const rows = correction.testRows + correction.trainRows;
+  const v = rules.proportion ? Math.max(s2, binomialVarianceFloor(m, rows) / correctedVarianceFactor(n, correction)) : s2;
+  if (!(v > 0)) return null;
+  const ci = correctedInterval(m, v, n, correction, level);
+  return rules.range ? clipInterval(ci, rules.range) : ci;
 }

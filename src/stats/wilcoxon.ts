@@ -18,9 +18,15 @@
  * being the continuity correction (on by default; `continuity: false` drops it), and
  * p = 2 P(Z >= z).
  *
- * Edge cases: n = 0 (all differences zero) gives T+ = T- = 0 and p = 1. Ties and zeros are
- * decided by exact floating-point equality of the computed differences; scores that should tie
- * but carry rounding noise (0.3 - 0.1 versus 0.5 - 0.3) are not tied: round them first.
+ * Ties and zeros within a tolerance (`tolerance`, default 0: exact equality). Fold scores that are
+ * equal as fractions differ in their last bits once computed (0.29999999999999993 against
+ * 0.30000000000000004), and exact comparison would rank them apart: then T+ and p change (in the
+ * published-style example of the tests p is 0.5 instead of 0.3125). A difference with
+ * |d| <= tolerance counts as zero; sorted by size, a magnitude within tolerance of the smallest
+ * magnitude of its group joins that tie group. src/compare/paired-stats.ts passes
+ * roundingTolerance (below), tied to the test fold size.
+ *
+ * Edge cases: n = 0 (all differences zero) gives T+ = T- = 0 and p = 1.
  * Inputs: two arrays of equal length >= 1 with finite values (NaN is refused with an InputError).
  *
  * Sources: F. Wilcoxon, "Individual Comparisons by Ranking Methods", Biometrics Bulletin
@@ -40,6 +46,21 @@ export interface WilcoxonOptions {
   readonly method?: 'auto' | WilcoxonMethod;
   /** continuity correction of the normal approximation (default true) */
   readonly continuity?: boolean;
+  /** differences and gaps between magnitudes up to this size count as equal (default 0) */
+  readonly tolerance?: number;
+}
+
+/**
+ * The rounding noise of comparing two fold scores, each a mean over `testRows` rows of values of
+ * size up to `scale`: recursive summation of n terms errs by at most (n - 1) u sum |x_i| with
+ * u = Number.EPSILON / 2 (N. J. Higham, Accuracy and Stability of Numerical Algorithms, 2nd ed.,
+ * SIAM 2002, sec. 4.2), so a difference of two scores carries at most about n EPSILON scale; a
+ * factor 4 leaves room for the division and the subtraction. Two distinct fractions k/n differ by
+ * at least 1/n^2, far above this for any test fold below about 80,000 rows, so real differences
+ * are never merged there.
+ */
+export function roundingTolerance(testRows: number, scale: number): number {
+  return 4 * Math.max(1, testRows) * Number.EPSILON * Math.abs(scale);
 }
 
 export interface WilcoxonResult {
@@ -68,6 +89,10 @@ export function wilcoxon(a: ArrayLike<number>, b: ArrayLike<number>, options: Wi
   if (requested !== 'auto' && requested !== 'exact' && requested !== 'normal') {
     throw new UsageError(`wilcoxon: method must be one of "auto", "exact", "normal", got ${JSON.stringify(requested)}`);
   }
+  const tolerance = options.tolerance ?? 0;
+  if (typeof tolerance !== 'number' || !(tolerance >= 0) || !Number.isFinite(tolerance)) {
+    throw new UsageError(`wilcoxon: tolerance must be a finite number >= 0, got ${JSON.stringify(tolerance)}`);
+  }
   const continuity = options.continuity ?? true;
   if (typeof continuity !== 'boolean') {
     throw new UsageError(`wilcoxon: continuity must be true or false, got ${JSON.stringify(continuity)}`);
@@ -76,7 +101,7 @@ export function wilcoxon(a: ArrayLike<number>, b: ArrayLike<number>, options: Wi
   const d: number[] = [];
   for (let i = 0; i < xs.length; i++) {
     const v = xs[i] - ys[i];
-    if (v !== 0) d.push(v);
+    if (Math.abs(v) > tolerance) d.push(v);
   }
   const n = d.length;
   if (requested === 'exact' && n > WILCOXON_EXACT_MAX) {
@@ -92,7 +117,7 @@ export function wilcoxon(a: ArrayLike<number>, b: ArrayLike<number>, options: Wi
   const tieSizes: number[] = [];
   for (let i = 0; i < n; ) {
     let k = i + 1;
-    while (k < n && Math.abs(d[order[k]]) === Math.abs(d[order[i]])) k++;
+    while (k < n && Math.abs(d[order[k]]) - Math.abs(d[order[i]]) <= tolerance) k++;
     for (let q = i; q < k; q++) rank2[order[q]] = i + 1 + k;
     if (k - i > 1) tieSizes.push(k - i);
     i = k;

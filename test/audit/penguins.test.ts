@@ -63,7 +63,7 @@ describe('foldwise audit on the Palmer penguins file', () => {
   it('counts species 152 / 124 / 68', () => {
     const t = report.target;
     expect(t.task).toBe('classification');
-    if (t.task !== 'classification') return;
+    if (t.task !== 'classification') throw new Error('expected a classification target');
     expect(t.classes.map((c) => [c.name, c.count])).toEqual([
       ['Adelie', 152],
       ['Chinstrap', 68],

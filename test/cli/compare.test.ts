@@ -47,8 +47,11 @@ describe('foldwise compare A.json B.json', () => {
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('# foldwise compare: accuracy');
-    expect(r.stdout).toContain('| baseline | 0.4418 | 0.4418 | 0.0000 | 0.0000 to 0.0000 | 0.00 | 9 | 1.0000 | 1.0000 | 0/10/0 |');
-    expect(r.stdout).toMatch(/\| knn \| (\d\.\d{4}) \| \1 \| 0\.0000 \| 0\.0000 to 0\.0000 \| 0\.00 \| 9 \| 1\.0000 \| 1\.0000 \| 0\/10\/0 \|/);
+    // issue 24 part 2: identical accuracies are not certainty; the interval keeps the binomial
+    // floor's width (README, "The report") instead of the zero-width "0.0000 to 0.0000"
+    expect(r.stdout).toMatch(/\| baseline \| 0\.4418 \| 0\.4418 \| 0\.0000 \| -(0\.0\d{3}) to \+\1 \| 0\.00 \| 9 \| 1\.0000 \| 1\.0000 \| 0\/10\/0 \|/);
+    expect(r.stdout).toMatch(/\| knn \| (\d\.\d{4}) \| \1 \| 0\.0000 \| -(0\.0\d{3}) to \+\2 \| 0\.00 \| 9 \| 1\.0000 \| 1\.0000 \| 0\/10\/0 \|/);
+    expect(r.stdout).not.toContain('0.0000 to 0.0000');
   });
 
   it('pairs folds by (repeat, fold) and reports second minus first', async () => {

@@ -120,16 +120,16 @@ describe('foldwise gate: exit 0 pass, 1 fail, 2 not comparable', () => {
     expect(md.stdout).toContain('- **Verdict:** pass: accuracy improved beyond fold noise (one-sided, alpha 0.05)');
   });
 
-  it('fails below --absolute-min whatever the baseline (exit 1)', async () => {
+  it('fails below --worst-allowed whatever the baseline (exit 1)', async () => {
     const { good, same } = await reports();
-    const { code, v } = await verdictOf(good, same, '--absolute-min', '0.99');
+    const { code, v } = await verdictOf(good, same, '--worst-allowed', '0.99');
     expect(code).toBe(1);
-    expect(v.reasons).toEqual(['floor']);
-    expect(v.absoluteMin).toBe(0.99);
-    const md = await gate(good, same, '--absolute-min', '0.99');
-    expect(md.stdout).toContain('must be at least 0.99 (--absolute-min)');
+    expect(v.reasons).toEqual(['worst-allowed']);
+    expect(v.worstAllowed).toBe(0.99);
+    const md = await gate(good, same, '--worst-allowed', '0.99');
+    expect(md.stdout).toContain('must be at least 0.99 (--worst-allowed)');
     expect(md.stdout).toContain('NOT met');
-    expect((await gate(good, same, '--absolute-min', '0.5')).code).toBe(0);
+    expect((await gate(good, same, '--worst-allowed', '0.5')).code).toBe(0);
   });
 
   it('gates a lower-is-better metric in its own direction (rmse up = drop)', async () => {
@@ -141,9 +141,9 @@ describe('foldwise gate: exit 0 pass, 1 fail, 2 not comparable', () => {
     expect(v.drop).toBeGreaterThan(0);
     expect((await gate(regWorse, regGood)).code).toBe(0);
     // for rmse the limit is a ceiling
-    const ceiling = await verdictOf(regGood, regGood, '--absolute-min', '0.01');
+    const ceiling = await verdictOf(regGood, regGood, '--worst-allowed', '0.01');
     expect(ceiling.code).toBe(1);
-    expect(ceiling.v.reasons).toEqual(['floor']);
+    expect(ceiling.v.reasons).toEqual(['worst-allowed']);
   });
 
   it('falls back to the labelled unpaired rule for another seed', async () => {
@@ -220,7 +220,9 @@ describe('foldwise gate refuses what it cannot compare (exit 2)', () => {
       [['--alpha', '0.5'], 'foldwise: --alpha 0.5: expected a number above 0 and below 0.5 (such as 0.05)'],
       [['--alpha', 'abc'], 'foldwise: --alpha abc: expected a number above 0 and below 0.5 (such as 0.05)'],
       [['--max-drop', '-0.1'], "foldwise: --max-drop -0.1: expected a number >= 0, in the metric's units"],
-      [['--absolute-min', 'x'], "foldwise: --absolute-min x: expected a number, in the metric's units"],
+      [['--worst-allowed', 'x'], "foldwise: --worst-allowed x: expected a number, in the metric's units"],
+      // issue 25 item 14: the old name is refused with one line naming the new one
+      [['--absolute-min', '0.5'], 'foldwise: --absolute-min is now --worst-allowed (the worst mean score allowed: a floor when higher is better, a ceiling when lower is better)'],
       [['--metric', 'kappa'], 'foldwise: --metric kappa: the reports do not score it (they score accuracy, balanced-accuracy, macro-f1, log-loss)'],
     ];
     for (const [extra, message] of bad) {

@@ -63,15 +63,50 @@ describe('pairedGateTest: H0 "drop <= max-drop", one-sided corrected t (Nadeau &
     expect(pairedGateTest(c, b, FIVE_FOLD, higher(0.05)).improvement).toBe(false);
   });
 
-  it('with zero spread fails exactly when the known drop exceeds max-drop', () => {
+  // Issue 24 part 2 changed this case: zero spread used to fail with p = 0 (false certainty).
+  it('with zero spread and no floor: passes within max-drop with no interval, refuses to decide beyond it', () => {
     const base = [0.8, 0.8, 0.8];
     const cur = [0.7, 0.7, 0.7];
-    const fail = pairedGateTest(base, cur, FIVE_FOLD, higher(0.05));
-    expect(fail).toMatchObject({ regression: true, t: null, p: 0 });
+    expect(() => pairedGateTest(base, cur, FIVE_FOLD, higher(0.05))).toThrow(InputError);
+    expect(() => pairedGateTest(base, cur, FIVE_FOLD, higher(0.05))).toThrow(/no spread/);
     const pass = pairedGateTest(base, cur, FIVE_FOLD, higher(0.05, 0.2));
-    expect(pass).toMatchObject({ regression: false, t: null, p: 1 });
+    expect(pass).toMatchObject({ regression: false, improvement: false, t: null, p: 1, ci95: null });
     const same = pairedGateTest(base, base, FIVE_FOLD, higher(0.05));
-    expect(same).toMatchObject({ regression: false, improvement: false, drop: 0, change: 0 });
+    expect(same).toMatchObject({ regression: false, improvement: false, drop: 0, change: 0, ci95: null });
+  });
+
+  it('a 2-fold accuracy report with one more error in each fold is not a regression (binomial floor)', () => {
+    // 2 folds of 50 test rows (N = 100 rows); each fold has one more error: drop 0.02 on both
+    // folds, s_d = 0. Floor by hand (README): q~ = (0.02 * 100 + 2) / 104, SE = sqrt(q~ (1 - q~) / 100),
+    // bound = 0.02 - t_{1,0.95} SE with t_{1,0.95} = 6.314 (NIST table)
+    const two = { testRows: 50, trainRows: 50 };
+    const r = pairedGateTest([0.9, 0.86], [0.88, 0.84], two, { ...higher(0.05), proportion: true, range: [0, 1] });
+    const q = 4 / 104;
+    const se = Math.sqrt((q * (1 - q)) / 100);
+    expect(r.regression).toBe(false);
+    expect(Math.abs(r.t! - (r.drop - 0) / se)).toBeLessThan(1e-9);
+    expect(Math.abs(r.dropBound - (r.drop - jStat.studentt.inv(0.95, 1) * se))).toBeLessThan(1e-9);
+    expect(r.dropBound).toBeLessThan(0);
+    expect(Number.isFinite(r.t!)).toBe(true);
+    // the interval of change is clipped to [-1, 1] and has width
+    expect(r.ci95![0]).toBeGreaterThanOrEqual(-1);
+    expect(r.ci95![1] - r.ci95![0]).toBeGreaterThan(0.2);
+    // without the floor the same scores would be refused, not failed
+    expect(() => pairedGateTest([0.9, 0.86], [0.88, 0.84], two, higher(0.05))).toThrow(InputError);
+  });
+
+  it('one-sided p when t < 0 (an improvement) is P(T >= t) > 1/2, from jstat', () => {
+    // c and b swapped: drop = -0.02, t = -1.885618 (hand derivation above), df 4
+    const r = pairedGateTest(c, b, FIVE_FOLD, higher(0.05));
+    expect(Math.abs(r.t! + 1.885618)).toBeLessThan(1e-5);
+    expect(Math.abs(r.p - (1 - jStat.studentt.cdf(-1.885618, 4)))).toBeLessThan(1e-6);
+    expect(r.p).toBeGreaterThan(0.9);
+    // and t > 0 gives the other tail: the two p add to 1
+    expect(Math.abs(r.p + pairedGateTest(b, c, FIVE_FOLD, higher(0.05)).p - 1)).toBeLessThan(1e-9);
+    // t = 0 exactly: p = 1/2
+    const z = pairedGateTest([0.8, 0.82, 0.78], [0.79, 0.83, 0.78], FIVE_FOLD, higher(0.05));
+    expect(z.t).toBe(0);
+    expect(z.p).toBe(0.5);
   });
 
   it('refuses bad options and too few folds', () => {
@@ -100,8 +135,8 @@ describe('unpairedGateTest: Welch test with a Nadeau-Bengio corrected variance o
     // one-sided p and the 95% interval from jstat's Student t with 8 df
     expect(Math.abs(r.p - (1 - jStat.studentt.cdf(0.942809, 8)))).toBeLessThan(1e-6);
     const half = jStat.studentt.inv(0.975, 8) * Math.sqrt(0.00045);
-    expect(Math.abs(r.ci95[0] - (-0.02 - half))).toBeLessThan(1e-9);
-    expect(Math.abs(r.ci95[1] - (-0.02 + half))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![0] - (-0.02 - half))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![1] - (-0.02 + half))).toBeLessThan(1e-9);
   });
 
   it('matches the hand derivation with unequal variances (df = 100/17)', () => {
@@ -122,7 +157,29 @@ describe('unpairedGateTest: Welch test with a Nadeau-Bengio corrected variance o
     const c = [0.6, 0.62, 0.58, 0.61, 0.6];
     expect(unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05)).regression).toBe(true);
     expect(unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, 0.5)).regression).toBe(false);
-    const flat = unpairedGateTest([0.8, 0.8], FIVE_FOLD, [0.7, 0.7], FIVE_FOLD, higher(0.05));
-    expect(flat).toMatchObject({ regression: true, t: null, p: 0 });
+    // Issue 24 part 2: zero spread on both sides no longer fails with p = 0; see the boundary test
+    expect(() => unpairedGateTest([0.8, 0.8], FIVE_FOLD, [0.7, 0.7], FIVE_FOLD, higher(0.05))).toThrow(InputError);
+  });
+
+  it('the boundary of the zero-spread rule: drop = max-drop passes, a hair above is refused, any spread tests', () => {
+    // dyadic scores: means and the drop 0.25 are exact
+    const b = [0.75, 0.75];
+    const c = [0.5, 0.5];
+    const at = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, 0.25));
+    expect(at).toMatchObject({ drop: 0.25, regression: false, improvement: false, t: null, p: 1, ci95: null, dropBound: 0.25 });
+    expect(() => unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, 0.25 - 2 ** -20))).toThrow(/no spread/);
+    // an improvement without spread is not claimed either
+    expect(unpairedGateTest(c, FIVE_FOLD, b, FIVE_FOLD, higher(0.05))).toMatchObject({ improvement: false, regression: false, p: 1 });
+    // spread on one side only: the Welch rule runs, with df = J_c - 1 (all variance on that side)
+    const spread = unpairedGateTest(b, FIVE_FOLD, [0.5, 0.5 + 2 ** -10], FIVE_FOLD, higher(0.05, 0.25));
+    expect(spread.t).not.toBeNull();
+    expect(Math.abs(spread.df - 1)).toBeLessThan(1e-9);
+    // a share of test rows is floored on both sides: no refusal, a finite t
+    const floored = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, { ...higher(0.05), proportion: true });
+    // N = 20 + 80 = 100 rows on each side: p~ = (p 100 + 2) / 104, Var(mean) >= p~ (1 - p~) / 100
+    const pb = (0.75 * 100 + 2) / 104;
+    const pc = (0.5 * 100 + 2) / 104;
+    const se = Math.sqrt((pb * (1 - pb)) / 100 + (pc * (1 - pc)) / 100);
+    expect(Math.abs(floored.t! - 0.25 / se)).toBeLessThan(1e-9);
   });
 });

@@ -8,6 +8,7 @@ import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { syntheticCsv } from './synthetic.js';
 import { schemaCheck } from '../helpers/schema.js';
+import { agrestiFloor } from '../helpers/intervals.js';
 
 const expectValid = schemaCheck('report.schema.json');
 
@@ -74,15 +75,19 @@ describe('comparisons inside an eval report (Palmer penguins, vega-datasets; Gor
       });
       const j = d.length;
       const ratio = mean(l.folds.map((f) => f.testRows)) / mean(l.folds.map((f) => f.trainRows));
-      // Nadeau & Bengio (2003): t = mean(d) / sqrt((1/J + n_test/n_train) s_d^2), df = J - 1
-      const se = Math.sqrt((1 / j + ratio) * sampleVariance(d));
+      // Nadeau & Bengio (2003): t = mean(d) / sqrt(max((1/J + n_test/n_train) s_d^2, floor)),
+      // df = J - 1, with the binomial floor of a paired difference of accuracies over the
+      // n_test + n_train rows of a split (issue 24 part 2)
+      const rows = mean(l.folds.map((f) => f.testRows + f.trainRows));
+      const se = Math.sqrt(Math.max((1 / j + ratio) * sampleVariance(d), agrestiFloor(Math.abs(mean(d)), rows)));
       const t = mean(d) / se;
       expect(Math.abs(p.diff - mean(d))).toBeLessThan(1e-12);
       expect(Math.abs(p.t! - t)).toBeLessThan(1e-9);
       expect(Math.abs(p.p! - 2 * jStat.studentt.cdf(-Math.abs(t), j - 1))).toBeLessThan(1e-9);
       const half = jStat.studentt.inv(0.975, j - 1) * se;
-      expect(Math.abs(p.ci95![0] - (mean(d) - half))).toBeLessThan(1e-9);
-      expect(Math.abs(p.ci95![1] - (mean(d) + half))).toBeLessThan(1e-9);
+      // clipped to the range of a difference of accuracies, [-1, 1]
+      expect(Math.abs(p.ci95![0] - Math.max(-1, mean(d) - half))).toBeLessThan(1e-9);
+      expect(Math.abs(p.ci95![1] - Math.min(1, mean(d) + half))).toBeLessThan(1e-9);
       expect(Math.abs(p.learnerMean - l.summary.accuracy!.mean)).toBeLessThan(1e-12);
       expect(Math.abs(p.referenceMean - r.summary.accuracy!.mean)).toBeLessThan(1e-12);
       expect(p.wins).toBe(d.filter((x) => x > 0).length);

@@ -193,7 +193,9 @@ describe('forest: seeds, prefixes, round trip', () => {
     const big = forest.fit(X, y, { trees: 12 }, ctx(3));
     const small = forest.fit(X, y, { trees: 5 }, ctx(3));
     expect(isCartModel(big)).toBe(true);
-    if (!isCartModel(big) || !isCartModel(small)) return;
+    expect(isCartModel(small)).toBe(true);
+    // narrowing only: both were asserted above, so this never skips the checks below
+    if (!isCartModel(big) || !isCartModel(small)) throw new Error('forest: expected tree-prefix models');
     expect(big.treeCount).toBe(12);
     expect(Array.from(big.predictPrefix(test, 5))).toEqual(Array.from(small.predict(test)));
     expect(Array.from(big.probabilitiesPrefix?.(test, 5) ?? [])).toEqual(Array.from(small.probabilities?.(test) ?? [1]));

@@ -182,7 +182,7 @@ describe('HTML gate page', async () => {
     expect(html).toContain(`data-mean="${verdict.current.mean}"`);
     const change = tags(html, 'g').find((t) => t.get('class') === 'change')!;
     expect(Number(change.get('data-change'))).toBe(verdict.change);
-    expect(Number(change.get('data-lo'))).toBe(verdict.ci95[0]);
+    expect(Number(change.get('data-lo'))).toBe(verdict.ci95![0]);
     expect(tags(html, 'svg')[0].get('role')).toBe('img');
     expect(html).not.toMatch(/<script/i);
   });

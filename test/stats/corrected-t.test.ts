@@ -26,19 +26,19 @@ describe('correctedT: paired corrected resampled t test (Nadeau & Bengio 2003)',
     expect(Math.abs(tHand - 1.884843)).toBeLessThan(1e-6);
     expect(r.df).toBe(9);
     expect(Math.abs(r.meanDiff - 0.01)).toBeLessThan(1e-12);
-    expect(Math.abs(r.t - tHand)).toBeLessThan(1e-9);
-    expect(r.p).toBeGreaterThan(0.05);
-    expect(r.p).toBeLessThan(0.1);
+    expect(Math.abs(r.t! - tHand)).toBeLessThan(1e-9);
+    expect(r.p!).toBeGreaterThan(0.05);
+    expect(r.p!).toBeLessThan(0.1);
     const half = 2.262 * Math.sqrt(0.0228 / 810);
-    expect(Math.abs(r.ci95[0] - (0.01 - half))).toBeLessThan(1e-5);
-    expect(Math.abs(r.ci95[1] - (0.01 + half))).toBeLessThan(1e-5);
+    expect(Math.abs(r.ci95![0] - (0.01 - half))).toBeLessThan(1e-5);
+    expect(Math.abs(r.ci95![1] - (0.01 + half))).toBeLessThan(1e-5);
     expect(0.01 / Math.sqrt(0.0012 / 9 / 10)).toBeGreaterThan(2.262);
   });
 
   it('p-value equals two tails of jstat\'s t distribution at the hand-derived t', () => {
     const r = correctedT(a, b, TEN_FOLD);
     const tHand = 0.01 / Math.sqrt(0.0228 / 810);
-    expect(Math.abs(r.p - 2 * jStat.studentt.cdf(-tHand, 9))).toBeLessThan(1e-9);
+    expect(Math.abs(r.p! - 2 * jStat.studentt.cdf(-tHand, 9))).toBeLessThan(1e-9);
   });
 
   it('p-value equals jstat\'s two tails on seeded synthetic scores (several J and ratios)', () => {
@@ -52,8 +52,8 @@ describe('correctedT: paired corrected resampled t test (Nadeau & Bengio 2003)',
         const diffs = x.map((v, i) => v - y[i]);
         const mean = diffs.reduce((s, v) => s + v, 0) / j;
         const t = mean / Math.sqrt((1 / j + ratio) * sampleVariance(diffs));
-        expect(Math.abs(r.t - t) / Math.abs(t)).toBeLessThan(1e-12);
-        expect(Math.abs(r.p - 2 * jStat.studentt.cdf(-Math.abs(t), j - 1))).toBeLessThan(1e-12);
+        expect(Math.abs(r.t! - t) / Math.abs(t)).toBeLessThan(1e-12);
+        expect(Math.abs(r.p! - 2 * jStat.studentt.cdf(-Math.abs(t), j - 1))).toBeLessThan(1e-12);
         checked++;
       }
     }
@@ -63,17 +63,35 @@ describe('correctedT: paired corrected resampled t test (Nadeau & Bengio 2003)',
   it('is antisymmetric in a and b', () => {
     const r1 = correctedT(a, b, TEN_FOLD);
     const r2 = correctedT(b, a, TEN_FOLD);
-    expect(r2.t).toBeCloseTo(-r1.t, 12);
-    expect(r2.p).toBeCloseTo(r1.p, 12);
+    expect(r2.t!).toBeCloseTo(-r1.t!, 12);
+    expect(r2.p!).toBeCloseTo(r1.p!, 12);
   });
 
-  it('zero spread: p = 1 with t = 0 when dbar = 0, p = 0 with t = +/-Infinity otherwise', () => {
+  // Issue 24 part 2 changed this case: zero spread used to give t = +/-Infinity, p = 0 and a
+  // zero-width interval; equal differences are not certainty, so without a floor nothing is claimed.
+  it('zero spread without a floor: no t, no p, no interval (never Infinity or a zero-width interval)', () => {
     // dyadic scores so that a - b is exactly constant
     const y = [0.5, 0.25, 0.75, 0.625];
-    expect(correctedT(y, y, TEN_FOLD)).toEqual({ meanDiff: 0, ci95: [0, 0], t: 0, df: 3, p: 1 });
+    expect(correctedT(y, y, TEN_FOLD)).toEqual({ meanDiff: 0, ci95: null, t: null, df: 3, p: null });
     const up = y.map((v) => v + 0.125);
-    expect(correctedT(up, y, TEN_FOLD)).toEqual({ meanDiff: 0.125, ci95: [0.125, 0.125], t: Infinity, df: 3, p: 0 });
-    expect(correctedT(y, up, TEN_FOLD).t).toBe(-Infinity);
+    expect(correctedT(up, y, TEN_FOLD)).toEqual({ meanDiff: 0.125, ci95: null, t: null, df: 3, p: null });
+  });
+
+  it('zero spread with a variance floor: the floor stands in for s_d^2 (t and interval by hand)', () => {
+    const y = [0.5, 0.25, 0.75, 0.625];
+    const up = y.map((v) => v + 0.125);
+    const floor = 0.01;
+    const r = correctedT(up, y, TEN_FOLD, 0.95, floor);
+    // by hand: SE = sqrt((1/4 + 1/9) * 0.01); t = 0.125 / SE; df 3; two tails from jstat
+    const se = Math.sqrt((1 / 4 + 1 / 9) * floor);
+    expect(Math.abs(r.t! - 0.125 / se)).toBeLessThan(1e-12);
+    expect(Math.abs(r.p! - 2 * jStat.studentt.cdf(-0.125 / se, 3))).toBeLessThan(1e-12);
+    const q = jStat.studentt.inv(0.975, 3);
+    expect(Math.abs(r.ci95![0] - (0.125 - q * se))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![1] - (0.125 + q * se))).toBeLessThan(1e-9);
+    // a floor below the sample variance changes nothing
+    expect(correctedT(a, b, TEN_FOLD, 0.95, 1e-12)).toEqual(correctedT(a, b, TEN_FOLD));
+    expect(() => correctedT(a, b, TEN_FOLD, 0.95, -1)).toThrow('correctedT: varianceFloor must be a finite number >= 0, got -1');
   });
 
   it('refuses unpaired, too short or NaN input', () => {

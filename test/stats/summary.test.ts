@@ -1,3 +1,4 @@
+import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { InputError, UsageError } from '../../src/errors.js';
 import { summarize } from '../../src/stats/summary.js';
@@ -160,11 +161,12 @@ describe('summarize: corrected resampled t interval (Nadeau & Bengio 2003)', () 
     expect(Math.abs((ci[1] - ci[0]) / 2 - 1.833 * Math.sqrt(0.114 / 810))).toBeLessThan(1e-5);
   });
 
-  it('gives [mean, mean] when all values are equal, and null spread for one value', () => {
+  // Issue 24 part 2 changed this case: equal values used to give the zero-width [mean, mean].
+  it('gives no interval when all values are equal and no floor applies, and null spread for one value', () => {
     const same = summarize([0.7, 0.7, 0.7, 0.7], TEN_FOLD);
     expect(same.mean).toBe(0.7);
     expect(same.sd).toBe(0);
-    expect(same.ci95).toEqual([0.7, 0.7]);
+    expect(same.ci95).toBeNull();
     const one = summarize([0.65], TEN_FOLD);
     expect(one).toEqual({ n: 1, mean: 0.65, median: 0.65, sd: null, min: 0.65, max: 0.65, q1: 0.65, q3: 0.65, ci95: null });
   });
@@ -188,5 +190,45 @@ describe('summarize: input checks', () => {
     expect(() => summarize([1, 2], TEN_FOLD, 1)).toThrow(
       'summarize: level must be a number strictly between 0 and 1, got 1',
     );
+  });
+});
+
+describe('summarize: binomial floor and range (issue 24 parts 2 and 5)', () => {
+  const FIVE = { testRows: 20, trainRows: 80 };
+  const ACCURACY = { proportion: true, range: [0, 1] as const };
+
+  it('equal accuracies of 1.0 are not certainty: the add-two binomial floor, clipped at 1', () => {
+    // 5 folds of 20 test and 80 training rows, all correct. By hand: N = 100 rows,
+    // p~ = (100 + 2) / (100 + 4) = 0.980769..., floor of Var(mean) = p~ (1 - p~) / 100,
+    // half = t_{4,0.975} sqrt(floor) with t_{4,0.975} = 2.776 (NIST e-Handbook t table, 1.3.6.7.2).
+    const s = summarize([1, 1, 1, 1, 1], FIVE, 0.95, ACCURACY);
+    const p = 102 / 104;
+    const half = jStat.studentt.inv(0.975, 4) * Math.sqrt((p * (1 - p)) / 100);
+    expect(Math.abs(jStat.studentt.inv(0.975, 4) - 2.776)).toBeLessThan(5e-4);
+    expect(s.ci95![1]).toBe(1);
+    expect(Math.abs(s.ci95![0] - (1 - half))).toBeLessThan(1e-12);
+    expect(s.ci95![0]).toBeLessThan(0.97);
+  });
+
+  it('the floor only binds when the sample variance is below it', () => {
+    const wide = [0.6, 0.9, 0.7, 0.95, 0.5];
+    expect(summarize(wide, FIVE, 0.95, ACCURACY).ci95).toEqual(summarize(wide, FIVE, 0.95, { range: [0, 1] }).ci95);
+    const narrow = [0.8, 0.8, 0.85, 0.8, 0.8];
+    const floored = summarize(narrow, FIVE, 0.95, ACCURACY).ci95!;
+    const plain = summarize(narrow, FIVE).ci95!;
+    expect(floored[1] - floored[0]).toBeGreaterThan(plain[1] - plain[0]);
+    // a metric without a floor keeps its own spread
+    expect(summarize(narrow, FIVE, 0.95, { range: [0, 1] }).ci95).toEqual(plain);
+  });
+
+  it('an interval past the range is clipped to it (an AUC never above 1 or below 0)', () => {
+    const auc = [0.2, 1, 0.9, 1];
+    const raw = summarize(auc, FIVE).ci95!;
+    expect(raw[0]).toBeLessThan(0);
+    expect(raw[1]).toBeGreaterThan(1);
+    expect(summarize(auc, FIVE, 0.95, { range: [0, 1] }).ci95).toEqual([0, 1]);
+    const err = summarize([0.1, 3, 0.2], FIVE, 0.95, { range: [0, Infinity] }).ci95!;
+    expect(err[0]).toBe(0);
+    expect(err[1]).toBe(summarize([0.1, 3, 0.2], FIVE).ci95![1]);
   });
 });

@@ -1,7 +1,7 @@
 import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { InputError, UsageError } from '../../src/errors.js';
-import { wilcoxon } from '../../src/stats/wilcoxon.js';
+import { roundingTolerance, wilcoxon } from '../../src/stats/wilcoxon.js';
 
 /** Differences +r for r in a subset summing to t, -r otherwise: ranks 1..n, no ties, T+ = t. */
 function withTPlus(n: number, t: number): number[] {
@@ -153,5 +153,49 @@ describe('wilcoxon: symmetry and input checks', () => {
     expect(() => wilcoxon(withTPlus(501, 0), zeros(501), { method: 'exact' })).toThrow(
       'wilcoxon: method "exact" takes at most 500 non-zero differences, got 501',
     );
+  });
+});
+
+describe('wilcoxon: ties within a tolerance tied to the test fold size (issue 24 part 4)', () => {
+  // Accuracies over a 10-row test fold, learner and reference correct counts per fold:
+  //   learner 4 4 4 1 2, reference 6 6 6 7 0  ->  d = -2 -2 -2 -6 +2 tenths.
+  // By hand (Hollander & Wolfe sec. 3.1, midranks for ties): |d| = 2 2 2 6 2, four tied at 2
+  // take ranks 1..4, mean 2.5; |d| = 6 takes rank 5. T+ = 2.5 (the one positive), T- = 12.5.
+  // Exact conditional null over 2^5 sign flips: T+ <= 2.5 for T+ = 0 (1 way) or 2.5 (4 ways),
+  // so P = 5/32 and the two-sided p = 10/32 = 0.3125.
+  const learner = [4, 4, 4, 1, 2].map((k) => k / 10);
+  const reference = [6, 6, 6, 7, 0].map((k) => k / 10);
+
+  it('computed fractions carry rounding noise that exact comparison ranks apart (p 0.5)', () => {
+    const d = learner.map((x, i) => x - reference[i]);
+    expect(d[0]).toBe(-0.19999999999999996);
+    expect(d[4]).toBe(0.2);
+    expect(wilcoxon(learner, reference).p).toBe(0.5);
+  });
+
+  it('with roundingTolerance(10 rows) the ties hold: T+ = 2.5 and p = 0.3125 as by hand', () => {
+    const r = wilcoxon(learner, reference, { tolerance: roundingTolerance(10, 1) });
+    expect(r.tPlus).toBe(2.5);
+    expect(r.tMinus).toBe(12.5);
+    expect(Math.abs(r.p - 0.3125)).toBeLessThan(1e-12);
+    // the same as on the exact integer counts
+    expect(r).toEqual(wilcoxon([4, 4, 4, 1, 2], [6, 6, 6, 7, 0]));
+  });
+
+  it('a difference within the tolerance is a zero, and is dropped (Wilcoxon 1945)', () => {
+    const r = wilcoxon([0.1 + 0.2, 0.5, 0.9], [0.3, 0.25, 0.5], { tolerance: roundingTolerance(10, 1) });
+    expect(r.n).toBe(2);
+    expect(wilcoxon([0.1 + 0.2, 0.5, 0.9], [0.3, 0.25, 0.5]).n).toBe(3);
+  });
+
+  it('the tolerance stays far below the step 1/n^2 between distinct fractions of n rows', () => {
+    for (const n of [10, 100, 1000, 10_000]) {
+      expect(roundingTolerance(n, 1)).toBeLessThan(1 / (n * n) / 10);
+      expect(roundingTolerance(n, 1)).toBeGreaterThan(n * Number.EPSILON);
+    }
+    // a real gap of one row in 1,000 is never merged
+    const r = wilcoxon([0.501, 0.502, 0.4], [0.5, 0.5, 0.5], { tolerance: roundingTolerance(1000, 1) });
+    expect([r.n, r.tPlus, r.tMinus]).toEqual([3, 3, 3]);
+    expect(() => wilcoxon([1, 2], [2, 1], { tolerance: -1 })).toThrow('wilcoxon: tolerance must be a finite number >= 0, got -1');
   });
 });

@@ -21,7 +21,9 @@ export function gateChart(v: GateVerdict): string {
   const cy = top + 34;
   const bottom = top + 70;
   const limit = v.higherIsBetter ? -v.maxDrop : v.maxDrop;
-  const values = [0, v.change, v.ci95[0], v.ci95[1], limit].filter(Number.isFinite);
+  // no interval when no fold shows any spread: the dot alone
+  const ci: readonly [number, number] = v.ci95 ?? [v.change, v.change];
+  const values = [0, v.change, ci[0], ci[1], limit].filter(Number.isFinite);
   const x = linearScale(Math.min(...values), Math.max(...values), left, right, 6);
   const colour = v.verdict === 'pass' ? PASS : FAIL;
   const better = v.higherIsBetter ? 'higher' : 'lower';
@@ -32,9 +34,9 @@ export function gateChart(v: GateVerdict): string {
   body.push(svgText(x(0), top - 8, zeroLabel, `text-anchor="middle" font-size="13" fill="${MUTED}"`));
   body.push(`<g class="limit" data-value="${attrNum(limit)}">${limit === 0 ? '' : `<line x1="${px(x(limit))}" x2="${px(x(limit))}" y1="${top}" y2="${bottom}" stroke="${BASELINE}" stroke-width="2" stroke-dasharray="5 3"/>${svgText(x(limit), top - 24, `largest allowed drop ${num(v.maxDrop)}`, `text-anchor="middle" font-size="13" fill="${BASELINE}"`)}`}</g>`);
   body.push(svgText(left - 12, cy + 5, 'change', `text-anchor="end" font-size="14" font-weight="600" fill="${INK}"`));
-  body.push(`<g class="change" data-change="${attrNum(v.change)}" data-lo="${attrNum(v.ci95[0])}" data-hi="${attrNum(v.ci95[1])}">`);
-  body.push(`<line x1="${px(x(v.ci95[0]))}" x2="${px(x(v.ci95[1]))}" y1="${cy}" y2="${cy}" stroke="${colour}" stroke-width="3"/>`);
-  for (const b of v.ci95) body.push(`<line x1="${px(x(b))}" x2="${px(x(b))}" y1="${cy - 6}" y2="${cy + 6}" stroke="${colour}" stroke-width="2"/>`);
+  body.push(`<g class="change" data-change="${attrNum(v.change)}" data-lo="${attrNum(ci[0])}" data-hi="${attrNum(ci[1])}">`);
+  if (v.ci95) body.push(`<line x1="${px(x(ci[0]))}" x2="${px(x(ci[1]))}" y1="${cy}" y2="${cy}" stroke="${colour}" stroke-width="3"/>`);
+  for (const b of v.ci95 ?? []) body.push(`<line x1="${px(x(b))}" x2="${px(x(b))}" y1="${cy - 6}" y2="${cy + 6}" stroke="${colour}" stroke-width="2"/>`);
   body.push(`<circle cx="${px(x(v.change))}" cy="${cy}" r="7" fill="${colour}" stroke="#ffffff" stroke-width="1.2"><title>change ${signed(v.change)}, corrected 95% interval ${intervalText(v.ci95)}</title></circle>`);
   body.push('</g>');
   return figure({

@@ -14,7 +14,7 @@ import type { GateVerdict } from '../../compare/types.js';
 const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
 
 export function renderGateHtml(v: GateVerdict): string {
-  const reasons = v.reasons.map((r) => (r === 'regression' ? `a drop in ${v.metric} beyond fold noise and beyond the allowed ${num(v.maxDrop)}` : `the current ${v.metric} is worse than the floor ${num(v.absoluteMin)}`));
+  const reasons = v.reasons.map((r) => (r === 'regression' ? `a drop in ${v.metric} beyond fold noise and beyond the allowed ${num(v.maxDrop)}` : `the current ${v.metric} is worse than the worst allowed ${num(v.worstAllowed)}`));
   const says =
     v.verdict === 'pass'
       ? `Passed: no drop in ${v.metric} beyond the allowed ${num(v.maxDrop)}${v.improvement ? ', and the current run is better beyond fold noise' : ''}.`
@@ -35,7 +35,7 @@ export function renderGateHtml(v: GateVerdict): string {
     item('rule', esc(v.rule === 'paired' ? 'paired by (repeat, fold)' : `unpaired${v.unpairedBecause.length ? ` because ${v.unpairedBecause.join(', ')} differ` : ''}`)),
     item('change', esc(`${signed(v.change)} (drop ${num(v.drop)}, one-sided bound ${num(v.dropBound)})`)),
     item('test', esc(`t ${v.t === null ? '–' : num(v.t, 3)}, df ${v.df}, one-sided p ${pText(v.p)}, alpha ${v.alpha}`)),
-    item('floor', esc(v.absoluteMin === null ? 'none' : num(v.absoluteMin))),
+    item('worst allowed', esc(v.worstAllowed === null ? 'none' : num(v.worstAllowed))),
     ...(v.accepted !== undefined ? [item('accepted', esc(v.accepted ? 'yes, the previous report was replaced' : 'no'))] : []),
     item('format', esc(v.schema)),
     '</dl><h3>Warnings</h3>',

@@ -53,12 +53,13 @@ describe('readPredictions', () => {
     expect(Array.from(v.predicted)).toEqual([1.5, -2000]);
     const p = readPredictions('Gentoo,Adelie\n0.25,0.75\n1,0\n', P, 2, classes);
     expect(p.task).toBe('classification');
-    if (p.task !== 'classification') return;
+    if (p.task !== 'classification') throw new Error('expected classification predictions');
     expect(Array.from(p.probs!)).toEqual([0.75, 0, 0.25, 0, 0, 1]);
     expect(Array.from(p.predicted)).toEqual([0, 2]);
     // a sum within the tolerance is rescaled to 1
     const q = readPredictions('Adelie,Chinstrap,Gentoo\n0.33333,0.33333,0.33333\n', P, 1, classes);
-    if (q.task !== 'classification') return;
+    expect(q.task).toBe('classification');
+    if (q.task !== 'classification') throw new Error('expected classification predictions');
     expect(Math.abs(q.probs!.reduce((s, x) => s + x, 0) - 1)).toBeLessThan(1e-15);
     // ties go to the lower class code, as everywhere in foldwise
     expect(Array.from(q.predicted)).toEqual([0]);
