@@ -76,7 +76,7 @@ export function fastChecks(ctx: AuditContext): FastFindings {
   const suspects: Suspect[] = [
     ...leakage,
     ...rareClassSuspects(problem, ctx.planned.plan, ctx.spec, ctx.planText),
-    ...duplicateSuspects(dups, ctx.planText, ctx.lineOf),
+    ...duplicateSuspects(dups, ctx.planText, ctx.lineOf, features, y),
     ...idLike,
     ...groupLikeSuspects(features, n, idNames, singleFeature.scores, ctx.scorePlanText),
     ...missing.suspects,

@@ -8,11 +8,14 @@
  * - it is numeric, not a date, every value a whole number, and either monotone in row order
  *   (at least 95% of steps between consecutive present rows go the same way) or dense (the
  *   distinct values fill at least half of the range max - min + 1), as running numbers do.
- * Measured numbers with decimals are never id-like, however unique. Rule of our own.
+ * Measured numbers with decimals are never id-like, however unique, and neither is a numeric
+ * column whose name suggests time (DATE_WORDS in date-like.ts: a "year" running with the rows
+ * is a time axis, reported as date-like). Rule of our own.
  */
 import type { FeatureData } from './feature-data.js';
 import { AUDIT_LIMITS, type Suspect } from './types.js';
-import { dropOptions, pct, q } from './wording.js';
+import { DATE_WORDS } from './date-like.js';
+import { dropOptions, nameTokens, pct, q } from './wording.js';
 
 export interface IdLikeEvidence {
   readonly present: number;
@@ -25,7 +28,7 @@ export function idLikeEvidence(f: FeatureData, n: number): IdLikeEvidence | null
   const present = n - f.missing;
   if (present < AUDIT_LIMITS.minRows || f.distinct < AUDIT_LIMITS.idShare * present) return null;
   if (f.kind === 'categorical') return { present, distinct: f.distinct, why: 'text' };
-  if (f.dates) return null;
+  if (f.dates || nameTokens(f.name).some((t) => DATE_WORDS.has(t))) return null;
   for (const i of f.order) if (!Number.isInteger(f.values[i])) return null;
   let up = 0;
   let down = 0;

@@ -41,6 +41,8 @@ export const AUDIT_LIMITS = {
   groupSkill: 0.2,
   /** expected rows of the smallest class per test fold below which it is rare */
   rareClassPerFold: 2,
+  /** a starved class is called rare only below this share of the even share 1/K (else: small folds) */
+  rareClassShare: 0.5,
   /** folds of repeat 0 above which the single-feature scores use a 5-fold plan instead */
   maxScoreFolds: 20,
   /** |skewness| of a regression target reported as strongly skewed (Bulmer 1979) */
