@@ -53,13 +53,13 @@ function csvOf(cols: ReadonlyMap<string, Col>): string {
 
 const num = (v: number): number => Number(v.toFixed(6));
 
-/** Signal in one feature: classes 1 sd apart on x1 (or y = 2 x1 + 1.2 e), four noise columns. */
+/** Signal in one feature: classes 2 sd apart on x1 (or y = 2 x1 + 1.2 e), four noise columns. */
 function dominant(n: number, seed: number, task: 'classification' | 'regression'): Map<string, Col> {
   const rng = createRng(seed);
   const cols = new Map<string, Col>([['x1', []], ['x2', []], ['x3', []], ['x4', []], ['x5', []], ['y', []]]);
   for (let i = 0; i < n; i++) {
     const cls = rng.next() < 0.5 ? 1 : 0;
-    const x1 = task === 'classification' ? gauss(rng) + cls : gauss(rng);
+    const x1 = task === 'classification' ? gauss(rng) + 2 * cls : gauss(rng);
     cols.get('x1')!.push(num(x1));
     for (const c of ['x2', 'x3', 'x4', 'x5']) cols.get(c)!.push(num(gauss(rng)));
     cols.get('y')!.push(task === 'classification' ? (cls ? 'yes' : 'no') : num(2 * x1 + 1.2 * gauss(rng)));

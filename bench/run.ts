@@ -11,6 +11,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/eval.js')).cases,
   ...(await import('./cases/honesty.js')).cases,
   ...(await import('./cases/tune.js')).cases,
+  ...(await import('./cases/audit.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {
