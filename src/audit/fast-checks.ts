@@ -10,7 +10,7 @@ import { constantSuspects } from './constant.js';
 import { dateLikeSuspects } from './date-like.js';
 import { duplicateSuspects, findDuplicates } from './duplicates.js';
 import { groupLikeSuspects } from './group-like.js';
-import { idLikeSuspects } from './id-like.js';
+import { highCardinalitySuspects, idLikeSuspects } from './id-like.js';
 import { leakageSuspects } from './leakage.js';
 import { missingMarkerSuspects } from './missing-marker.js';
 import { missingnessTests } from './missingness.js';
@@ -34,6 +34,7 @@ export const SUSPECT_ORDER: readonly SuspectKind[] = [
   'duplicate-rows',
   'conflicting-duplicates',
   'id-like',
+  'high-cardinality',
   'group-like',
   'informative-missingness',
   'correlated-cluster',
@@ -78,6 +79,7 @@ export function fastChecks(ctx: AuditContext): FastFindings {
     ...rareClassSuspects(problem, ctx.planned.plan, ctx.spec, ctx.planText),
     ...duplicateSuspects(dups, ctx.planText, ctx.lineOf, features, y),
     ...idLike,
+    ...highCardinalitySuspects(features, n, idNames),
     ...groupLikeSuspects(features, n, idNames, singleFeature.scores, ctx.scorePlanText),
     ...missing.suspects,
     ...constant,

@@ -13,6 +13,7 @@
  * is a time axis, reported as date-like). Rule of our own.
  */
 import type { FeatureData } from './feature-data.js';
+import { ONE_HOT_LIMIT } from '../prep/fold-prep.js';
 import { AUDIT_LIMITS, type Suspect } from './types.js';
 import { DATE_WORDS } from './date-like.js';
 import { dropOptions, nameTokens, pct, q } from './wording.js';
@@ -65,6 +66,34 @@ export function idLikeSuspects(features: readonly FeatureData[], n: number): Sus
       evidence: `${q(f.name)} has ${e.distinct} distinct values in ${e.present} present rows (${pct(e.distinct / e.present)}), ${how}`,
       action: `an identifier does not generalise to new rows; leave it out (${dropOptions([f.name])}), or if rows sharing it belong together, pass it with --group`,
       figures: { distinct: e.distinct, present: e.present },
+    });
+  }
+  return out;
+}
+
+/**
+ * High-cardinality categorical features (issue #25 item 16): more levels than the one-hot
+ * limit of the preprocessing (ONE_HOT_LIMIT, 50; src/prep/fold-prep.ts codes such a column by
+ * the frequency of its level in the training rows instead), and not already id-like. "warn"
+ * when it has a level for more than half of its present rows (most rows then carry a level
+ * seen a few times at most, which behaves like an identifier), "note" otherwise. Rule of our own.
+ */
+export function highCardinalitySuspects(features: readonly FeatureData[], n: number, idLike: ReadonlySet<string>): Suspect[] {
+  const out: Suspect[] = [];
+  for (const f of features) {
+    if (f.kind !== 'categorical' || idLike.has(f.name) || f.distinct <= ONE_HOT_LIMIT) continue;
+    const present = n - f.missing;
+    const sparse = f.distinct > 0.5 * present;
+    out.push({
+      kind: 'high-cardinality',
+      severity: sparse ? 'warn' : 'note',
+      columns: [f.name],
+      reasons: [sparse ? 'level-per-few-rows' : 'many-levels'],
+      evidence: `${q(f.name)} has ${f.distinct} levels in ${present} present rows (${pct(f.distinct / present)}), more than the ${ONE_HOT_LIMIT} that are one-hot encoded; the preprocessing codes it by the frequency of its level in each training fold instead`,
+      action: sparse
+        ? `most of its levels hold a row or two, like an identifier: leave it out (${dropOptions([f.name])}), or if rows sharing a level belong together, pass it with --group`
+        : `check that its levels are known at prediction time; group rare levels yourself if their identity matters more than their frequency`,
+      figures: { distinct: f.distinct, present },
     });
   }
   return out;

@@ -26,7 +26,7 @@ export function recommendations(suspects: readonly Suspect[], target: TargetProf
   // column out keeps the rows' shared outcomes on both sides of every split
   const group = columnsOf(suspects, (s) => s.kind === 'group-like' && s.severity !== 'note');
   if (group.length) out.push({ kind: 'group', columns: group, text: `group the folds by the unit the rows come from, such as --group ${q(group[0])}${group.length > 1 ? ` (candidates: ${names(group)})` : ''}; this removes the leak that shared outcomes give, which leaving the column out does not` });
-  const drop = columnsOf(suspects, (s) => ((s.kind === 'leakage' && s.severity === 'high') || s.kind === 'id-like' || s.kind === 'constant') && !s.columns.some((c) => group.includes(c)));
+  const drop = columnsOf(suspects, (s) => ((s.kind === 'leakage' && s.severity === 'high') || s.kind === 'id-like' || s.kind === 'constant' || (s.kind === 'high-cardinality' && s.severity === 'warn')) && !s.columns.some((c) => group.includes(c)));
   if (drop.length) out.push({ kind: 'drop', columns: drop, text: `leave out ${names(drop, 20)} unless each is known at prediction time and not derived from the target: ${dropOptions(drop)}` });
   const far = columnsOf(suspects, (s) => s.kind === 'leakage' && s.severity !== 'high' && !s.columns.some((c) => group.includes(c)));
   if (far.length) out.push({ kind: 'drop', columns: far, text: `find out where ${names(far)} comes from before trusting a score that rests on it; evaluate once with ${dropOptions(far)} to see how much depends on it` });

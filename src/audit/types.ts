@@ -68,6 +68,7 @@ export const SEVERITIES: readonly Severity[] = ['high', 'warn', 'note'];
 export type SuspectKind =
   | 'leakage'
   | 'id-like'
+  | 'high-cardinality'
   | 'constant'
   | 'near-constant'
   | 'duplicate-rows'
