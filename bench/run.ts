@@ -12,6 +12,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/honesty.js')).cases,
   ...(await import('./cases/tune.js')).cases,
   ...(await import('./cases/audit.js')).cases,
+  ...(await import('./cases/audit-scale.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

@@ -38,7 +38,7 @@
  */
 import type { Target } from '../learners/types.js';
 import type { Fold } from '../plans/types.js';
-import type { FeatureData } from './feature-data.js';
+import { argsortPresent, type FeatureData } from './feature-data.js';
 import type { DuplicateSummary, Suspect } from './types.js';
 import { count, fig } from './wording.js';
 
@@ -135,17 +135,19 @@ function straddling(sets: readonly Int32Array[], n: number, folds: readonly Fold
 export function findDuplicates(features: readonly FeatureData[], y: Target, folds: readonly Fold[]): DuplicateSets {
   const n = y.task === 'classification' ? y.codes.length : y.values.length;
   const targetOf = (i: number): number => (y.task === 'classification' ? y.codes[i] : y.values[i]);
-  // rows bucketed by hash, then each bucket split into sets of exactly equal rows
-  const buckets = new Map<number, number[]>();
-  for (let i = 0; i < n; i++) {
-    const h = rowHash(features, i);
-    const list = buckets.get(h);
-    if (list) list.push(i);
-    else buckets.set(h, [i]);
-  }
+  // one pass hashing every row, rows sorted by hash (native sort, no callback), then each run
+  // of equal hashes split into sets of exactly equal rows; runs come in order of hash, and the
+  // sets are sorted by first row below
+  const hashes = new Float64Array(n);
+  for (let i = 0; i < n; i++) hashes[i] = rowHash(features, i);
+  const byHash = argsortPresent(hashes);
   const byFeatures: number[][] = [];
-  for (const list of buckets.values()) {
-    if (list.length < 2) continue;
+  for (let start = 0; start < n; ) {
+    let end = start + 1;
+    while (end < n && hashes[byHash[end]] === hashes[byHash[start]]) end++;
+    const list = end - start >= 2 ? Array.from(byHash.subarray(start, end)) : null;
+    start = end;
+    if (!list) continue;
     const sets: number[][] = [];
     for (const i of list) {
       const home = sets.find((set) => sameFeatures(features, set[0], i));

@@ -64,14 +64,16 @@ export function fastChecks(ctx: AuditContext): FastFindings {
   const { problem, features } = ctx;
   const y = problem.target;
   const n = problem.rows.length;
-  const singleFeature = singleFeatureScores(problem, features, ctx.scoreFolds, ctx.scorePlanText);
-  const leakage = leakageSuspects(features, y, singleFeature);
+  // scored checks on ctx.scoreProblem (every row, or the sample above the row limit)
+  const sy = ctx.scoreProblem.target;
+  const singleFeature = singleFeatureScores(ctx.scoreProblem, ctx.scoreFeatures, ctx.scoreFolds, ctx.scorePlanText);
+  const leakage = leakageSuspects(ctx.scoreFeatures, sy, singleFeature);
   const idLike = idLikeSuspects(features, n);
   const constant = constantSuspects(features, n);
   const idNames = new Set(idLike.map((s) => s.columns[0]));
   const unusable = new Set([...idNames, ...constant.filter((s) => s.kind === 'constant').map((s) => s.columns[0])]);
   const dups = findDuplicates(features, y, ctx.planned.plan.folds);
-  const missing = missingnessTests(features, y);
+  const missing = missingnessTests(ctx.scoreFeatures, sy);
   const leaking = new Set(leakage.map((s) => s.columns[0]));
   const targetColumn = ctx.table.byName.get(problem.targetName)!;
   const suspects: Suspect[] = [
@@ -84,7 +86,7 @@ export function fastChecks(ctx: AuditContext): FastFindings {
     ...missing.suspects,
     ...constant,
     ...dateLikeSuspects(features, problem, ctx.spec, ctx.planText),
-    ...strongAssociationSuspects(features, y, new Set([...leaking, ...idNames])),
+    ...strongAssociationSuspects(ctx.scoreFeatures, sy, new Set([...leaking, ...idNames])),
     ...missingMarkerSuspects([...problem.features, targetColumn]),
   ];
   return { singleFeature, duplicates: dups.summary, missingness: missing.tests, suspects, unusable };

@@ -99,9 +99,9 @@ export interface TargetMeanCoding {
  * rounding, the mean target of the used rows holding v (for classification the share of one
  * class c among them, for the c that fits best). Rounding: half a unit of the last decimal the
  * values are written with (at most 6 decimals) plus 1e-9. Needs at least 5 distinct values,
- * at least AUDIT_LIMITS.minRows present rows, and at least one value held by two or more rows
- * (a feature unique per row matches nothing by construction unless it is the target itself,
- * which one-to-one and near-perfect catch). A rule of our own: an honest feature equals the
+ * at least AUDIT_LIMITS.minRows present rows, and at most one distinct value per 2 present rows
+ * (an encoded column has a value per level; a feature unique per row matches nothing by
+ * construction unless it is the target itself, which one-to-one and near-perfect catch). A rule of our own: an honest feature equals the
  * mean of the target over its own rows only by accident, and then for few values.
  */
 export function targetMeanCoding(f: FeatureData, y: Target): TargetMeanCoding | null {
@@ -109,10 +109,13 @@ export function targetMeanCoding(f: FeatureData, y: Target): TargetMeanCoding | 
   // runs of equal values in sorted order
   const starts: number[] = [];
   for (let j = 0; j < f.order.length; j++) if (j === 0 || f.values[f.order[j]] !== f.values[f.order[j - 1]]) starts.push(j);
-  if (starts.length < 5 || starts.length === f.order.length) return null;
-  // decimals written: the most among the values (capped at 6), from their shortest text
+  // a value per level of an encoded column: at most one value per 2 rows on average
+  if (starts.length < 5 || starts.length > f.order.length / 2) return null;
+  // decimals written: the most among (up to 200 of) the values, capped at 6, from their shortest text
   let decimals = 0;
-  for (const j of starts) {
+  const step = Math.max(1, Math.floor(starts.length / 200));
+  for (let r = 0; r < starts.length; r += step) {
+    const j = starts[r];
     const t = String(f.values[f.order[j]]);
     const dot = t.indexOf('.');
     if (t.includes('e')) decimals = 6;

@@ -47,6 +47,8 @@ export const AUDIT_LIMITS = {
   maxScoreFolds: 20,
   /** |skewness| of a regression target reported as strongly skewed (Bulmer 1979) */
   strongSkew: 1,
+  /** used rows above which the scored checks run on a seeded stratified sample of this many (sample.ts) */
+  sampleRows: 20_000,
   /** most frequent levels listed per categorical column */
   topLevels: 5,
 } as const;
@@ -228,6 +230,8 @@ export interface AuditReport {
     readonly seed: number;
   };
   readonly settings: { readonly clusterThreshold: number };
+  /** present when the scored checks ran on a sample (above AUDIT_LIMITS.sampleRows used rows) */
+  readonly sample?: { readonly rows: number; readonly of: number; readonly seed: number; readonly how: string };
   readonly columns: readonly ColumnProfile[];
   readonly target: TargetProfile;
   readonly suspects: readonly Suspect[];
