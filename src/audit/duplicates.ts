@@ -214,8 +214,9 @@ function collision(f: FeatureData, n: number): number {
   if (f.kind === 'categorical') counts.push(...f.counts);
   else {
     let run = 0;
-    for (let j = 0; j < f.order.length; j++) {
-      if (j > 0 && f.values[f.order[j]] !== f.values[f.order[j - 1]]) {
+    const sorted = f.sorted;
+    for (let j = 0; j < sorted.length; j++) {
+      if (j > 0 && sorted[j] !== sorted[j - 1]) {
         counts.push(run);
         run = 0;
       }
