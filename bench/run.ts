@@ -14,6 +14,8 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/honesty.js')).cases,
   ...(await import('./cases/tune.js')).cases,
   ...(await import('./cases/scale.js')).cases,
+  ...(await import('./cases/audit.js')).cases,
+  ...(await import('./cases/audit-scale.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

@@ -11,6 +11,7 @@ import { formatPlan } from '../plans/index.js';
 import type { Fold, PlanSpec } from '../plans/types.js';
 import { planFor, type PlannedProblem } from '../run/plan-for.js';
 import { featuresOf, type FeatureData } from './feature-data.js';
+import { sampleHow, sampleRows, subProblem, type AuditSample } from './sample.js';
 import { AUDIT_LIMITS } from './types.js';
 
 export interface AuditContext {
@@ -21,7 +22,15 @@ export interface AuditContext {
   readonly planText: string;
   readonly planned: PlannedProblem;
   readonly seed: number;
-  /** folds of the single-feature scores and the text of their plan */
+  /**
+   * what the scored checks read (sample.ts): the problem and its features, the same as
+   * `problem` and `features` up to AUDIT_LIMITS.sampleRows used rows, else a seeded sample
+   */
+  readonly scoreProblem: Problem;
+  readonly scoreFeatures: readonly FeatureData[];
+  /** set when the scored checks ran on a sample */
+  readonly sample?: AuditSample;
+  /** folds of the single-feature scores (over the rows of scoreProblem) and the text of their plan */
   readonly scoreFolds: readonly Fold[];
   readonly scorePlanText: string;
   /** used row -> table row, for line numbers in evidence */
@@ -55,21 +64,38 @@ export function auditContext(
   planned: PlannedProblem = planFor(problem, spec, stratify, seed),
 ): AuditContext {
   const warnings: string[] = [];
-  let scoreFolds: readonly Fold[] = planned.plan.folds.filter((f) => f.repeat === 0);
+  const features = featuresOf(problem);
+  let scoreProblem = problem;
+  let scoreFeatures: readonly FeatureData[] = features;
+  let scorePlanned = planned;
+  let sample: AuditSample | undefined;
+  if (problem.rows.length > AUDIT_LIMITS.sampleRows) {
+    scoreProblem = subProblem(problem, sampleRows(problem.target, AUDIT_LIMITS.sampleRows, seed));
+    scoreFeatures = featuresOf(scoreProblem);
+    scorePlanned = planFor(scoreProblem, spec, stratify, seed);
+    sample = { rows: AUDIT_LIMITS.sampleRows, of: problem.rows.length, seed, how: sampleHow(problem.target) };
+    warnings.push(
+      `audit: ${problem.rows.length} used rows are above the audit's limit of ${AUDIT_LIMITS.sampleRows}, so the scored checks (single-feature scores, leakage, missingness, associations, clusters) ran on a sample of ${AUDIT_LIMITS.sampleRows} rows drawn ${sample.how} (seed ${seed}); duplicates, constant, id-like and level counts read every row`,
+    );
+  }
+  let scoreFolds: readonly Fold[] = scorePlanned.plan.folds.filter((f) => f.repeat === 0);
   let scorePlanText = formatPlan(spec);
-  if (planned.plan.foldsPerRepeat > AUDIT_LIMITS.maxScoreFolds) {
-    const fallback = planFor(problem, SCORE_FALLBACK_PLAN, stratify, seed);
+  if (scorePlanned.plan.foldsPerRepeat > AUDIT_LIMITS.maxScoreFolds) {
+    const fallback = planFor(scoreProblem, SCORE_FALLBACK_PLAN, stratify, seed);
     scoreFolds = fallback.plan.folds;
     scorePlanText = formatPlan(SCORE_FALLBACK_PLAN);
     warnings.push(
-      `audit: the plan ${formatPlan(spec)} has ${planned.plan.foldsPerRepeat} folds per repeat, so the single-feature scores use ${scorePlanText} built from the same seed instead`,
+      `audit: the plan ${formatPlan(spec)} has ${scorePlanned.plan.foldsPerRepeat} folds per repeat, so the single-feature scores use ${scorePlanText} built from the same seed instead`,
     );
   }
   const table = problem.table;
   return {
     table,
     problem,
-    features: featuresOf(problem),
+    features,
+    scoreProblem,
+    scoreFeatures,
+    ...(sample ? { sample } : {}),
     spec,
     planText: formatPlan(spec),
     planned,

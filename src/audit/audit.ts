@@ -27,7 +27,7 @@ export function audit(table: Table, options: AuditOptions): AuditReport {
   const { plan, stratified } = ctx.planned;
 
   const fast = fastChecks(ctx);
-  const clusters = findClusters(ctx.features, problem.rows.length, fast.unusable, threshold, ctx.warnings);
+  const clusters = findClusters(ctx.scoreFeatures, ctx.scoreProblem.rows.length, fast.unusable, threshold, ctx.warnings);
   const positionOf = (name: string): number => table.byName.get(name)?.position ?? -1;
   const suspects = sortSuspects([...fast.suspects, ...clusterSuspects(clusters, threshold)], positionOf);
   const target = targetProfile(problem, plan);
@@ -54,6 +54,7 @@ export function audit(table: Table, options: AuditOptions): AuditReport {
       seed,
     },
     settings: { clusterThreshold: threshold },
+    ...(ctx.sample ? { sample: ctx.sample } : {}),
     columns: profileColumns(table, problem),
     target,
     suspects,

@@ -16,15 +16,16 @@ export function mostFrequent(f: FeatureData): { text: string; count: number } | 
     for (let k = 0; k < f.counts.length; k++) if (f.counts[k] > 0 && (best < 0 || f.counts[k] > f.counts[best])) best = k;
     return best < 0 ? null : { text: f.levels[best], count: f.counts[best] };
   }
-  if (f.order.length === 0) return null;
-  let bestValue = f.values[f.order[0]];
+  const sorted = f.sorted;
+  if (sorted.length === 0) return null;
+  let bestValue = sorted[0];
   let bestRun = 0;
   let run = 0;
-  for (let j = 0; j < f.order.length; j++) {
-    run = j > 0 && f.values[f.order[j]] === f.values[f.order[j - 1]] ? run + 1 : 1;
+  for (let j = 0; j < sorted.length; j++) {
+    run = j > 0 && sorted[j] === sorted[j - 1] ? run + 1 : 1;
     if (run > bestRun) {
       bestRun = run;
-      bestValue = f.values[f.order[j]];
+      bestValue = sorted[j];
     }
   }
   return { text: String(bestValue), count: bestRun };

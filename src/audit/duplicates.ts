@@ -9,20 +9,47 @@
  * tests it while a row with the same features and another target trains. Each row is counted
  * once however many folds it straddles in.
  *
+ * Printed before eval ("warn") only when the copies could move the score beyond fold noise:
+ * - chance: rows of coarse data coincide by chance. Under independent columns two random rows
+ *   agree on every feature with probability P = prod_f sum_v c_fv (c_fv - 1) / (n (n - 1)) (c_fv
+ *   the rows holding value v of feature f, missing counted as a value), and also on the target
+ *   with P_y, the same sum over the target's values
+ *   (conflicting: 1 - P_y); a row has a chance copy with probability 1 - (1 - P P_y)^(n-1). The
+ *   Columns are often dependent (a route fixes its distance), which that product misses, so a
+ *   second estimate is taken too: of the pairs of rows equal on every feature, a share P_y would
+ *   also agree on the target by chance (1 - P_y disagree), counting feature-equal pairs as
+ *   chance only in proportion to how coarse the data are (the share of used rows that share
+ *   their features with another row: in data of measured numbers a few equal rows are copies,
+ *   in coarse data most rows have a twin); the duplicated rows expected by
+ *   chance are the larger of the two estimates. The straddling rows expected by chance are that
+ *   many rows times the observed straddling share.
+ * - shift: the straddling rows beyond chance as a share of the n used rows: the most the score
+ *   (accuracy, balanced accuracy or R^2 alike, on a 0..1 scale) can gain when each such test row
+ *   is answered from its copy.
+ * - fold noise: 0.5 / sqrt(n), the standard error of a score that is a proportion of n rows at
+ *   its widest (p = 0.5); the spread of the cross-validated mean is of that order.
+ * "warn" when the shift exceeds the fold noise, "note" otherwise. Conflicting duplicates are
+ * reported for classification only: in regression, rows with equal features and different
+ * numeric targets are ordinary noise, not label errors. The rule and its constant are our own
+ * choice; the rates they give on our corpus are in the README ("False alarms").
+ *
  * Cost: one 53-bit hash per row (equal hashes are compared exactly), then per fold a binary search of the (ascending) training rows
  * for the other members of each duplicate set of a test row: only duplicated rows cost anything.
  */
 import type { Target } from '../learners/types.js';
 import type { Fold } from '../plans/types.js';
-import type { FeatureData } from './feature-data.js';
+import { argsortPresent, type FeatureData } from './feature-data.js';
 import type { DuplicateSummary, Suspect } from './types.js';
-import { count } from './wording.js';
+import { count, fig } from './wording.js';
 
 export interface DuplicateSets {
   readonly summary: DuplicateSummary;
   /** sets of used rows (two or more each), in order of first row */
   readonly exact: readonly Int32Array[];
   readonly conflicting: readonly Int32Array[];
+  /** pairs of used rows equal on every feature (whatever their targets), and the rows in them */
+  readonly featurePairs: number;
+  readonly featureRows: number;
 }
 
 const bits = new Float64Array(1);
@@ -108,17 +135,19 @@ function straddling(sets: readonly Int32Array[], n: number, folds: readonly Fold
 export function findDuplicates(features: readonly FeatureData[], y: Target, folds: readonly Fold[]): DuplicateSets {
   const n = y.task === 'classification' ? y.codes.length : y.values.length;
   const targetOf = (i: number): number => (y.task === 'classification' ? y.codes[i] : y.values[i]);
-  // rows bucketed by hash, then each bucket split into sets of exactly equal rows
-  const buckets = new Map<number, number[]>();
-  for (let i = 0; i < n; i++) {
-    const h = rowHash(features, i);
-    const list = buckets.get(h);
-    if (list) list.push(i);
-    else buckets.set(h, [i]);
-  }
+  // one pass hashing every row, rows sorted by hash (native sort, no callback), then each run
+  // of equal hashes split into sets of exactly equal rows; runs come in order of hash, and the
+  // sets are sorted by first row below
+  const hashes = new Float64Array(n);
+  for (let i = 0; i < n; i++) hashes[i] = rowHash(features, i);
+  const byHash = argsortPresent(hashes);
   const byFeatures: number[][] = [];
-  for (const list of buckets.values()) {
-    if (list.length < 2) continue;
+  for (let start = 0; start < n; ) {
+    let end = start + 1;
+    while (end < n && hashes[byHash[end]] === hashes[byHash[start]]) end++;
+    const list = end - start >= 2 ? Array.from(byHash.subarray(start, end)) : null;
+    start = end;
+    if (!list) continue;
     const sets: number[][] = [];
     for (const i of list) {
       const home = sets.find((set) => sameFeatures(features, set[0], i));
@@ -143,9 +172,12 @@ export function findDuplicates(features: readonly FeatureData[], y: Target, fold
   exact.sort((a, b) => a[0] - b[0]);
   conflicting.sort((a, b) => a[0] - b[0]);
   const rowsIn = (sets: readonly Int32Array[]): number => sets.reduce((s, x) => s + x.length, 0);
+  const pairs = (sets: readonly { length: number }[]): number => sets.reduce((t, x) => t + (x.length * (x.length - 1)) / 2, 0);
   return {
     exact,
     conflicting,
+    featurePairs: pairs(byFeatures),
+    featureRows: byFeatures.reduce((t, x) => t + x.length, 0),
     summary: {
       exactSets: exact.length,
       exactRows: rowsIn(exact),
@@ -169,29 +201,107 @@ function examples(sets: readonly Int32Array[], lineOf: (i: number) => number): s
     .join('; ');
 }
 
-export function duplicateSuspects(d: DuplicateSets, planText: string, lineOf: (i: number) => number): Suspect[] {
+/** Chance that two distinct rows share a value, from value counts: sum c (c - 1) / (n (n - 1)). */
+function pairShare(counts: Iterable<number>, n: number): number {
+  let s = 0;
+  for (const c of counts) s += c * (c - 1);
+  return n > 1 ? s / (n * (n - 1)) : 1;
+}
+
+/** Chance that two distinct used rows agree on a feature (missing counted as a value). */
+function collision(f: FeatureData, n: number): number {
+  const counts: number[] = [f.missing];
+  if (f.kind === 'categorical') counts.push(...f.counts);
+  else {
+    let run = 0;
+    const sorted = f.sorted;
+    for (let j = 0; j < sorted.length; j++) {
+      if (j > 0 && sorted[j] !== sorted[j - 1]) {
+        counts.push(run);
+        run = 0;
+      }
+      run++;
+    }
+    counts.push(run);
+  }
+  return pairShare(counts, n);
+}
+
+/** Chance that two distinct used rows agree on the target. */
+function targetCollision(y: Target): number {
+  const n = y.task === 'classification' ? y.codes.length : y.values.length;
+  const counts = new Map<number, number>();
+  for (let i = 0; i < n; i++) {
+    const t = y.task === 'classification' ? y.codes[i] : y.values[i];
+    counts.set(t, (counts.get(t) ?? 0) + 1);
+  }
+  return pairShare(counts.values(), n);
+}
+
+/** How far the copies across folds could move the score, against fold noise (see the head comment). */
+export interface DuplicateImpact {
+  /** straddling rows expected by chance (independent columns) */
+  readonly chanceStraddling: number;
+  /** straddling rows beyond chance over the used rows */
+  readonly shift: number;
+  /** 0.5 / sqrt(n) */
+  readonly foldNoise: number;
+}
+
+function impact(straddling: number, rows: number, n: number, pRow: number, observedPairs: number, chancePairs: number): DuplicateImpact {
+  const independent = n * (1 - (1 - pRow) ** Math.max(0, n - 1));
+  const conditional = observedPairs > 0 ? rows * Math.min(1, chancePairs / observedPairs) : 0;
+  const chanceRows = Math.max(independent, conditional);
+  const chanceStraddling = rows > 0 ? Math.min(straddling, chanceRows * (straddling / rows)) : 0;
+  return { chanceStraddling, shift: Math.max(0, straddling - chanceStraddling) / Math.max(1, n), foldNoise: 0.5 / Math.sqrt(Math.max(1, n)) };
+}
+
+export function duplicateImpacts(features: readonly FeatureData[], y: Target, d: DuplicateSets): { exact: DuplicateImpact; conflicting: DuplicateImpact } {
+  const s = d.summary;
+  const n = y.task === 'classification' ? y.codes.length : y.values.length;
+  let p = 1;
+  for (const f of features) p *= collision(f, n);
+  const py = targetCollision(y);
+  const pairs = (sets: readonly Int32Array[]): number => sets.reduce((t, x) => t + (x.length * (x.length - 1)) / 2, 0);
+  const exactPairs = pairs(d.exact);
+  // feature-equal pairs plausible by chance: weighted by how coarse the data are, the share of
+  // used rows that share their features with another row
+  const chanceFeaturePairs = d.featurePairs * (d.featureRows / Math.max(1, n));
+  return {
+    exact: impact(s.exactStraddling, s.exactRows, n, p * py, exactPairs, chanceFeaturePairs * py),
+    conflicting: impact(s.conflictingStraddling, s.conflictingRows, n, p * (1 - py), d.featurePairs - exactPairs, chanceFeaturePairs * (1 - py)),
+  };
+}
+
+export function duplicateSuspects(d: DuplicateSets, planText: string, lineOf: (i: number) => number, features: readonly FeatureData[], y: Target): Suspect[] {
   const s = d.summary;
   const out: Suspect[] = [];
+  const { exact, conflicting } = duplicateImpacts(features, y, d);
+  const moves = (m: DuplicateImpact): boolean => m.shift > m.foldNoise;
+  const weighed = (m: DuplicateImpact, what: string): string =>
+    `; beyond the ${fig(m.chanceStraddling, 1)} expected by chance in data this coarse, they could move the score by up to ${fig(m.shift)}, ${moves(m) ? 'more' : 'less'} than the fold noise ${fig(m.foldNoise)} (0.5/sqrt(n))${moves(m) ? '' : `, so ${what}`}`;
   if (s.exactSets > 0) {
+    const printed = s.exactStraddling > 0 && moves(exact);
     out.push({
       kind: 'duplicate-rows',
-      severity: s.exactStraddling > 0 ? 'warn' : 'note',
+      severity: printed ? 'warn' : 'note',
       columns: [],
-      reasons: s.exactStraddling > 0 ? ['straddling'] : ['within-folds'],
-      evidence: `${count(s.exactRows, 'used row')} in ${count(s.exactSets, 'set')} are equal on every feature and the target (${examples(d.exact, lineOf)}); under the plan ${planText}, ${count(s.exactStraddling, 'of them is', 'of them are')} tested in a fold while a copy trains`,
+      reasons: s.exactStraddling > 0 ? (printed ? ['straddling'] : ['straddling', 'within-noise']) : ['within-folds'],
+      evidence: `${count(s.exactRows, 'used row')} in ${count(s.exactSets, 'set')} are equal on every feature and the target (${examples(d.exact, lineOf)}); under the plan ${planText}, ${count(s.exactStraddling, 'of them is', 'of them are')} tested in a fold while a copy trains${s.exactStraddling > 0 ? weighed(exact, 'they are not printed before eval') : ''}`,
       action: 'copies on both sides of a split make the score optimistic: remove repeated records, or give copies a shared key and pass it with --group',
-      figures: { sets: s.exactSets, rows: s.exactRows, straddling: s.exactStraddling },
+      figures: { sets: s.exactSets, rows: s.exactRows, straddling: s.exactStraddling, chanceStraddling: exact.chanceStraddling, scoreShift: exact.shift, foldNoise: exact.foldNoise },
     });
   }
-  if (s.conflictingSets > 0) {
+  if (s.conflictingSets > 0 && y.task === 'classification') {
+    const printed = s.conflictingStraddling > 0 && moves(conflicting);
     out.push({
       kind: 'conflicting-duplicates',
-      severity: 'warn',
+      severity: printed ? 'warn' : 'note',
       columns: [],
-      reasons: s.conflictingStraddling > 0 ? ['straddling'] : ['within-folds'],
-      evidence: `${count(s.conflictingRows, 'used row')} in ${count(s.conflictingSets, 'set')} are equal on every feature but differ in the target (${examples(d.conflicting, lineOf)}); under the plan ${planText}, ${count(s.conflictingStraddling, 'of them is', 'of them are')} tested while a row with the same features and another target trains`,
+      reasons: s.conflictingStraddling > 0 ? (printed ? ['straddling'] : ['straddling', 'within-noise']) : ['within-folds'],
+      evidence: `${count(s.conflictingRows, 'used row')} in ${count(s.conflictingSets, 'set')} are equal on every feature but differ in the target (${examples(d.conflicting, lineOf)}); under the plan ${planText}, ${count(s.conflictingStraddling, 'of them is', 'of them are')} tested while a row with the same features and another target trains${s.conflictingStraddling > 0 ? weighed(conflicting, 'they are not printed before eval') : ''}`,
       action: 'check the labels of these rows: no learner can tell them apart, so they cap the best reachable score, and they may mark a missing feature',
-      figures: { sets: s.conflictingSets, rows: s.conflictingRows, straddling: s.conflictingStraddling },
+      figures: { sets: s.conflictingSets, rows: s.conflictingRows, straddling: s.conflictingStraddling, chanceStraddling: conflicting.chanceStraddling, scoreShift: conflicting.shift, foldNoise: conflicting.foldNoise },
     });
   }
   return out;

@@ -10,7 +10,7 @@ import { constantSuspects } from './constant.js';
 import { dateLikeSuspects } from './date-like.js';
 import { duplicateSuspects, findDuplicates } from './duplicates.js';
 import { groupLikeSuspects } from './group-like.js';
-import { idLikeSuspects } from './id-like.js';
+import { highCardinalitySuspects, idLikeSuspects } from './id-like.js';
 import { leakageSuspects } from './leakage.js';
 import { missingMarkerSuspects } from './missing-marker.js';
 import { missingnessTests } from './missingness.js';
@@ -34,6 +34,7 @@ export const SUSPECT_ORDER: readonly SuspectKind[] = [
   'duplicate-rows',
   'conflicting-duplicates',
   'id-like',
+  'high-cardinality',
   'group-like',
   'informative-missingness',
   'correlated-cluster',
@@ -63,26 +64,29 @@ export function fastChecks(ctx: AuditContext): FastFindings {
   const { problem, features } = ctx;
   const y = problem.target;
   const n = problem.rows.length;
-  const singleFeature = singleFeatureScores(problem, features, ctx.scoreFolds, ctx.scorePlanText);
-  const leakage = leakageSuspects(features, y, singleFeature);
+  // scored checks on ctx.scoreProblem (every row, or the sample above the row limit)
+  const sy = ctx.scoreProblem.target;
+  const singleFeature = singleFeatureScores(ctx.scoreProblem, ctx.scoreFeatures, ctx.scoreFolds, ctx.scorePlanText);
+  const leakage = leakageSuspects(ctx.scoreFeatures, sy, singleFeature);
   const idLike = idLikeSuspects(features, n);
   const constant = constantSuspects(features, n);
   const idNames = new Set(idLike.map((s) => s.columns[0]));
   const unusable = new Set([...idNames, ...constant.filter((s) => s.kind === 'constant').map((s) => s.columns[0])]);
   const dups = findDuplicates(features, y, ctx.planned.plan.folds);
-  const missing = missingnessTests(features, y);
+  const missing = missingnessTests(ctx.scoreFeatures, sy);
   const leaking = new Set(leakage.map((s) => s.columns[0]));
   const targetColumn = ctx.table.byName.get(problem.targetName)!;
   const suspects: Suspect[] = [
     ...leakage,
     ...rareClassSuspects(problem, ctx.planned.plan, ctx.spec, ctx.planText),
-    ...duplicateSuspects(dups, ctx.planText, ctx.lineOf),
+    ...duplicateSuspects(dups, ctx.planText, ctx.lineOf, features, y),
     ...idLike,
+    ...highCardinalitySuspects(features, n, idNames),
     ...groupLikeSuspects(features, n, idNames, singleFeature.scores, ctx.scorePlanText),
     ...missing.suspects,
     ...constant,
     ...dateLikeSuspects(features, problem, ctx.spec, ctx.planText),
-    ...strongAssociationSuspects(features, y, new Set([...leaking, ...idNames])),
+    ...strongAssociationSuspects(ctx.scoreFeatures, sy, new Set([...leaking, ...idNames])),
     ...missingMarkerSuspects([...problem.features, targetColumn]),
   ];
   return { singleFeature, duplicates: dups.summary, missingness: missing.tests, suspects, unusable };

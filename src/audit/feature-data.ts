@@ -15,6 +15,8 @@ export type FeatureData =
       readonly values: Float64Array;
       /** used rows with a present value, sorted by value (ties by row) */
       readonly order: Int32Array;
+      /** the present values in that order (values[order[j]]), read in sequence by the checks */
+      readonly sorted: Float64Array;
       readonly missing: number;
       readonly distinct: number;
       readonly dates: boolean;
@@ -33,9 +35,9 @@ export type FeatureData =
     };
 
 /** Number of distinct present values of a feature on the used rows. */
-function distinctOf(values: Float64Array, order: Int32Array): number {
-  let d = order.length > 0 ? 1 : 0;
-  for (let j = 1; j < order.length; j++) if (values[order[j]] !== values[order[j - 1]]) d++;
+function distinctOf(sorted: Float64Array): number {
+  let d = sorted.length > 0 ? 1 : 0;
+  for (let j = 1; j < sorted.length; j++) if (sorted[j] !== sorted[j - 1]) d++;
   return d;
 }
 
@@ -45,6 +47,74 @@ function distinctOf(values: Float64Array, order: Int32Array): number {
  * (binary search) plus the number of earlier rows with that value.
  */
 export function argsortPresent(values: Float64Array): Int32Array {
+  return values.length >= RADIX_FROM ? radixArgsort(values) : searchArgsort(values);
+}
+
+/** Sizes from which argsortPresent uses the radix sort (below it the search placement is cheaper). */
+const RADIX_FROM = 4096;
+
+const radixBits = new Float64Array(1);
+const radixWords = new Uint32Array(radixBits.buffer);
+
+/**
+ * The same order by a least-significant-digit radix sort on the 64 bits of each value, mapped
+ * so that unsigned order is numeric order (sign bit set: all bits flipped; else the sign bit
+ * set; -0 read as 0), in four stable passes of 16 bits (a pass whose digit is the same for all
+ * rows is skipped). Stable, so ties stay in row order. O(n) per pass; see D. E. Knuth, The Art
+ * of Computer Programming vol. 3, section 5.2.5 (radix sorting).
+ */
+function radixArgsort(values: Float64Array): Int32Array {
+  const n = values.length;
+  let m = 0;
+  for (let i = 0; i < n; i++) if (!Number.isNaN(values[i])) m++;
+  // keys travel with the rows, so every pass reads its arrays in order
+  let hi = new Uint32Array(m);
+  let lo = new Uint32Array(m);
+  let order = new Int32Array(m);
+  m = 0;
+  for (let i = 0; i < n; i++) {
+    const v = values[i];
+    if (Number.isNaN(v)) continue;
+    radixBits[0] = v === 0 ? 0 : v;
+    let h = radixWords[1];
+    let l = radixWords[0];
+    if (h & 0x80000000) {
+      h = ~h >>> 0;
+      l = ~l >>> 0;
+    } else h = (h | 0x80000000) >>> 0;
+    hi[m] = h;
+    lo[m] = l;
+    order[m++] = i;
+  }
+  let hi2 = new Uint32Array(m);
+  let lo2 = new Uint32Array(m);
+  let order2 = new Int32Array(m);
+  const counts = new Int32Array(65536);
+  for (const [high, shift] of [[false, 0], [false, 16], [true, 0], [true, 16]] as const) {
+    const words = high ? hi : lo;
+    counts.fill(0);
+    for (let j = 0; j < m; j++) counts[(words[j] >>> shift) & 0xffff]++;
+    if (m > 0 && counts[(words[0] >>> shift) & 0xffff] === m) continue;
+    let at = 0;
+    for (let d = 0; d < 65536; d++) {
+      const c = counts[d];
+      counts[d] = at;
+      at += c;
+    }
+    for (let j = 0; j < m; j++) {
+      const to = counts[(words[j] >>> shift) & 0xffff]++;
+      hi2[to] = hi[j];
+      lo2[to] = lo[j];
+      order2[to] = order[j];
+    }
+    [hi, hi2] = [hi2, hi];
+    [lo, lo2] = [lo2, lo];
+    [order, order2] = [order2, order];
+  }
+  return order;
+}
+
+function searchArgsort(values: Float64Array): Int32Array {
   const n = values.length;
   let m = 0;
   for (let i = 0; i < n; i++) if (!Number.isNaN(values[i])) m++;
@@ -76,14 +146,17 @@ export function featureData(problem: Problem, col: Column): FeatureData {
     const values = new Float64Array(n);
     for (let i = 0; i < n; i++) values[i] = col.values[rows[i]];
     const order = argsortPresent(values);
+    const sorted = new Float64Array(order.length);
+    for (let j = 0; j < order.length; j++) sorted[j] = values[order[j]];
     return {
       kind: 'numeric',
       name: col.name,
       column: col,
       values,
       order,
+      sorted,
       missing: n - order.length,
-      distinct: distinctOf(values, order),
+      distinct: distinctOf(sorted),
       dates: col.dates === true,
     };
   }

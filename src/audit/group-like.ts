@@ -6,9 +6,15 @@
  * A feature is group-like when it is not id-like, its values repeat (at least 2 rows per
  * value on average and a median of at least 2), and either it is categorical with at least
  * AUDIT_LIMITS.groupMinLevels (10) levels, or its name contains a word that usually names a
- * unit of grouping (GROUP_WORDS; then any kind and at least 2 values). Severity "warn" when
- * the name suggests a group or the feature alone predicts the target with skill >= 0.2 under
- * the random plan (its rows share outcomes), "note" otherwise. A rule of our own.
+ * unit of grouping (GROUP_WORDS; then any kind and at least 2 values). Severity "warn" (printed
+ * before eval) when all three hold: the feature alone predicts the target with skill >=
+ * AUDIT_LIMITS.groupSkill (0.2) under the random plan (its rows share outcomes, so a random
+ * split can move the score), its name suggests a unit of grouping, and it has at least
+ * AUDIT_LIMITS.groupMinLevels (10) values (units drawn from many, so new ones are to be
+ * expected at prediction time). Otherwise "note": statistically a strong categorical feature
+ * and an ignored grouping look the same, and a name alone, or a few fixed levels (6 sites of a
+ * field trial), cannot tell them apart. A rule of our own; the rates it gives on our corpus are
+ * in the README ("False alarms").
  */
 import type { FeatureData } from './feature-data.js';
 import { AUDIT_LIMITS, type FeatureScore, type Suspect } from './types.js';
@@ -60,7 +66,7 @@ export function groupLikeSuspects(
     const shares = skill !== null && skill >= AUDIT_LIMITS.groupSkill;
     out.push({
       kind: 'group-like',
-      severity: named || shares ? 'warn' : 'note',
+      severity: shares && named && sizes.length >= AUDIT_LIMITS.groupMinLevels ? 'warn' : 'note',
       columns: [f.name],
       reasons: [...(named ? ['name'] : []), ...(f.distinct >= AUDIT_LIMITS.groupMinLevels ? ['many-levels'] : []), ...(shares ? ['shared-outcomes'] : [])],
       evidence: `${q(f.name)} has ${sizes.length} values repeated over ${present} rows (${fig(mean, 1)} rows each on average, median ${median}, largest ${sizes[sizes.length - 1]})${shares ? `, and alone it predicts the target with skill ${fig(skill)} under ${planText}` : ''}; the plan does not group by it`,

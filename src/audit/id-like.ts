@@ -8,11 +8,15 @@
  * - it is numeric, not a date, every value a whole number, and either monotone in row order
  *   (at least 95% of steps between consecutive present rows go the same way) or dense (the
  *   distinct values fill at least half of the range max - min + 1), as running numbers do.
- * Measured numbers with decimals are never id-like, however unique. Rule of our own.
+ * Measured numbers with decimals are never id-like, however unique, and neither is a numeric
+ * column whose name suggests time (DATE_WORDS in date-like.ts: a "year" running with the rows
+ * is a time axis, reported as date-like). Rule of our own.
  */
 import type { FeatureData } from './feature-data.js';
+import { ONE_HOT_LIMIT } from '../prep/fold-prep.js';
 import { AUDIT_LIMITS, type Suspect } from './types.js';
-import { dropOptions, pct, q } from './wording.js';
+import { DATE_WORDS } from './date-like.js';
+import { dropOptions, nameTokens, pct, q } from './wording.js';
 
 export interface IdLikeEvidence {
   readonly present: number;
@@ -25,7 +29,7 @@ export function idLikeEvidence(f: FeatureData, n: number): IdLikeEvidence | null
   const present = n - f.missing;
   if (present < AUDIT_LIMITS.minRows || f.distinct < AUDIT_LIMITS.idShare * present) return null;
   if (f.kind === 'categorical') return { present, distinct: f.distinct, why: 'text' };
-  if (f.dates) return null;
+  if (f.dates || nameTokens(f.name).some((t) => DATE_WORDS.has(t))) return null;
   for (const i of f.order) if (!Number.isInteger(f.values[i])) return null;
   let up = 0;
   let down = 0;
@@ -62,6 +66,34 @@ export function idLikeSuspects(features: readonly FeatureData[], n: number): Sus
       evidence: `${q(f.name)} has ${e.distinct} distinct values in ${e.present} present rows (${pct(e.distinct / e.present)}), ${how}`,
       action: `an identifier does not generalise to new rows; leave it out (${dropOptions([f.name])}), or if rows sharing it belong together, pass it with --group`,
       figures: { distinct: e.distinct, present: e.present },
+    });
+  }
+  return out;
+}
+
+/**
+ * High-cardinality categorical features (issue #25 item 16): more levels than the one-hot
+ * limit of the preprocessing (ONE_HOT_LIMIT, 50; src/prep/fold-prep.ts codes such a column by
+ * the frequency of its level in the training rows instead), and not already id-like. "warn"
+ * when it has a level for more than half of its present rows (most rows then carry a level
+ * seen a few times at most, which behaves like an identifier), "note" otherwise. Rule of our own.
+ */
+export function highCardinalitySuspects(features: readonly FeatureData[], n: number, idLike: ReadonlySet<string>): Suspect[] {
+  const out: Suspect[] = [];
+  for (const f of features) {
+    if (f.kind !== 'categorical' || idLike.has(f.name) || f.distinct <= ONE_HOT_LIMIT) continue;
+    const present = n - f.missing;
+    const sparse = f.distinct > 0.5 * present;
+    out.push({
+      kind: 'high-cardinality',
+      severity: sparse ? 'warn' : 'note',
+      columns: [f.name],
+      reasons: [sparse ? 'level-per-few-rows' : 'many-levels'],
+      evidence: `${q(f.name)} has ${f.distinct} levels in ${present} present rows (${pct(f.distinct / present)}), more than the ${ONE_HOT_LIMIT} that are one-hot encoded; the preprocessing codes it by the frequency of its level in each training fold instead`,
+      action: sparse
+        ? `most of its levels hold a row or two, like an identifier: leave it out (${dropOptions([f.name])}), or if rows sharing a level belong together, pass it with --group`
+        : `check that its levels are known at prediction time; group rare levels yourself if their identity matters more than their frequency`,
+      figures: { distinct: f.distinct, present },
     });
   }
   return out;

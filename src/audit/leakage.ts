@@ -7,12 +7,18 @@
  *   (needs two or more scored features);
  * - "one-to-one" / "determines": see target-mapping.ts.
  *
- * Severity "high" for all but a lone "far-above" ("warn": a dataset whose signal really sits in
- * one feature is flagged too; it is a request to check where that feature comes from). The
- * cut-offs are our own choice; no published threshold exists for this check.
+ * - "target-mean": a numeric feature whose every value equals the mean target (the share of
+ *   one class, or the mean of a numeric target) of the used rows holding that value, within
+ *   rounding: target encoding computed on all rows, test rows included (targetMeanCoding).
+ *
+ * Severity "high" for every reason but a lone "far-above", which is a "note" in the full audit
+ * only (so not printed before eval): a data set whose signal sits in one feature (a dose, a
+ * temperature, a price) is the normal case in many trades, and a lone strong feature is no
+ * pattern that leaks produce. The cut-offs are our own choice; no published threshold exists
+ * for this check; the rates they give on our corpus are in the README ("False alarms").
  */
 import type { FeatureData } from './feature-data.js';
-import { targetMapping, type TargetMapping } from './target-mapping.js';
+import { targetMapping, targetMeanCoding, type TargetMapping } from './target-mapping.js';
 import { AUDIT_LIMITS, type SingleFeatureScores, type Suspect } from './types.js';
 import { count, dropOptions, fig, q } from './wording.js';
 import type { Target } from '../learners/types.js';
@@ -63,8 +69,14 @@ export function leakageSuspects(features: readonly FeatureData[], y: Target, sco
           : `each of its ${count(mapping.values, 'value')} occurs with a single target value in all ${mapping.rows} rows where it is present`,
       );
     }
+    const encoded = targetMeanCoding(f, y);
+    if (encoded) {
+      reasons.push('target-mean');
+      figures.values = encoded.values;
+      parts.push(`each of its ${count(encoded.values, 'value')} equals the mean target of the ${encoded.rows} rows holding it (largest gap ${encoded.gap.toPrecision(2)}): target encoding computed on all rows, test rows included`);
+    }
     if (!reasons.length) return;
-    const severity = reasons.length === 1 && reasons[0] === 'far-above' ? 'warn' : 'high';
+    const severity = reasons.length === 1 && reasons[0] === 'far-above' ? 'note' : 'high';
     out.push({
       kind: 'leakage',
       severity,

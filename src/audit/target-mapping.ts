@@ -84,3 +84,58 @@ export function targetMapping(f: FeatureData, y: Target, minRows: number = AUDIT
   }
   return up || down ? { reason: 'one-to-one', values: count, rows: present } : null;
 }
+
+export interface TargetMeanCoding {
+  /** distinct values of the feature */
+  readonly values: number;
+  /** present rows */
+  readonly rows: number;
+  /** largest |value - mean target of its rows| */
+  readonly gap: number;
+}
+
+/**
+ * Target encoding on all rows: a numeric feature whose every distinct value v equals, within
+ * rounding, the mean target of the used rows holding v (for classification the share of one
+ * class c among them, for the c that fits best). Rounding: half a unit of the last decimal the
+ * values are written with (at most 6 decimals) plus 1e-9. Needs at least 5 distinct values,
+ * at least AUDIT_LIMITS.minRows present rows, and at most one distinct value per 2 present rows
+ * (an encoded column has a value per level; a feature unique per row matches nothing by
+ * construction unless it is the target itself, which one-to-one and near-perfect catch). A rule of our own: an honest feature equals the
+ * mean of the target over its own rows only by accident, and then for few values.
+ */
+export function targetMeanCoding(f: FeatureData, y: Target): TargetMeanCoding | null {
+  if (f.kind !== 'numeric' || f.order.length < AUDIT_LIMITS.minRows) return null;
+  // runs of equal values in sorted order
+  const starts: number[] = [];
+  for (let j = 0; j < f.order.length; j++) if (j === 0 || f.values[f.order[j]] !== f.values[f.order[j - 1]]) starts.push(j);
+  // a value per level of an encoded column: at most one value per 2 rows on average
+  if (starts.length < 5 || starts.length > f.order.length / 2) return null;
+  // decimals written: the most among (up to 200 of) the values, capped at 6, from their shortest text
+  let decimals = 0;
+  const step = Math.max(1, Math.floor(starts.length / 200));
+  for (let r = 0; r < starts.length; r += step) {
+    const j = starts[r];
+    const t = String(f.values[f.order[j]]);
+    const dot = t.indexOf('.');
+    if (t.includes('e')) decimals = 6;
+    else if (dot >= 0) decimals = Math.max(decimals, Math.min(6, t.length - dot - 1));
+  }
+  const tol = 0.5 * 10 ** -decimals + 1e-9;
+  const classes = y.task === 'classification' ? y.classes.length : 1;
+  let best: number | null = null;
+  for (let c = 0; c < classes; c++) {
+    let gap = 0;
+    for (let r = 0; r < starts.length && gap <= tol; r++) {
+      const end = r + 1 < starts.length ? starts[r + 1] : f.order.length;
+      let sum = 0;
+      for (let j = starts[r]; j < end; j++) {
+        const i = f.order[j];
+        sum += y.task === 'classification' ? (y.codes[i] === c ? 1 : 0) : y.values[i];
+      }
+      gap = Math.max(gap, Math.abs(sum / (end - starts[r]) - f.values[f.order[starts[r]]]));
+    }
+    if (gap <= tol && (best === null || gap < best)) best = gap;
+  }
+  return best === null ? null : { values: starts.length, rows: f.order.length, gap: best };
+}

@@ -41,10 +41,14 @@ export const AUDIT_LIMITS = {
   groupSkill: 0.2,
   /** expected rows of the smallest class per test fold below which it is rare */
   rareClassPerFold: 2,
+  /** a starved class is called rare only below this share of the even share 1/K (else: small folds) */
+  rareClassShare: 0.5,
   /** folds of repeat 0 above which the single-feature scores use a 5-fold plan instead */
   maxScoreFolds: 20,
   /** |skewness| of a regression target reported as strongly skewed (Bulmer 1979) */
   strongSkew: 1,
+  /** used rows above which the scored checks run on a seeded stratified sample of this many (sample.ts) */
+  sampleRows: 20_000,
   /** most frequent levels listed per categorical column */
   topLevels: 5,
 } as const;
@@ -66,6 +70,7 @@ export const SEVERITIES: readonly Severity[] = ['high', 'warn', 'note'];
 export type SuspectKind =
   | 'leakage'
   | 'id-like'
+  | 'high-cardinality'
   | 'constant'
   | 'near-constant'
   | 'duplicate-rows'
@@ -225,6 +230,8 @@ export interface AuditReport {
     readonly seed: number;
   };
   readonly settings: { readonly clusterThreshold: number };
+  /** present when the scored checks ran on a sample (above AUDIT_LIMITS.sampleRows used rows) */
+  readonly sample?: { readonly rows: number; readonly of: number; readonly seed: number; readonly how: string };
   readonly columns: readonly ColumnProfile[];
   readonly target: TargetProfile;
   readonly suspects: readonly Suspect[];

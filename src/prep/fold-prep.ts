@@ -8,7 +8,19 @@
  * - categorical columns: missing values imputed with the most frequent training level (ties go
  *   to the level seen first in the file), then one-hot encoded over the levels seen in training;
  *   a level never seen in training maps to all zeros. One-hot columns are never rescaled.
+ * - high-cardinality categorical columns: a column with more than ONE_HOT_LIMIT (50) levels
+ *   seen in the training rows is not one-hot encoded (a level per row would give as many
+ *   columns as rows) but frequency coded: one numeric column `name(frequency)` holding the
+ *   share of the training rows that have the row's level (a level never seen in training: 0;
+ *   a missing value takes the most frequent training level first). The shares come from the
+ *   training rows only; for distance-based learners the column is standardised with the
+ *   training mean and sd like any numeric column. Columns at or under the limit are encoded
+ *   exactly as before. The limit is our own choice: 50 levels keep one-hot width modest for
+ *   the learners here, and the audit flags columns above it (`high-cardinality`).
  */
+
+/** Most levels seen in training that a categorical column is one-hot encoded with. */
+export const ONE_HOT_LIMIT = 50;
 import type { Problem } from '../data/problem.js';
 import type { Matrix } from '../learners/types.js';
 
@@ -17,7 +29,16 @@ export type Impute = (typeof IMPUTE_CHOICES)[number];
 
 export type PrepColumn =
   | { readonly kind: 'numeric'; readonly name: string; readonly fill: number; readonly mean: number; readonly sd: number }
-  | { readonly kind: 'categorical'; readonly name: string; readonly fill: number; readonly levels: readonly number[] };
+  | { readonly kind: 'categorical'; readonly name: string; readonly fill: number; readonly levels: readonly number[] }
+  | {
+      readonly kind: 'frequency';
+      readonly name: string;
+      readonly fill: number;
+      /** share of the training rows per level code (0 for levels not seen in training) */
+      readonly shares: Float64Array;
+      readonly mean: number;
+      readonly sd: number;
+    };
 
 export interface FittedPrep {
   readonly columns: readonly PrepColumn[];
@@ -110,6 +131,27 @@ export function fitPrep(problem: Problem, train: Int32Array, impute: Impute = 'm
         levels.push(k);
         if (fill < 0 || counts[k] > counts[fill]) fill = k;
       }
+      if (levels.length > ONE_HOT_LIMIT) {
+        const shares = new Float64Array(counts.length);
+        const n = train.length;
+        for (let k = 0; k < counts.length; k++) shares[k] = counts[k] / n;
+        let sum = 0;
+        let ss = 0;
+        for (let t = 0; t < n; t++) {
+          const c = col.codes[rows[train[t]]];
+          sum += shares[c < 0 ? fill : c];
+        }
+        const mean = sum / n;
+        for (let t = 0; t < n; t++) {
+          const c = col.codes[rows[train[t]]];
+          ss += (shares[c < 0 ? fill : c] - mean) ** 2;
+        }
+        const sd = Math.sqrt(ss / n);
+        columns.push({ kind: 'frequency', name: col.name, fill, shares, mean, sd: sd > 0 ? sd : 1 });
+        names.push(`${col.name}(frequency)`);
+        source.push(f);
+        return;
+      }
       columns.push({ kind: 'categorical', name: col.name, fill, levels });
       for (const k of levels) {
         names.push(`${col.name}=${col.levels[k]}`);
@@ -146,6 +188,15 @@ export function applyPrep(problem: Problem, prep: FittedPrep, idx: Int32Array, s
         if (s >= 0) data[i * width + offset + s] = 1;
       }
       offset += pc.levels.length;
+    } else if (pc.kind === 'frequency' && col.kind === 'categorical') {
+      const shift = scale ? pc.mean : 0;
+      const div = scale ? pc.sd : 1;
+      for (let i = 0; i < idx.length; i++) {
+        let c = col.codes[rows[idx[i]]];
+        if (c < 0) c = pc.fill;
+        data[i * width + offset] = ((c < 0 ? 0 : pc.shares[c]) - shift) / div;
+      }
+      offset += 1;
     }
   });
   return { rows: idx.length, cols: width, data };

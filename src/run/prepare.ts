@@ -125,7 +125,16 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
   }
   if (planSpec.kind === 'loo') {
-    warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');
+    if (problem.groups !== undefined) {
+      // leave-one-group-out: a fold tests one whole group, not one row
+      const n = problem.rows.length;
+      const g = plan.foldsPerRepeat;
+      warnings.push(
+        `leave-one-group-out: each fold scores one group of ${quoted(problem.groupName ?? '')} (${g} folds, ${(n / g).toFixed(1)} rows a fold on average), so the per-fold spread mixes group sizes; read the pooled scores beside it`,
+      );
+    } else {
+      warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');
+    }
   }
   return {
     table,

@@ -145,10 +145,10 @@ function classesOf(proba: Float64Array, n: number, C: number): Int32Array {
 }
 
 /** Predictions (and probabilities, for classes) from raw scores: what predict and probabilities give. */
-export function outputsOf(parts: BoostParts, F: Float64Array, rows: number): { predicted: Int32Array | Float64Array; proba?: Float64Array } {
+export function outputsOf(parts: BoostParts, F: Float64Array, rows: number): { predicted: Int32Array | Float64Array; probs?: Float64Array } {
   if (parts.task === 'regression') return { predicted: F };
   const proba = probaOf(parts, F, rows);
-  return { predicted: classesOf(proba, rows, parts.classCount), proba };
+  return { predicted: classesOf(proba, rows, parts.classCount), probs: proba };
 }
 
 export function makeBoostModel(parts: BoostParts): BoostModel {
