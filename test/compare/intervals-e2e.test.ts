@@ -123,7 +123,7 @@ describe('every reported ci95, recomputed from the report itself', () => {
       const d = foldScores(l2, 'accuracy').map((v, i) => v - foldScores(l1, 'accuracy')[i]);
       close(row.stats!.ci95, expectedPairedInterval(d, meanSizes(l2.folds), true, RANGE.accuracy), `compare ${row.first}`);
     }
-    const v = await json<GateVerdict>(['gate', '--baseline', a, '--current', b, '--learner', 'knn']);
+    const v = await json<GateVerdict>(['gate', '--previous', a, '--current', b, '--learner', 'knn']);
     const kb = first.learners.find((l) => l.spec === 'knn')!;
     const kc = second.learners.find((l) => l.spec === 'knn')!;
     const change = foldScores(kc, 'accuracy').map((x, i) => x - foldScores(kb, 'accuracy')[i]);
@@ -139,7 +139,7 @@ describe('every reported ci95, recomputed from the report itself', () => {
     const bReport = await json<Report>(['eval', ...CLS, '--seed', '7']);
     const b = tmp.file('u2.json', JSON.stringify(bReport));
     const aReport = JSON.parse(await import('node:fs').then((fs) => fs.readFileSync(a, 'utf8'))) as Report;
-    const v = await json<GateVerdict>(['gate', '--baseline', a, '--current', b, '--learner', 'knn']);
+    const v = await json<GateVerdict>(['gate', '--previous', a, '--current', b, '--learner', 'knn']);
     expect(v.rule).toBe('unpaired');
     const side = (r: Report) => {
       const l = r.learners.find((x) => x.spec === 'knn')!;

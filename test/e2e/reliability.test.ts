@@ -75,7 +75,7 @@ describe('a closed standard output is a quiet end', () => {
   it.skipIf(!existsSync('/dev/full'))('a full disk behind standard output is exit 2 with one line, never 1', () => {
     const report = join(tmp.dir, 'base.json');
     expect(spawnSync(process.execPath, [BIN, ...EVAL, '--learner', 'knn', '--plan', 'kfold:3', '--json', report]).status).toBe(0);
-    const r = sh(`$FW gate --baseline '${report}' --current '${report}' > /dev/full`);
+    const r = sh(`$FW gate --previous '${report}' --current '${report}' > /dev/full`);
     expect(r.status).toBe(2);
     expect(r.stderr).toBe('foldwise: standard output: cannot be written (ENOSPC); the disk is full\n');
   });
