@@ -20,6 +20,7 @@ import { appendFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { type Command, Option } from 'commander';
 import { DEFAULT_ALPHA, DEFAULT_MAX_DROP, gateReports } from '../compare/gate.js';
+import { DEFAULT_POWER } from '../stats/power.js';
 import { NotComparableError } from '../compare/match-reports.js';
 import { readReport } from '../compare/read-report.js';
 import { renderGateMarkdown, renderNotComparableMarkdown } from '../compare/render.js';
@@ -41,6 +42,7 @@ interface GateFlags {
   alpha: string;
   worstAllowed?: string;
   absoluteMin?: string;
+  power: string;
   accept?: boolean;
   json?: string;
   verbose?: boolean;
@@ -85,9 +87,10 @@ function runGate(flags: GateFlags, io: Io): number {
   const cur = readReport(flags.current, 'gate --current');
   const toStdout = flags.json !== '-';
 
+  const power = parseNumberOption(flags.power, '--power', 'a number above alpha and below 1 (such as 0.8)');
   let verdict: GateVerdict;
   try {
-    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, worstAllowed });
+    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, worstAllowed, power });
   } catch (e) {
     if (e instanceof NotComparableError) {
       const md = renderNotComparableMarkdown(e.reason);
@@ -126,6 +129,7 @@ export function registerGate(prog: Command, io: Io, setCode: (code: number) => v
     .option('--current-learner <spec>', 'the learner in the current report, when its spec differs (default: the same spec)')
     .option('--max-drop <d>', "allowed drop in the metric's units, in its worse direction", String(DEFAULT_MAX_DROP))
     .option('--alpha <a>', 'one-sided level of the test that the drop exceeds --max-drop beyond fold noise', String(DEFAULT_ALPHA))
+    .option('--power <p>', 'the power at which the verdict states the smallest drop it could have caught', String(DEFAULT_POWER))
     .option('--worst-allowed <x>', "also fail when the current mean is worse than this score in the metric's better direction (a floor for accuracy, a ceiling for rmse)")
     .addOption(new Option('--absolute-min <x>', 'the old name of --worst-allowed (refused)').hideHelp())
     .option('--accept', 'when the gate passes, replace the previous report by the current one, atomically')

@@ -29,6 +29,8 @@ import type { LoadedReport } from './read-report.js';
 import { baselineOf, bestBy, findLearner } from './select.js';
 import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest } from './gate-rule.js';
 import type { GateVerdict } from './types.js';
+import { checkPowerSetting, DEFAULT_POWER, mddInSe } from '../stats/power.js';
+import { tQuantile } from '../stats/index.js';
 
 export const GATE_SCHEMA = 'foldwise-gate/2';
 export const DEFAULT_MAX_DROP = 0;
@@ -41,6 +43,8 @@ export interface GateOptions {
   readonly maxDrop?: number;
   readonly alpha?: number;
   readonly worstAllowed?: number;
+  /** the power at which the verdict states the drop it could detect (default 0.8) */
+  readonly power?: number;
 }
 
 /** Every fold score of the metric, or an InputError naming the file and the folds without one. */
@@ -127,6 +131,16 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   const reasons: ('regression' | 'worst-allowed')[] = [];
   if (test.regression) reasons.push('regression');
   if (worse) reasons.push('worst-allowed');
+  // what this gate could see: the standard error behind its bound, and the drop it catches with the asked power
+  const power = options.power ?? DEFAULT_POWER;
+  checkPowerSetting({ alpha, power });
+  const se = test.df > 0 ? (test.drop - test.dropBound) / tQuantile(1 - alpha, test.df) : 0;
+  const mdd = se > 0 && Number.isFinite(se) ? mddInSe(test.df, { alpha, power }) * se : null;
+  if (mdd !== null && maxDrop > 0 && mdd > maxDrop) {
+    warnings.push(
+      `this gate cannot see a drop of the size it guards: with this plan's fold noise a drop is caught with power ${power} only from ${num(maxDrop + mdd)} on (--max-drop ${maxDrop} plus ${num(mdd)}); more repeats help (foldwise power ${base.path} --drop ${maxDrop})`,
+    );
+  }
   return {
     schema: GATE_SCHEMA,
     verdict: reasons.length ? 'fail' : 'pass',
@@ -148,6 +162,9 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
     df: test.df,
     p: test.p,
     worstAllowed: options.worstAllowed ?? null,
+    detectable: mdd === null ? null : { power, mdd, drop: maxDrop + mdd },
     warnings,
   };
 }
+
+const num = (v: number): string => (Math.abs(v) >= 1 ? v.toFixed(3) : v.toPrecision(3));

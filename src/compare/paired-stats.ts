@@ -26,7 +26,9 @@
  * Biometrics Bulletin 1(6):80-83, 1945 (free links in src/stats/corrected-interval.ts and
  * src/stats/wilcoxon.ts).
  */
-import { mean } from 'simple-statistics';
+import { mean, sampleVariance } from 'simple-statistics';
+import { minimalDetectable } from '../stats/power.js';
+
 import { InputError } from '../errors.js';
 import {
   binomialVarianceFloor,
@@ -40,6 +42,9 @@ import {
   type SummaryRules,
 } from '../stats/index.js';
 import type { Direction, PairedStats } from './types.js';
+
+/** The comparisons' minimal detectable difference: two-sided 0.05 (one-sided 0.025), power 0.8 (common practice). */
+const COMPARISON_POWER = { alpha: 0.025, power: 0.8 };
 
 /** Which way `diff` points for a metric: "better", "worse" or "equal". */
 export function directionOf(diff: number, higherIsBetter: boolean): Direction {
@@ -84,13 +89,16 @@ export function pairedStats(
   const wil = { n: w.n, tPlus: w.tPlus, tMinus: w.tMinus, p: w.p, method: w.method };
   if (j < 2) {
     const diff = learner[0] - reference[0];
-    return { ...base, diff, direction: directionOf(diff, higherIsBetter), ci95: null, t: null, df: null, p: null, wilcoxon: wil, wins, ties, losses };
+    return { ...base, diff, direction: directionOf(diff, higherIsBetter), ci95: null, t: null, df: null, p: null, wilcoxon: wil, mdd: null, wins, ties, losses };
   }
   let sum = 0;
   for (let i = 0; i < j; i++) sum += learner[i] - reference[i];
   const rows = correction.testRows + correction.trainRows;
   const floor = rules.proportion ? binomialVarianceFloor(Math.abs(sum / j), rows) / correctedVarianceFactor(j, correction) : 0;
   const ct = correctedT(learner, reference, correction, 0.95, floor);
+  const diffs = learner.map((x, i) => x - reference[i]);
+  const s2 = Math.max(sampleVariance(diffs), floor);
+  const mdd = s2 > 0 ? minimalDetectable({ folds: j, variance: s2, testRows: correction.testRows, trainRows: correction.trainRows }, COMPARISON_POWER) : null;
   return {
     ...base,
     diff: ct.meanDiff,
@@ -100,6 +108,7 @@ export function pairedStats(
     df: ct.df,
     p: ct.p,
     wilcoxon: wil,
+    mdd,
     wins,
     ties,
     losses,

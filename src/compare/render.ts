@@ -105,6 +105,9 @@ export function renderGateMarkdown(v: GateVerdict): string {
     why += `${v.reasons.includes('regression') ? '; and ' : '; but '}the score is worse than the worst allowed ${limit(v.worstAllowed as number)} (--worst-allowed)`;
   }
   out.push(`- **Verdict:** ${v.verdict}: ${why}`);
+  if (v.detectable) {
+    out.push(`- **Could see:** a drop of at least ${num(v.detectable.drop)} would have been caught with power ${v.detectable.power} (the allowed ${limit(v.maxDrop)} plus the minimal detectable difference ${num(v.detectable.mdd)} of these folds)`);
+  }
   if (v.accepted !== undefined) {
     out.push(v.accepted ? `- **Previous report:** replaced by the current report (--accept)` : `- **Previous report:** kept; --accept replaces it only when the gate passes`);
   }

@@ -50,6 +50,12 @@ export interface PairedStats {
   /** two-sided p-value of the corrected t; null whenever t is */
   readonly p: number | null;
   readonly wilcoxon: WilcoxonFigures;
+  /**
+   * the minimal detectable difference: the smallest true difference the two-sided corrected test
+   * at 0.05 finds with power 0.8 (src/stats/power.ts, one-sided 0.025); null with fewer than 2
+   * paired folds or no spread. A difference smaller than this can go unseen.
+   */
+  readonly mdd: number | null;
   /** folds where this learner is better / equal / worse than the reference */
   readonly wins: number;
   readonly ties: number;
@@ -131,6 +137,12 @@ export interface GateVerdict {
   readonly p: number;
   /** the --worst-allowed limit, or null */
   readonly worstAllowed: number | null;
+  /**
+   * what the gate could detect: the minimal detectable difference of its one-sided test at alpha
+   * with the given power (src/stats/power.ts), and the drop it catches with that power
+   * (maxDrop + mdd); null when the folds show no spread
+   */
+  readonly detectable: { readonly power: number; readonly mdd: number; readonly drop: number } | null;
   /** present when --accept was given: whether the previous report's file was replaced */
   readonly accepted?: boolean;
   readonly warnings: readonly string[];

@@ -93,6 +93,7 @@ function comparisonSection(report: Report): string[] {
     e.t === null ? (e.p === 0 ? (e.diff > 0 ? '∞' : '-∞') : '–') : e.t.toFixed(2),
     pText(e.p),
     pText(e.wilcoxon.p),
+    e.mdd === null || e.mdd === undefined ? '–' : num(e.mdd),
     `${e.wins}/${e.ties}/${e.losses}`,
   ]);
   const counts = c.pairs.map((e) => e.folds);
@@ -103,12 +104,12 @@ function comparisonSection(report: Report): string[] {
     `## ${cell(c.metric)}: paired comparisons on the same folds`,
     '',
     table(
-      ['learner', 'vs', 'difference', '95% interval (corrected)', 't', 'p', 'Wilcoxon p', 'wins/ties/losses'],
-      ['l', 'l', 'r', 'r', 'r', 'r', 'r', 'r'],
+      ['learner', 'vs', 'difference', '95% interval (corrected)', 't', 'p', 'Wilcoxon p', 'detectable', 'wins/ties/losses'],
+      ['l', 'l', 'r', 'r', 'r', 'r', 'r', 'r', 'r'],
       rows,
     ),
     '',
-    `_difference = learner minus reference over ${folds} (${cell(c.metric)}: ${c.higherIsBetter ? 'higher' : 'lower'} is better); interval, t and p use the Nadeau-Bengio correction; the Wilcoxon test treats folds as independent, so its p is too small and only describes._`,
+    `_difference = learner minus reference over ${folds} (${cell(c.metric)}: ${c.higherIsBetter ? 'higher' : 'lower'} is better); interval, t and p use the Nadeau-Bengio correction; the Wilcoxon test treats folds as independent, so its p is too small and only describes; detectable = the smallest true difference the corrected test (two-sided 0.05) finds with power 0.8: a smaller one can go unseen._`,
     '',
   ];
 }

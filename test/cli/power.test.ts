@@ -15,9 +15,9 @@ import { tempFolder } from '../helpers/tmp.js';
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
 
-function powerOf(delta: number, J: number, testRows: number, trainRows: number, variance: number): number {
+function powerOf(delta: number, J: number, testRows: number, trainRows: number, variance: number, alpha = 0.05): number {
   const se = Math.sqrt((1 / J + testRows / trainRows) * variance);
-  const crit = jStat.studentt.inv(0.95, J - 1);
+  const crit = jStat.studentt.inv(1 - alpha, J - 1);
   return 1 - jStat.noncentralt.cdf(crit, J - 1, delta / se);
 }
 
@@ -60,5 +60,44 @@ describe('foldwise power', () => {
     const bad = await cli(['power', h, '--drop', '0.02']);
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(/has no repeats to add/);
+  });
+});
+
+describe('what the gate and the comparisons can detect', () => {
+  it('the verdict states the drop it catches with the asked power, recomputed from the report by jstat (noncentral t)', async () => {
+    const json = join(tmp.dir, 'g.json');
+    expect((await cli(['eval', penguins, '--target', 'Species', '--drop', 'Island', '--learner', 'knn', '--learner', 'knn:k=9', '--plan', 'kfold:5x2', '--json', json, '--quiet', '--no-timing'])).code).toBe(0);
+    const r = await cli(['gate', '--previous', json, '--current', json, '--learner', 'knn', '--current-learner', 'knn:k=9', '--metric', 'log-loss', '--max-drop', '1', '--json', '-']);
+    expect(r.code).toBe(0);
+    const v = JSON.parse(r.stdout);
+    expect(v.detectable).not.toBeNull();
+    // two learners on the same folds (k = 5 against k = 9); recompute from the verdict's own
+    // numbers: SE = (drop - dropBound) / t_{df, 1-alpha}
+    const se = (v.drop - v.dropBound) / jStat.studentt.inv(1 - v.alpha, v.df);
+    expect(se).toBeGreaterThan(0);
+    const reached = 1 - jStat.noncentralt.cdf(jStat.studentt.inv(1 - v.alpha, v.df), v.df, v.detectable.mdd / se);
+    expect(Math.abs(reached - 0.8)).toBeLessThan(1e-6);
+    expect(v.detectable.drop).toBe(v.maxDrop + v.detectable.mdd);
+  });
+
+  it('every comparison in a report carries its minimal detectable difference (two-sided 0.05, power 0.8)', async () => {
+    const json = join(tmp.dir, 'c.json');
+    expect((await cli(['eval', penguins, '--target', 'Species', '--drop', 'Island', '--learner', 'knn', '--learner', 'forest:trees=10', '--plan', 'kfold:5x2', '--json', json, '--quiet', '--no-timing'])).code).toBe(0);
+    const report = JSON.parse(readFileSync(json, 'utf8')) as Report;
+    const pairs = report.comparisons!.pairs;
+    expect(pairs.length).toBeGreaterThan(0);
+    let checked = 0;
+    for (const p of pairs) {
+      if (p.mdd === null) continue;
+      const a = report.learners.find((l) => l.spec === p.learner)!.folds.map((f) => f.scores[report.comparisons!.metric]!);
+      const b = report.learners.find((l) => l.spec === p.reference)!.folds.map((f) => f.scores[report.comparisons!.metric]!);
+      const d = a.map((x, i) => x - b[i]);
+      const m = d.reduce((s, x) => s + x, 0) / d.length;
+      const v = d.reduce((s, x) => s + (x - m) ** 2, 0) / (d.length - 1);
+      // accuracy's variance is floored (README, "The report"): the MDD uses the larger of the two
+      expect(powerOf(p.mdd, d.length, p.testRows, p.trainRows, v, 0.025)).toBeGreaterThanOrEqual(0.8 - 1e-6);
+      checked++;
+    }
+    expect(checked).toBeGreaterThan(0);
   });
 });
