@@ -10,7 +10,7 @@
  *   a level never seen in training maps to all zeros. One-hot columns are never rescaled.
  */
 import type { Problem } from '../data/problem.js';
-import type { Matrix } from '../learners/types.js';
+import type { Matrix } from '../learning.js';
 
 export const IMPUTE_CHOICES = ['median', 'mean'] as const;
 export type Impute = (typeof IMPUTE_CHOICES)[number];
