@@ -11,7 +11,7 @@
  */
 import { createWriteStream } from 'node:fs';
 import { once } from 'node:events';
-import { createRng, type Rng } from '../src/run/rng.js';
+import { createRng, type Rng } from '../src/rng.js';
 
 export type ScaleKind = 'numeric' | 'half-categorical';
 

@@ -5,8 +5,8 @@
  * classification: class 1 when f(x) + 0.5 e > 0, e ~ N(0, 1), else class 0
  * regression:     y = f(x) + 0.5 e
  */
-import type { Matrix, Target } from '../src/learners/types.js';
-import { type Rng, createRng } from '../src/run/rng.js';
+import type { Matrix, Target } from '../src/learning.js';
+import { type Rng, createRng } from '../src/rng.js';
 
 export interface Problem {
   readonly X: Matrix;

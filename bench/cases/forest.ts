@@ -12,9 +12,9 @@
  *   Slow (several minutes): run it alone, `npm run bench -- forest-million --runs 1`.
  */
 import { RandomForestClassifier } from 'ml-random-forest';
-import type { Matrix, Model, Target } from '../../src/learners/types.js';
+import type { Matrix, Model, Target } from '../../src/learning.js';
 import { forest, isCartModel } from '../../src/learners/forest.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { type BenchCase, type BenchTable, fixed, heapUsedMb, peakRssMb, timeMedian, timeOnce } from '../case.js';
 import { rowArrays, syntheticProblem } from '../synthetic.js';
 

@@ -9,8 +9,8 @@
  */
 import { knn } from '../../src/learners/knn.js';
 import { knnRef } from '../../src/learners/knn-ref.js';
-import type { Matrix } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 import { type BenchCase, fixed, peakRssMb, timeMedian, timeOnce } from '../case.js';
 import { syntheticProblem } from '../synthetic.js';
 

@@ -7,8 +7,8 @@
  */
 import { forest } from '../../src/learners/forest.js';
 import { fitLogistic, logistic } from '../../src/learners/logistic.js';
-import type { Learner, Model, Params, Target } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Learner, Model, Params, Target } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 import { type BenchCase, fixed, timeMedian } from '../case.js';
 import { oneHotProblem } from '../synthetic.js';
 

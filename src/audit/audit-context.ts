@@ -9,7 +9,7 @@ import type { Table } from '../data/types.js';
 import { UsageError } from '../errors.js';
 import { formatPlan } from '../plans/index.js';
 import type { Fold, PlanSpec } from '../plans/types.js';
-import { planFor, type PlannedProblem } from '../run/plan-for.js';
+import { planFor, type PlannedProblem } from '../plans/plan-for.js';
 import { featuresOf, type FeatureData } from './feature-data.js';
 import { sampleHow, sampleRows, subProblem, type AuditSample } from './sample.js';
 import { AUDIT_LIMITS } from './types.js';

@@ -8,7 +8,7 @@
 import { dataSection, defineProblem } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { parsePlan } from '../plans/index.js';
-import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
+import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../plans/defaults.js';
 import { VERSION } from '../version.js';
 import { auditContext, checkClusterThreshold } from './audit-context.js';
 import { clusterSuspects, findClusters } from './clusters.js';

@@ -36,7 +36,7 @@
  * Cost: one 53-bit hash per row (equal hashes are compared exactly), then per fold a binary search of the (ascending) training rows
  * for the other members of each duplicate set of a test row: only duplicated rows cost anything.
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import type { Fold } from '../plans/types.js';
 import { argsortPresent, type FeatureData } from './feature-data.js';
 import type { DuplicateSummary, Suspect } from './types.js';

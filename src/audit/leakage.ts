@@ -21,7 +21,7 @@ import type { FeatureData } from './feature-data.js';
 import { targetMapping, targetMeanCoding, type TargetMapping } from './target-mapping.js';
 import { AUDIT_LIMITS, type SingleFeatureScores, type Suspect } from './types.js';
 import { count, dropOptions, fig, q } from './wording.js';
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 
 export function leakageSuspects(features: readonly FeatureData[], y: Target, scores: SingleFeatureScores): Suspect[] {
   const ranked = scores.scores

@@ -8,7 +8,7 @@
  * rules perform well on most commonly used datasets", Machine Learning 11, 1993 (free copy:
  * https://link.springer.com/article/10.1023/A:1022631118932).
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 
 export interface LevelTable {
   /** prediction per level code; index `levels` is the missing value */

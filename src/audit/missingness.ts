@@ -11,7 +11,7 @@
  * files do not flag negligible differences; J. Cohen, Statistical Power Analysis for the
  * Behavioral Sciences, 2nd ed., 1988, section 7.2).
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import { chiSquareTest } from './chi-square.js';
 import { cramersVOf } from './cramers-v.js';
 import { isPresent, type FeatureData } from './feature-data.js';

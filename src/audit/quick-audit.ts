@@ -16,7 +16,7 @@ import type { Table } from '../data/types.js';
 import { UsageError } from '../errors.js';
 import { parsePlan } from '../plans/index.js';
 import type { PlanSpec } from '../plans/types.js';
-import type { PlannedProblem } from '../run/plan-for.js';
+import type { PlannedProblem } from '../plans/plan-for.js';
 import { auditContext, checkAuditSeed } from './audit-context.js';
 import { fastChecks, sortSuspects } from './fast-checks.js';
 import type { Suspect } from './types.js';

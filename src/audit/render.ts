@@ -3,7 +3,7 @@
  * was audited, the suspects with evidence and action, the recommendations, the target, one
  * compact table of every column, the single-feature scores, the clusters, and the warnings.
  */
-import { cell } from '../report/markdown.js';
+import { cell } from '../markdown-text.js';
 import type { AuditReport, ColumnProfile } from './types.js';
 import { isoDate } from './wording.js';
 

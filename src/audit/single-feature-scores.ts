@@ -22,7 +22,7 @@
  * training rows in sorted order are that order filtered by a membership mask, O(n) per fold.
  */
 import type { Problem } from '../data/problem.js';
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import type { Fold } from '../plans/types.js';
 import type { FeatureData } from './feature-data.js';
 import { fitLevelTable, predictLevelTable } from './level-table.js';

@@ -8,7 +8,7 @@
  * not carry over to levels it has not seen. Features already reported as leakage are skipped,
  * and so are features with more than one level per 5 present rows (fewLevels in feature-data.ts).
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import { chiSquareTest } from './chi-square.js';
 import { contingency, cramersVOf } from './cramers-v.js';
 import { fewLevels, type FeatureData } from './feature-data.js';

@@ -4,7 +4,7 @@
  * quartiles, type 7 as in numeric-summary.ts; a value equal to a cut goes to the lower bin, so
  * heavy ties can leave a bin empty, which the tests then drop).
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import { quantileSorted } from './numeric-summary.js';
 import { fig } from './wording.js';
 

@@ -15,7 +15,7 @@
  * Any of these is a copy or recoding of the target unless the relation is known to hold at
  * prediction time. Pure definitions; no source needed beyond that of a function.
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import type { FeatureData } from './feature-data.js';
 import { AUDIT_LIMITS } from './types.js';
 

@@ -4,9 +4,9 @@
  * missingness, unused group or time structure), with the evidence and what to do about it.
  * Its JSON Schema is schema/audit.schema.json (format `foldwise-audit/2`).
  */
-import type { DataSection } from '../report/types.js';
+import type { DataSection } from '../model/report.js';
 import type { ProblemOptions } from '../data/problem.js';
-import type { Task } from '../learners/types.js';
+import type { Task } from '../learning.js';
 import type { PlanSpec } from '../plans/types.js';
 
 export const AUDIT_SCHEMA = 'foldwise-audit/2';

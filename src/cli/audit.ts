@@ -12,7 +12,8 @@ import { AUDIT_LIMITS } from '../audit/types.js';
 import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
-import { addDataOptions, checkOutputs, loadOptionsOf, parseSeed, sourceOf, type DataFlags, type Io, problemOptionsOf } from './run.js';
+import { addDataOptions, checkOutputs, loadOptionsOf, parseSeed, sourceOf, type DataFlags, problemOptionsOf } from './data-options.js';
+import type { Io } from './io.js';
 
 interface AuditFlags extends DataFlags {
   plan: string;

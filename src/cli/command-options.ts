@@ -12,7 +12,7 @@ import { InputError } from '../errors.js';
 import { processGone } from '../report/atomic.js';
 import { onCleanup } from './cleanup.js';
 import { parseCommandPrograms, type CommandSetup } from '../learners/index.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 

@@ -12,7 +12,7 @@ import { renderCompareMarkdown } from '../compare/render.js';
 import { EXIT_OK } from '../errors.js';
 import { writeFileAtomic } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 interface CompareFlags {
   json?: string;

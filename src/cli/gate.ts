@@ -24,11 +24,11 @@ import { DEFAULT_POWER } from '../stats/power.js';
 import { NotComparableError } from '../compare/match-reports.js';
 import { readReport } from '../compare/read-report.js';
 import { renderGateMarkdown, renderNotComparableMarkdown } from '../compare/render.js';
-import type { GateVerdict } from '../compare/types.js';
+import type { GateVerdict } from '../model/compare.js';
 import { EXIT_OK, EXIT_REGRESSION, UsageError } from '../errors.js';
 import { checkWritable, writeFilesAtomic, type FileWrite } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 interface GateFlags {
   previous?: string;

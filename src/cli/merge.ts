@@ -9,7 +9,7 @@ import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { mergePartsWithRecords, parsePartial } from '../run/partial.js';
 import { checkPredictionsPath, withPredictions } from './predictions-output.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 interface MergeFlags {
   json?: string;

@@ -6,7 +6,7 @@
  * comes after the files.
  */
 import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 export interface OutputFlags {
   json?: string;

@@ -11,7 +11,7 @@ import { EXIT_OK } from '../errors.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { DEFAULT_POWER } from '../stats/power.js';
 import { parseNumberOption } from './gate.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 interface PowerFlags {
   drop: string;

@@ -4,7 +4,7 @@ import { UsageError } from '../errors.js';
 import { stageChunks, writeChunks, type ChunkSink, type Staged } from '../report/atomic-stream.js';
 import type { ReportFrame, TaskRecord } from '../run/evaluate.js';
 import { predictionsCsv } from '../run/predictions-out.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 /** Refuses file formats foldwise does not write yet (the name decides the format). */
 export function checkPredictionsPath(path: string | undefined): void {

@@ -8,7 +8,7 @@
  * interval), so a short run prints none. Nothing at all with --quiet.
  */
 import { SingleBar } from 'cli-progress';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 export interface Progress {
   /** bytes of the input read so far, of `total` when known */

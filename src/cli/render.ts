@@ -10,16 +10,16 @@ import { Ajv, type ValidateFunction } from 'ajv';
 import type { Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { readReport, schemaPath } from '../compare/read-report.js';
-import type { GateVerdict } from '../compare/types.js';
+import type { GateVerdict } from '../model/compare.js';
 import { EXIT_OK, InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
 import { writeFileAtomic } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
 import { renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
-import type { TuneReport } from '../report/tune-types.js';
+import type { TuneReport } from '../model/tune.js';
 import { TUNE_SCHEMA } from '../search/tune.js';
 import { REPORT_SCHEMA } from '../version.js';
-import type { Io } from './run.js';
+import type { Io } from './io.js';
 
 const GATE_SCHEMA = 'foldwise-gate/2';
 

@@ -7,7 +7,7 @@
 import { Option, type Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
-import { TASKS, type Task } from '../learners/types.js';
+import { TASKS, type Task } from '../learning.js';
 import { getMetric } from '../metrics/index.js';
 import { checkWritable } from '../report/atomic.js';
 import { renderEvalHtml } from '../report/html/index.js';
@@ -15,7 +15,8 @@ import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { scoreReport } from '../score/score-report.js';
 import { writeOutputs } from './output.js';
-import { parseDelimiter, type Io } from './run.js';
+import { parseDelimiter } from './data-options.js';
+import type { Io } from './io.js';
 
 interface ScoreFlags {
   actual?: string;

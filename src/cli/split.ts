@@ -7,7 +7,8 @@ import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
 import { splitTable } from '../run/split.js';
-import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, type Io, problemOptionsOf } from './run.js';
+import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, problemOptionsOf } from './data-options.js';
+import type { Io } from './io.js';
 
 interface SplitFlags extends DataFlags {
   plan: string;

@@ -27,7 +27,8 @@ import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tuneWithPredict
 import { tuneRecords } from '../search/tune-predictions.js';
 import { checkKeep, keptText } from '../run/predictions-out.js';
 import { checkPredictionsPath, withPredictions } from './predictions-output.js';
-import { addDataOptions, checkOutputs, type DataFlags, type Io, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './run.js';
+import { addDataOptions, checkOutputs, type DataFlags, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './data-options.js';
+import type { Io } from './io.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 

@@ -5,8 +5,8 @@
  * warnings (`audit`); on standard error each reads as it did when it was a warning.
  */
 import { AUDIT_WARNING_PREFIX } from '../audit/quick-audit.js';
-import type { ReportAudit } from '../report/types.js';
-import type { Io } from './run.js';
+import type { ReportAudit } from '../model/report.js';
+import type { Io } from './io.js';
 
 export function printAuditSuspects(io: Io, audit: ReportAudit | undefined): void {
   for (const s of audit?.suspects ?? []) io.stderr.write(`foldwise: warning: ${AUDIT_WARNING_PREFIX}${s.replace(/\r?\n|\r/g, ' ')}\n`);

@@ -15,13 +15,13 @@
  */
 import { UsageError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import type { LearnerReport } from '../report/types.js';
+import type { LearnerReport } from '../model/report.js';
 import { NotComparableError, reportDifferences, versionWarning } from './match-reports.js';
 import { pairFolds } from './pair-folds.js';
 import { pairedStats } from './paired-stats.js';
 import type { LoadedReport } from './read-report.js';
 import { findLearner } from './select.js';
-import type { CrossComparison, CrossRow } from './types.js';
+import type { CrossComparison, CrossRow } from '../model/compare.js';
 
 export interface CompareOptions {
   readonly metric?: string;

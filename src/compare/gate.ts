@@ -22,13 +22,13 @@
  */
 import { UsageError, InputError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import type { LearnerReport } from '../report/types.js';
+import type { LearnerReport } from '../model/report.js';
 import { foldScore, pairFolds } from './pair-folds.js';
 import { describeDifferences, NotComparableError, reportDifferences, versionWarning } from './match-reports.js';
 import type { LoadedReport } from './read-report.js';
 import { baselineOf, bestBy, findLearner } from './select.js';
 import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest } from './gate-rule.js';
-import type { GateVerdict } from './types.js';
+import type { GateVerdict } from '../model/compare.js';
 import { checkPowerSetting, DEFAULT_POWER, mddInSe } from '../stats/power.js';
 import { tQuantile } from '../stats/index.js';
 

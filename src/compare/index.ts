@@ -1,5 +1,5 @@
 /** Paired comparison of learners on identical folds, report matching and the gate rule. */
-export type * from './types.js';
+export type * from '../model/compare.js';
 export { pairFolds, foldScore, type FoldPairing, type FoldKey } from './pair-folds.js';
 export { pairedStats, directionOf } from './paired-stats.js';
 export { baselineOf, bestBy, findLearner, summaryMean } from './select.js';

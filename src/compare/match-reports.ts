@@ -21,7 +21,7 @@
  * each fold tests, plan.assignment) and it is the same, with the same task and metric set.
  */
 import { InputError } from '../errors.js';
-import type { Report } from '../report/types.js';
+import type { Report } from '../model/report.js';
 
 export interface ReportDifference {
   /** dotted field name, e.g. "plan.seed" */

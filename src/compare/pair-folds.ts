@@ -11,7 +11,7 @@
  * Within one report every learner sees the same folds; across reports the folds are the same
  * only when data, plan, seed, stratification, group and order are (see match-reports.ts).
  */
-import type { FoldScores, LearnerReport } from '../report/types.js';
+import type { FoldScores, LearnerReport } from '../model/report.js';
 import type { ResampleCorrection } from '../stats/index.js';
 
 export interface FoldKey {

@@ -41,7 +41,7 @@ import {
   type ResampleCorrection,
   type SummaryRules,
 } from '../stats/index.js';
-import type { Direction, PairedStats } from './types.js';
+import type { Direction, PairedStats } from '../model/compare.js';
 
 /** The comparisons' minimal detectable difference: two-sided 0.05 (one-sided 0.025), power 0.8 (common practice). */
 const COMPARISON_POWER = { alpha: 0.025, power: 0.8 };

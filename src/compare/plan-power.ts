@@ -20,7 +20,7 @@
 import { sampleVariance } from 'simple-statistics';
 import { InputError, UsageError } from '../errors.js';
 import { getMetric } from '../metrics/index.js';
-import type { LearnerReport, Report } from '../report/types.js';
+import type { LearnerReport, Report } from '../model/report.js';
 import { minimalDetectable, repeatsFor, type PowerSetting } from '../stats/power.js';
 import { pairFolds } from './pair-folds.js';
 import { baselineOf, bestBy, findLearner } from './select.js';

@@ -13,7 +13,7 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
-import type { Report } from '../report/types.js';
+import type { Report } from '../model/report.js';
 import { REPORT_SCHEMA } from '../version.js';
 
 export interface LoadedReport {

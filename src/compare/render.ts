@@ -2,8 +2,8 @@
  * Markdown for people: the `foldwise compare` table and the gate verdict, short enough for a
  * pull-request comment. Numbers have four decimals; differences carry their sign.
  */
-import { cell, num } from '../report/markdown.js';
-import type { CrossComparison, GateVerdict } from './types.js';
+import { cell, num } from '../markdown-text.js';
+import type { CrossComparison, GateVerdict } from '../model/compare.js';
 
 /** A signed number with four decimals ("+0.0120", "-0.0031"), or "–". */
 export function signed(v: number | null | undefined): string {

@@ -9,7 +9,7 @@
  */
 import { closeNames, UsageError } from '../errors.js';
 import { formatSpec, getLearner, parseLearnerSpec, resolveParams } from '../learners/index.js';
-import type { LearnerReport, Report } from '../report/types.js';
+import type { LearnerReport, Report } from '../model/report.js';
 
 /** The summary mean of a metric, or undefined when the learner has none. */
 export function summaryMean(learner: LearnerReport, metric: string): number | undefined {

@@ -11,11 +11,11 @@
  * A report with one learner, or with no pair left, has no comparisons field.
  */
 import { getMetric } from '../metrics/index.js';
-import type { LearnerReport, Report } from '../report/types.js';
+import type { LearnerReport, Report } from '../model/report.js';
 import { pairFolds } from './pair-folds.js';
 import { pairedStats } from './paired-stats.js';
 import { baselineOf, bestBy } from './select.js';
-import type { Against, ComparisonEntry, ReportComparisons } from './types.js';
+import type { Against, ComparisonEntry, ReportComparisons } from '../model/compare.js';
 
 export const COMPARISON_LEVEL = 0.95;
 

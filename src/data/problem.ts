@@ -4,11 +4,11 @@
  * group and order columns used only for splitting.
  */
 import { closeNames, InputError, UsageError } from '../errors.js';
-import type { Target, Task } from '../learners/types.js';
+import type { Target, Task } from '../learning.js';
 import { quoted } from './load-csv.js';
 import { delimiterHint } from './delimiter-hint.js';
 import { numericTargetBreak, orderBreak } from './type-breaks.js';
-import type { DataSection } from '../report/types.js';
+import type { DataSection } from './types.js';
 import type { Column, Table } from './types.js';
 
 /** An integer target with at most this many distinct values is taken as classification. */

@@ -3,6 +3,8 @@
  * categorical columns are integer codes into a level table, -1 for missing. Columns are found
  * by name through a Map, never through a plain object (a CSV header may be `__proto__`).
  */
+import type { Task } from '../learning.js';
+
 export type ColumnKind = 'numeric' | 'categorical';
 
 export interface NumericColumn {
@@ -63,4 +65,21 @@ export interface Table {
   readonly warnings: readonly string[];
   /** the field separator the file was read with (absent in tables not read from a CSV) */
   readonly delimiter?: string;
+}
+
+/** What every report says about its data: the same fields in eval, tune and audit reports. */
+export interface DataSection {
+  readonly path: string;
+  readonly sha256: string;
+  readonly rows: number;
+  readonly columns: number;
+  readonly rowsUsed: number;
+  readonly excludedRows: number;
+  readonly target: string;
+  readonly task: Task;
+  readonly classes?: readonly string[];
+  readonly features: readonly string[];
+  readonly dropped: readonly string[];
+  /** how each date column among the features and --order was read (absent when there is none) */
+  readonly dates?: readonly { readonly column: string; readonly read: string }[];
 }

@@ -17,7 +17,7 @@ import { METRICS, type MetricName } from '../metrics/index.js';
 import { mae } from '../metrics/mae.js';
 import * as medianAbsolute from '../metrics/medae.js';
 import { readOptions, stringOption } from './cart/options.js';
-import type { Learner, Matrix, Model, ParamSpec } from './types.js';
+import type { Learner, Matrix, Model, ParamSpec } from '../learning.js';
 
 interface BaselineJSON {
   readonly learner: 'baseline';

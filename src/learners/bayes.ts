@@ -13,7 +13,7 @@
 import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { checkFinite } from './external/standardise.js';
-import type { Learner, Matrix, Model } from './types.js';
+import type { Learner, Matrix, Model } from '../learning.js';
 
 interface BayesJSON {
   readonly learner: 'bayes';

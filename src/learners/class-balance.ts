@@ -15,7 +15,7 @@
  * balanced accuracy and macro recall keep their meaning and are the scores it aims to raise.
  */
 import { UsageError } from '../errors.js';
-import type { ParamSpec } from './types.js';
+import type { ParamSpec } from '../learning.js';
 
 export const REBALANCE_SPEC: ParamSpec = {
   name: 'rebalance',

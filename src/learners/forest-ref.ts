@@ -11,7 +11,7 @@
 import { argmaxRows } from './argmax.js';
 import { InputError } from '../errors.js';
 import { refForest, rowsOf, type RefForest } from './reference-libs.js';
-import type { Learner, Matrix, Model } from './types.js';
+import type { Learner, Matrix, Model } from '../learning.js';
 
 export const REF_FEATURES = ['all', 'sqrt', 'log2'] as const;
 

@@ -19,7 +19,7 @@
  * Model extras: importance() (mean decrease in impurity, summing to 1), predictPrefix(X, k),
  * probabilitiesPrefix(X, k), treeSizes(); see cart/model.ts.
  */
-import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from './types.js';
+import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from '../learning.js';
 import { MAX_BINS } from './cart/bins.js';
 import { parseFeatureCount } from './cart/feature-count.js';
 import { fitCart } from './cart/fit-trees.js';

@@ -16,7 +16,7 @@ import { commandLearner } from './command/learner.js';
 import type { CommandSetup } from './command/program.js';
 import { loadModuleLearner } from './module-learner.js';
 import { externalKind, parseLearnerSpec } from './spec.js';
-import type { Learner, Task } from './types.js';
+import type { Learner, Task } from '../learning.js';
 
 export const LEARNERS: ReadonlyMap<string, Learner> = new Map(
   [baseline, forest, tree, knn, knnRef, forestRef, linear, logistic, bayes, boost].map((l) => [l.name, l] as const),
@@ -85,4 +85,4 @@ export function getLearner(name: string): Learner {
 
 export { parseCommandPrograms, type CommandProgram, type CommandSetup } from './command/program.js';
 export { defaultParams, formatSpec, parseLearnerSpec, resolveParams } from './spec.js';
-export type { Learner, Matrix, Model, Params, ParamSpec, Target, Task } from './types.js';
+export type { Learner, Matrix, Model, Params, ParamSpec, Target, Task } from '../learning.js';

@@ -5,7 +5,7 @@
  */
 import { InputError } from '../errors.js';
 import { refKnn, rowsOf } from './reference-libs.js';
-import type { Learner, Matrix } from './types.js';
+import type { Learner, Matrix } from '../learning.js';
 
 interface SavedKnnRef {
   readonly learner: 'knn-ref';

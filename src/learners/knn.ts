@@ -16,7 +16,7 @@
  * When k exceeds the number of training rows, all training rows are the neighbours.
  */
 import { InputError } from '../errors.js';
-import type { Learner, Matrix, Model, Target } from './types.js';
+import type { Learner, Matrix, Model, Target } from '../learning.js';
 
 export const KNN_VOTES = ['equal', 'inverse'] as const;
 type Vote = (typeof KNN_VOTES)[number];

@@ -16,7 +16,7 @@
  */
 import { InputError } from '../errors.js';
 import { checkFinite, fitStandardiser, standardise } from './external/standardise.js';
-import type { Learner, Matrix, Model } from './types.js';
+import type { Learner, Matrix, Model } from '../learning.js';
 
 interface LinearJSON {
   readonly learner: 'linear';

@@ -33,7 +33,7 @@ import { InputError } from '../errors.js';
 import { checkFinite, fitStandardiser, standardise, type Standardiser } from './external/standardise.js';
 import { numberOption, readOptions, stringOption } from './cart/options.js';
 import { REBALANCE_SPEC, classWeights } from './class-balance.js';
-import type { Learner, Matrix, Model, ParamSpec } from './types.js';
+import type { Learner, Matrix, Model, ParamSpec } from '../learning.js';
 
 export type LogisticForm = 'reference' | 'symmetric';
 

@@ -18,7 +18,7 @@ import { statSync } from 'node:fs';
 import { isAbsolute, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { InputError, UsageError } from '../errors.js';
-import { TASKS, type Learner, type Matrix, type Model, type ParamSpec, type Task } from './types.js';
+import { TASKS, type Learner, type Matrix, type Model, type ParamSpec, type Task } from '../learning.js';
 
 const PROBA_TOL = 1e-6;
 

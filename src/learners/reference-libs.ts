@@ -4,7 +4,7 @@
  * given the small interfaces foldwise uses.
  */
 import { createRequire } from 'node:module';
-import type { Matrix } from './types.js';
+import type { Matrix } from '../learning.js';
 
 const require = createRequire(import.meta.url);
 

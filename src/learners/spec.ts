@@ -12,7 +12,7 @@
  */
 import { closeNames, UsageError } from '../errors.js';
 import { renamedOptionMessage, renamedValueMessage } from '../renamed.js';
-import type { Learner, Params, ParamSpec, ParamValue, Task } from './types.js';
+import type { Learner, Params, ParamSpec, ParamValue, Task } from '../learning.js';
 
 export interface LearnerSpec {
   /** the text as given (or the learner name alone) */

@@ -10,7 +10,7 @@
  * index, then the lowest threshold. Missing values: fit throws InputError on NaN or infinite
  * features; predict sends NaN to the left child.
  */
-import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from './types.js';
+import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from '../learning.js';
 import { fitCart } from './cart/fit-trees.js';
 import { partsFromJSON } from './cart/flat-forest.js';
 import { type CartModel, makeModel } from './cart/model.js';

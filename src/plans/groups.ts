@@ -23,7 +23,7 @@
  * where each part with a positive target must take one group or the last part (training)
  * must keep one.
  */
-import { shuffleInPlace, type Rng } from '../run/rng.js';
+import { shuffleInPlace, type Rng } from '../rng.js';
 import type { CodeIndex } from './codes.js';
 
 function coarseLargestFirst(groups: CodeIndex, rng: Rng): number[] {

@@ -17,7 +17,7 @@
  * One fold: repeat 0, fold 0. Errors: empty training or validation rows, too few groups.
  */
 import { InputError } from '../errors.js';
-import { shuffleInPlace } from '../run/rng.js';
+import { shuffleInPlace } from '../rng.js';
 import { apportion } from './apportion.js';
 import { rowsWhere } from './assemble.js';
 import { indexCodes } from './codes.js';

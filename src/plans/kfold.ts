@@ -23,7 +23,7 @@
  * groups, fewer groups) than K.
  */
 import { InputError } from '../errors.js';
-import { shuffleInPlace } from '../run/rng.js';
+import { shuffleInPlace } from '../rng.js';
 import { foldsFromParts } from './assemble.js';
 import { indexCodes } from './codes.js';
 import { formatPlan } from './format.js';

@@ -20,7 +20,7 @@
  * Errors: an empty test or training set (too few rows for F), fewer than 2 groups.
  */
 import { InputError } from '../errors.js';
-import { shuffleInPlace } from '../run/rng.js';
+import { shuffleInPlace } from '../rng.js';
 import { apportion } from './apportion.js';
 import { rowsWhere } from './assemble.js';
 import { indexCodes } from './codes.js';

@@ -2,7 +2,7 @@
  * Resampling plans. A plan spec is parsed from text (`kfold:10`, `kfold:5x3`, `loo`,
  * `resplit:20@0.25`, `holdout:0.6/0.2/0.2`, `forward:5`) and built into folds over the rows.
  */
-import type { Rng } from '../run/rng.js';
+import type { Rng } from '../rng.js';
 
 export const PLAN_KINDS = ['kfold', 'loo', 'resplit', 'holdout', 'forward'] as const;
 export type PlanKind = (typeof PLAN_KINDS)[number];

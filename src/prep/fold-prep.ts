@@ -22,7 +22,7 @@
 /** Most levels seen in training that a categorical column is one-hot encoded with. */
 export const ONE_HOT_LIMIT = 50;
 import type { Problem } from '../data/problem.js';
-import type { Matrix } from '../learners/types.js';
+import type { Matrix } from '../learning.js';
 
 export const IMPUTE_CHOICES = ['median', 'mean'] as const;
 export type Impute = (typeof IMPUTE_CHOICES)[number];

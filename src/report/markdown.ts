@@ -4,30 +4,12 @@
  * matrix of the best learner, the quick audit's suspects, and the warnings. Numbers are
  * right-aligned with four decimals.
  */
-import { foldCount, foldLabel } from './fold-label.js';
-import type { LearnerReport, Report, ReportAudit, ScoreSummary } from './types.js';
+import { foldCount, foldLabel } from '../model/fold-label.js';
+import type { LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 
-const DIGITS = 4;
+import { cell, code, inline, num } from '../markdown-text.js';
 
-/** Escapes text for a Markdown table cell (pipes, backslashes, line breaks, HTML brackets). */
-export function cell(text: string): string {
-  return text.replace(/\\/g, '\\\\').replace(/\|/g, '\\|').replace(/\r?\n|\r/g, ' ').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-}
-
-/** Text for Markdown outside a table: like `cell`, but `|` needs no escape there. */
-export function inline(text: string): string {
-  return text.replace(/\\/g, '\\\\').replace(/\r?\n|\r/g, ' ').replace(/</g, '&lt;').replace(/>/g, '&gt;');
-}
-
-/** A code span outside a table: the text as it is (Markdown reads no escapes in code spans). */
-export function code(text: string): string {
-  const t = text.replace(/\r?\n|\r/g, ' ');
-  return t.includes('`') ? `\`\` ${t} \`\`` : `\`${t}\``;
-}
-
-export function num(v: number | null | undefined): string {
-  return v === null || v === undefined || !Number.isFinite(v) ? '–' : v.toFixed(DIGITS);
-}
+export { cell, code, inline, num };
 
 function interval(s: ScoreSummary | null): string {
   return s?.ci95 ? `${num(s.ci95[0])} to ${num(s.ci95[1])}` : '–';

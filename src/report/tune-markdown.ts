@@ -7,7 +7,7 @@
  * four decimals.
  */
 import { auditSection, cell, code, inline, num } from './markdown.js';
-import type { TuneCandidate, TuneReport } from './tune-types.js';
+import type { TuneCandidate, TuneReport } from '../model/tune.js';
 
 function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
   const line = (cells: readonly string[]): string => `| ${cells.join(' | ')} |`;

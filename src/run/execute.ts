@@ -8,7 +8,7 @@ import { performance } from 'node:perf_hooks';
 import type { Table } from '../data/types.js';
 import { FoldwiseError } from '../errors.js';
 import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
-import type { Report } from '../report/types.js';
+import type { Report } from '../model/report.js';
 import { assembleReport, frameOf, recordsOf, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { checkKeep, keptText } from './predictions-out.js';
 import { identityOf, withReadSettings, type ReadSettings } from './identity.js';

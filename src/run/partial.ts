@@ -7,8 +7,8 @@
  */
 import { InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
-import type { Target } from '../learners/types.js';
-import type { Report } from '../report/types.js';
+import type { Target } from '../learning.js';
+import type { Report } from '../model/report.js';
 import { VERSION } from '../version.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { identityDiff, type RunIdentity } from './identity.js';

@@ -2,7 +2,7 @@
  * The bounded sample of a regression learner's pooled out-of-fold predictions that an eval
  * report carries (`pooledSample`), for the predicted-against-actual and residual charts.
  */
-import type { PooledSample } from '../report/types.js';
+import type { PooledSample } from '../model/report.js';
 
 /** At most this many (actual, predicted) pairs are kept per learner. */
 export const POOLED_SAMPLE_MAX = 1000;

@@ -21,7 +21,7 @@
  * however the run was made (threads, shards and merge, a resumed journal).
  */
 import { closeNames, UsageError } from '../errors.js';
-import { csvField, csvRow, numberField } from '../data/csv-text.js';
+import { csvField, csvRow, numberField } from '../io/csv-text.js';
 import type { Table } from '../data/types.js';
 import type { ReportFrame, TaskRecord } from './evaluate.js';
 

@@ -15,12 +15,13 @@ import { formatPlan, parsePlan } from '../plans/index.js';
 import type { PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
 import { quickSuspects } from '../audit/quick-audit.js';
-import type { ReportAudit } from '../report/types.js';
-import { planFor } from './plan-for.js';
+import type { ReportAudit } from '../model/report.js';
+import { planFor } from '../plans/plan-for.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
 
-export const DEFAULT_SEED = 1;
-export const DEFAULT_PLAN = 'kfold:10';
+import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../plans/defaults.js';
+
+export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED };
 
 export interface EvaluateOptions extends ProblemOptions {
   /** plan text such as "kfold:10" or a parsed spec (default kfold:10) */
@@ -55,14 +56,6 @@ export interface Prepared extends TaskContext {
   readonly warnings: readonly string[];
   /** the quick audit's findings, set by withAudit (absent when it was not called) */
   readonly audit?: ReportAudit;
-}
-
-/** Checks a seed: an integer from 0 to 2^32-1. */
-export function checkSeed(seed: number): number {
-  if (!Number.isInteger(seed) || seed < 0 || seed > 0xffffffff) {
-    throw new UsageError(`--seed ${seed}: expected a whole number from 0 to 4294967295`);
-  }
-  return seed;
 }
 
 function resolveCandidates(problem: Problem, options: EvaluateOptions, headline: string): Candidate[] {

@@ -3,7 +3,7 @@
  * or non-finite score is null; a probability metric is null for a model without probabilities),
  * and the concatenations that pooled out-of-fold scores are computed on.
  */
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import type { Metric } from '../metrics/types.js';
 
 export interface Prediction {

@@ -16,7 +16,7 @@ import { UsageError } from '../errors.js';
 import { memberships } from '../plans/assign.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import { checkSeed } from './evaluate.js';
-import { planFor } from './plan-for.js';
+import { planFor } from '../plans/plan-for.js';
 
 export interface SplitOptions extends ProblemOptions {
   readonly plan: string;

@@ -7,15 +7,15 @@
  */
 import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
-import { problemRowsCsv } from '../data/csv-text.js';
+import { problemRowsCsv } from '../io/csv-text.js';
 import { FoldwiseError } from '../errors.js';
 import { CommandFoldError } from '../learners/command/errors.js';
-import { foldLabel } from '../report/fold-label.js';
-import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
+import { foldLabel } from '../model/fold-label.js';
+import type { FoldView, Learner, Matrix, Params, Target } from '../learning.js';
 import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
-import { notesOf } from './result-json.js';
-import { createRng, deriveSeed } from './rng.js';
+import { notesOf } from './notes.js';
+import { createRng, deriveSeed } from '../rng.js';
 
 export interface Candidate {
   readonly learner: Learner;

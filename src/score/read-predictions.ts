@@ -11,7 +11,7 @@
  */
 import Papa from 'papaparse';
 import { InputError, UsageError, closeNames } from '../errors.js';
-import type { Task } from '../learners/types.js';
+import type { Task } from '../learning.js';
 import { MAX_INFERRED_CLASSES } from '../data/problem.js';
 import { PROB_PREFIX } from '../run/predictions-out.js';
 

@@ -12,9 +12,9 @@
  */
 import { createHash } from 'node:crypto';
 import { UsageError } from '../errors.js';
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import { defaultMetrics, getMetric } from '../metrics/index.js';
-import type { Report, ReportSource } from '../report/types.js';
+import type { Report, ReportSource } from '../model/report.js';
 import { assignmentOf } from '../run/assignment.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from '../run/evaluate.js';
 import { readPredictions, type ReadPredictions, type ScoreColumns } from './read-predictions.js';

@@ -21,7 +21,7 @@
  * that differ only there are equally complex. Candidates of different learners are not
  * compared (null): there is no common scale between, say, a neighbour count and a tree depth.
  */
-import type { Learner, ParamSpec, Params } from '../learners/types.js';
+import type { Learner, ParamSpec, Params } from '../learning.js';
 
 interface Rank {
   readonly name: string;

@@ -4,7 +4,7 @@
  * and the user should widen it. No warning when the option had a single value, or when the edge
  * is also the option's own limit (k = 1 cannot go lower).
  */
-import type { ParamSpec } from '../learners/types.js';
+import type { ParamSpec } from '../learning.js';
 import type { SearchCandidate } from './space.js';
 
 export function edgeWarnings(pick: SearchCandidate, candidates: readonly SearchCandidate[], label: string): string[] {

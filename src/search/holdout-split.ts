@@ -13,7 +13,7 @@
 import type { Problem } from '../data/problem.js';
 import { InputError, UsageError } from '../errors.js';
 import type { PlanSpec } from '../plans/types.js';
-import { createRng, deriveSeed } from '../run/rng.js';
+import { createRng, deriveSeed } from '../rng.js';
 import { allRows, planOver } from './plan-over.js';
 
 export interface HoldoutSplit {

@@ -13,7 +13,7 @@
 import type { Problem } from '../data/problem.js';
 import { buildPlan } from '../plans/index.js';
 import type { BuiltPlan, Fold, PlanSpec } from '../plans/types.js';
-import type { Rng } from '../run/rng.js';
+import type { Rng } from '../rng.js';
 
 export interface SubsetPlan {
   readonly plan: BuiltPlan;

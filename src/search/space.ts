@@ -22,8 +22,8 @@
 import { UsageError } from '../errors.js';
 import { getLearner, parseLearnerSpec } from '../learners/index.js';
 import { formatSpec, resolveParams } from '../learners/spec.js';
-import type { Learner, Params, Task } from '../learners/types.js';
-import { createRng, deriveSeed } from '../run/rng.js';
+import type { Learner, Params, Task } from '../learning.js';
+import { createRng, deriveSeed } from '../rng.js';
 import { type Axis, axisSize, parseAxis } from './value-syntax.js';
 
 /** Largest search tried without --max-candidates. */

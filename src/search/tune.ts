@@ -29,7 +29,7 @@
  */
 import { quickSuspects } from '../audit/quick-audit.js';
 import { pairedStats } from '../compare/paired-stats.js';
-import type { ReportComparisons } from '../compare/types.js';
+import type { ReportComparisons } from '../model/compare.js';
 import { COMPARISON_LEVEL } from '../compare/within-report.js';
 import { baseline, baselineConstantFor } from '../learners/baseline.js';
 import { performance } from 'node:perf_hooks';
@@ -37,16 +37,16 @@ import { dataSection, defineProblem, type Problem, type ProblemOptions } from '.
 import type { Table } from '../data/types.js';
 import { quoted } from '../data/load-csv.js';
 import { InputError, UsageError } from '../errors.js';
-import type { Target } from '../learners/types.js';
+import type { Target } from '../learning.js';
 import { defaultMetrics, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import type { BuiltPlan, PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
-import type { ScoreSummary } from '../report/types.js';
-import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../report/tune-types.js';
+import type { ScoreSummary } from '../model/report.js';
+import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../model/tune.js';
 import { checkSeed, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
-import { createRng, deriveSeed } from '../run/rng.js';
+import { createRng, deriveSeed } from '../rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
 import { pooledRefused, scoreNote } from '../stats/score-notes.js';

@@ -24,7 +24,7 @@
  */
 import { UsageError } from '../errors.js';
 import { resolveParams } from '../learners/spec.js';
-import type { Learner, ParamSpec, ParamValue } from '../learners/types.js';
+import type { Learner, ParamSpec, ParamValue } from '../learning.js';
 
 /** Most values one option may take in a search (a wider space needs --sample over a continuous range). */
 export const MAX_AXIS_VALUES = 100_000;

@@ -9,8 +9,8 @@ import { audit, quickAudit, type AuditReport, type Suspect } from '../../src/aud
 import { defineProblem } from '../../src/data/problem.js';
 import { UsageError } from '../../src/errors.js';
 import { parsePlan } from '../../src/plans/index.js';
-import { planFor } from '../../src/run/plan-for.js';
-import { createRng } from '../../src/run/rng.js';
+import { planFor } from '../../src/plans/plan-for.js';
+import { createRng } from '../../src/rng.js';
 import { cleanColumns, gauss, tableOf, type Cell } from './synthetic.js';
 import { expectValidAudit } from './validate.js';
 

@@ -11,7 +11,7 @@ import { fitLevelTable, predictLevelTable } from '../../src/audit/level-table.js
 import { fitOneFeatureTree, predictOneFeatureTree } from '../../src/audit/one-feature-tree.js';
 import { balancedAccuracy, classWeights, rSquared } from '../../src/audit/single-feature-scores.js';
 import { InputError } from '../../src/errors.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { gauss } from './synthetic.js';
 
 interface CartModel {

@@ -12,7 +12,7 @@ import { numericProfile, quantileSorted } from '../../src/audit/numeric-summary.
 import { correlationMatrix, pearson } from '../../src/audit/pearson.js';
 import { sampleSkewness } from '../../src/audit/skewness.js';
 import { InputError } from '../../src/errors.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { gauss } from './synthetic.js';
 
 const rel = (a: number, b: number): number => Math.abs(a - b) / Math.max(1, Math.abs(b));

@@ -4,7 +4,7 @@
  */
 import { loadCsv } from '../../src/data/load-csv.js';
 import type { Table } from '../../src/data/types.js';
-import { createRng, type Rng } from '../../src/run/rng.js';
+import { createRng, type Rng } from '../../src/rng.js';
 
 /** A standard normal variate (Box-Muller). */
 export function gauss(rng: Rng): number {

@@ -2,7 +2,7 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { mean } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';

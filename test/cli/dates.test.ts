@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { schemaCheck } from '../helpers/schema.js';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 
 const expectValid = schemaCheck('report.schema.json');
 const tmp = tempFolder();

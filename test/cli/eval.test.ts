@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { penguinsCsv } from '../helpers/penguins.js';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { schemaCheck } from '../helpers/schema.js';
 
 const expectValid = schemaCheck('report.schema.json');

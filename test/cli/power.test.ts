@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import jStat from 'jstat';
 import { join } from 'node:path';
 import { readFileSync } from 'node:fs';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';

@@ -10,9 +10,9 @@
 import jStat from 'jstat';
 import { mean, sampleVariance } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
-import type { CrossComparison, GateVerdict } from '../../src/compare/types.js';
-import type { LearnerReport, Report } from '../../src/report/types.js';
-import type { TuneReport } from '../../src/report/tune-types.js';
+import type { CrossComparison, GateVerdict } from '../../src/model/compare.js';
+import type { LearnerReport, Report } from '../../src/model/report.js';
+import type { TuneReport } from '../../src/model/tune.js';
 import { cli } from '../helpers/cli.js';
 import { agrestiFloor, expectedInterval, expectedPairedInterval, expectedPairedT, meanSizes } from '../helpers/intervals.js';
 import { tempFolder } from '../helpers/tmp.js';

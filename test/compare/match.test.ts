@@ -3,7 +3,7 @@ import { compareReports } from '../../src/compare/compare-reports.js';
 import { gateReports } from '../../src/compare/gate.js';
 import { describeDifferences, NotComparableError, reportDifferences } from '../../src/compare/match-reports.js';
 import type { LoadedReport } from '../../src/compare/read-report.js';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { VERSION } from '../../src/version.js';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';

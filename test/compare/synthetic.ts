@@ -6,7 +6,7 @@
  *                   x3 none), so dropping x1 costs a nearest-neighbour learner many points
  *   regression:     y = 2 x1 - x2 + 0.3 e
  */
-import { createRng, type Rng } from '../../src/run/rng.js';
+import { createRng, type Rng } from '../../src/rng.js';
 
 function gauss(rng: Rng): number {
   let u = 0;

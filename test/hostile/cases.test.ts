@@ -14,7 +14,7 @@ import { mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { loadCsv } from '../../src/data/load-csv.js';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { caseFolder, runContract, sha256, type Outcome } from './contract.js';

@@ -23,7 +23,7 @@ import { getMetric } from '../../src/metrics/index.js';
 import { renderJson } from '../../src/report/json.js';
 import { renderMarkdown } from '../../src/report/markdown.js';
 import { evaluate, type EvaluateOptions } from '../../src/run/evaluate.js';
-import { createRng, deriveSeed, type Rng } from '../../src/run/rng.js';
+import { createRng, deriveSeed, type Rng } from '../../src/rng.js';
 import { tempFolder } from '../helpers/tmp.js';
 import { caseFolder, runContract, sha256, validateReport } from './contract.js';
 import { baseFrame, csvText } from './fixtures.js';

@@ -6,7 +6,7 @@
  * code, empty cells and quoted line breaks. Every mutation is a pure function of the bytes and
  * the generator, so a case is replayed from its seed alone.
  */
-import type { Rng } from '../../src/run/rng.js';
+import type { Rng } from '../../src/rng.js';
 
 export interface Mutation {
   readonly name: string;

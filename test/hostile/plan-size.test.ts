@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { UsageError } from '../../src/errors.js';
 import { buildPlan } from '../../src/plans/index.js';
 import { MAX_FOLDS, MAX_PLAN_ROWS } from '../../src/plans/build.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 
 const rng = () => createRng(1);
 

@@ -8,8 +8,8 @@ import { UsageError } from '../../src/errors.js';
 import { bayes } from '../../src/learners/bayes.js';
 import { getLearner } from '../../src/learners/index.js';
 import { parseLearnerSpec, resolveParams } from '../../src/learners/spec.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 
 const ctx = { rng: createRng(1), seed: 1 };
 // jstat's normal pdf; src/stats/jstat.d.ts (not ours) types only cdf, so the call is typed here

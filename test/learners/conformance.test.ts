@@ -7,8 +7,8 @@
 import { describe, expect, it } from 'vitest';
 import { LEARNERS } from '../../src/learners/index.js';
 import { defaultParams } from '../../src/learners/spec.js';
-import type { Matrix, Target, Task } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix, Target, Task } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 
 function data(task: Task, n: number, seed: number): { X: Matrix; y: Target } {
   const rng = createRng(seed);

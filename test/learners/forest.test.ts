@@ -14,8 +14,8 @@ import { InputError, UsageError } from '../../src/errors.js';
 import { parseFeatureCount, resolveFeatureCount } from '../../src/learners/cart/feature-count.js';
 import { parseSampleSize, resolveSampleSize } from '../../src/learners/cart/sample-size.js';
 import { forest, isCartModel } from '../../src/learners/forest.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { type Rng, createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { type Rng, createRng } from '../../src/rng.js';
 
 const ctx = (seed: number) => ({ rng: createRng(seed), seed });
 

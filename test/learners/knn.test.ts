@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { knn, nearest } from '../../src/learners/knn.js';
 import { knnRef } from '../../src/learners/knn-ref.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 
 function randomMatrix(rows: number, cols: number, seed: number): Matrix {
   const rng = createRng(seed);

@@ -7,8 +7,8 @@ import { UsageError } from '../../src/errors.js';
 import { getLearner } from '../../src/learners/index.js';
 import { fitLinear, linear } from '../../src/learners/linear.js';
 import { parseLearnerSpec, resolveParams } from '../../src/learners/spec.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 import { LONGLEY_CERTIFIED, LONGLEY_X, LONGLEY_Y, NORRIS_CERTIFIED, NORRIS_X, NORRIS_Y } from './external/nist-strd.js';
 
 const ctx = { rng: createRng(1), seed: 1 };

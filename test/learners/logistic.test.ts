@@ -8,8 +8,8 @@ import { UsageError } from '../../src/errors.js';
 import { getLearner } from '../../src/learners/index.js';
 import { fitLogistic, logistic } from '../../src/learners/logistic.js';
 import { parseLearnerSpec, resolveParams } from '../../src/learners/spec.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { createRng } from '../../src/rng.js';
 
 const ctx = { rng: createRng(1), seed: 1 };
 

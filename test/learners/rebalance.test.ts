@@ -11,10 +11,10 @@ import { classWeights } from '../../src/learners/class-balance.js';
 import { forest } from '../../src/learners/forest.js';
 import { logistic } from '../../src/learners/logistic.js';
 import { tree } from '../../src/learners/tree.js';
-import type { Matrix, Params, Target } from '../../src/learners/types.js';
+import type { Matrix, Params, Target } from '../../src/learning.js';
 import { balancedAccuracy } from '../../src/metrics/balanced-accuracy.js';
 import { macroRecall } from '../../src/metrics/macro-recall.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 
 const ctx = (seed: number) => ({ rng: createRng(seed), seed });
 

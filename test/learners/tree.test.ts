@@ -8,8 +8,8 @@ import { createRequire } from 'node:module';
 import { describe, expect, it } from 'vitest';
 import { InputError, UsageError } from '../../src/errors.js';
 import { tree } from '../../src/learners/tree.js';
-import type { Matrix, Target } from '../../src/learners/types.js';
-import { type Rng, createRng } from '../../src/run/rng.js';
+import type { Matrix, Target } from '../../src/learning.js';
+import { type Rng, createRng } from '../../src/rng.js';
 
 // ml-cart ships no type declarations: load it through require and type the part we use.
 interface CartNode {

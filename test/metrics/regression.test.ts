@@ -5,7 +5,7 @@ import { mae } from '../../src/metrics/mae.js';
 import { medae } from '../../src/metrics/medae.js';
 import { r2 } from '../../src/metrics/r2.js';
 import { rmse } from '../../src/metrics/rmse.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 
 // Open data shipped by an npm package: Palmer penguins (vega-datasets, CC0; Gorman, Williams &
 // Fraser 2014). A straight-line fit of body mass on flipper length gives realistic residuals.

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { rocAuc } from '../../src/metrics/roc-auc.js';
 import { binaryScores } from './helpers.js';
 

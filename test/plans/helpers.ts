@@ -4,7 +4,7 @@
  */
 import fc from 'fast-check';
 import { expect } from 'vitest';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import type { BuiltPlan, Fold, PlanInput } from '../../src/plans/types.js';
 
 export const FC = { seed: 0x5eed_f01d, numRuns: 60 } as const;

@@ -3,7 +3,7 @@ import { median, mean, standardDeviation } from 'simple-statistics';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { defineProblem } from '../../src/data/problem.js';
 import { applyPrep, fitPrep } from '../../src/prep/fold-prep.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 
 const csv = (rows: string[]) => ({ text: `x,c,y\n${rows.join('\n')}\n`, name: 'mem.csv' });
 const base = ['1,a,p', '2,b,q', ',a,p', '10,a,q', '4,,p', '5,c,q', '6,b,p', '7,d,q'];

@@ -15,10 +15,10 @@ import { beforeEach, describe, expect, it, vi } from 'vitest';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { defineProblem, type Problem } from '../../src/data/problem.js';
 import type { Column } from '../../src/data/types.js';
-import type { Learner, Matrix, Target } from '../../src/learners/types.js';
+import type { Learner, Matrix, Target } from '../../src/learning.js';
 import { parsePlan } from '../../src/plans/index.js';
 import { evaluate, type EvaluateOptions } from '../../src/run/evaluate.js';
-import { planFor } from '../../src/run/plan-for.js';
+import { planFor } from '../../src/plans/plan-for.js';
 import { baseFrame, csvText } from '../hostile/fixtures.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { esc } from '../../src/report/html/escape.js';
 import { count, sampleText, value } from '../../src/report/html/regression-charts.js';
-import type { LearnerReport, Report } from '../../src/report/types.js';
+import type { LearnerReport, Report } from '../../src/model/report.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { esc } from '../../src/report/html/escape.js';
 import { CSP } from '../../src/report/html/page.js';
 import { learnerSpaces, sliceOf } from '../../src/report/html/tune-space.js';
-import type { TuneCandidate, TuneReport } from '../../src/report/tune-types.js';
+import type { TuneCandidate, TuneReport } from '../../src/model/tune.js';
 import { edgeOfWarning } from '../../src/search/edges.js';
 import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';

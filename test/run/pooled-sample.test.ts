@@ -12,7 +12,7 @@ import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import type { PartialReport } from '../../src/run/partial.js';
 import { POOLED_SAMPLE_MAX, pooledSample } from '../../src/run/pooled-sample.js';
-import type { Report } from '../../src/report/types.js';
+import type { Report } from '../../src/model/report.js';
 import { cli } from '../helpers/cli.js';
 import { PENGUINS_JSON, penguinsCsv } from '../helpers/penguins.js';
 import { tempFolder } from '../helpers/tmp.js';

@@ -4,7 +4,7 @@ import { defineProblem } from '../../src/data/problem.js';
 import { forest } from '../../src/learners/forest.js';
 import { getLearner } from '../../src/learners/index.js';
 import { formatSpec, parseLearnerSpec, resolveParams } from '../../src/learners/spec.js';
-import { createRng, deriveSeed } from '../../src/run/rng.js';
+import { createRng, deriveSeed } from '../../src/rng.js';
 import { SplitData, subsetTarget } from '../../src/run/tasks.js';
 import { newWorkCount, predictAll } from '../../src/search/fold-work.js';
 import type { SearchCandidate } from '../../src/search/space.js';

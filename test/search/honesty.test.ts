@@ -15,8 +15,8 @@ import { describe, expect, it } from 'vitest';
 import { loadCsv } from '../../src/data/load-csv.js';
 import type { Table } from '../../src/data/types.js';
 import { nearest, predictFromNeighbours } from '../../src/learners/knn.js';
-import type { Matrix } from '../../src/learners/types.js';
-import { type Rng, createRng, shuffleInPlace } from '../../src/run/rng.js';
+import type { Matrix } from '../../src/learning.js';
+import { type Rng, createRng, shuffleInPlace } from '../../src/rng.js';
 import { tune } from '../../src/search/tune.js';
 
 function gauss(rng: Rng): number {

@@ -2,7 +2,7 @@ import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { UsageError } from '../../src/errors.js';
 import { getLearner } from '../../src/learners/index.js';
-import type { Learner } from '../../src/learners/types.js';
+import type { Learner } from '../../src/learning.js';
 import { DEFAULT_MAX_CANDIDATES, parseSearchSpace, planSearch, searchCandidates, type SearchSpace } from '../../src/search/space.js';
 import { parseAxis } from '../../src/search/value-syntax.js';
 

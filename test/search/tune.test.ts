@@ -4,7 +4,7 @@ import { mean, quantile, sampleStandardDeviation } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { UsageError } from '../../src/errors.js';
-import type { TuneReport } from '../../src/report/tune-types.js';
+import type { TuneReport } from '../../src/model/tune.js';
 import { renderTuneMarkdown } from '../../src/report/tune-markdown.js';
 import { evaluate } from '../../src/run/evaluate.js';
 import { getLearner } from '../../src/learners/index.js';

@@ -2,7 +2,7 @@ import jStat from 'jstat';
 import { sampleVariance } from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { correctedT } from '../../src/stats/corrected-t.js';
 
 const TEN_FOLD = { testRows: 50, trainRows: 450 }; // testRows/trainRows = 1/9

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { correctedSe, mddInSe, mddLimit, minimalDetectable, powerAt, repeatsFor } from '../../src/stats/power.js';
 
 const S = { alpha: 0.05, power: 0.8 };

@@ -23,11 +23,11 @@
  * rounds in a row have not lowered the best loss, and reports the best round (0 = base score).
  */
 import { InputError } from '../../errors.js';
-import { createRng, deriveSeed } from '../../run/rng.js';
+import { createRng, deriveSeed } from '../../rng.js';
 import { binMatrix } from '../cart/bins.js';
 import { type FlatForestParts } from '../cart/flat-forest.js';
 import { NodeStore } from '../cart/node-store.js';
-import type { Matrix, Target } from '../types.js';
+import type { Matrix, Target } from '../../learning.js';
 import { BoostGrower } from './grow.js';
 import { leafValue } from './histogram.js';
 import { type LossName, baseScore, fillDerivatives, leafLineSearch, lossFor, meanLoss, quantile, softmaxRow } from './loss.js';

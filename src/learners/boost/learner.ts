@@ -22,7 +22,7 @@
  * Missing values: fit throws InputError on NaN or infinite features (impute first); predict
  * sends NaN to the left child.
  */
-import type { FitContext, Learner, Matrix, Params, Target } from '../types.js';
+import type { FitContext, Learner, Matrix, Params, Target } from '../../learning.js';
 import { fitBoost } from './fit.js';
 import { type BoostModel, boostFromJSON, makeBoostModel } from './model.js';
 import { BOOST_PARAMS, readBoostSettings, taskProblem } from './params.js';

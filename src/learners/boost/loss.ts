@@ -21,7 +21,7 @@
  * 1 - 1 / (2n)) before its log, so a class the fold lacks gets a small, finite score instead of
  * minus infinity: the model does not claim a class impossible because one fold lacked it.
  */
-import type { Target } from '../types.js';
+import type { Target } from '../../learning.js';
 
 export type LossName = 'squared' | 'absolute' | 'huber' | 'logistic' | 'softmax';
 

@@ -17,7 +17,7 @@
  */
 import { InputError, UsageError } from '../../errors.js';
 import { type FlatForestParts, partsFromJSON, partsToJSON } from '../cart/flat-forest.js';
-import type { Matrix, Model, Task } from '../types.js';
+import type { Matrix, Model, Task } from '../../learning.js';
 import { type LossName, sigmoid, softmaxRow } from './loss.js';
 
 export const BOOST_FORMAT = 'foldwise-boost';

@@ -7,7 +7,7 @@
 import { UsageError } from '../../errors.js';
 import { MAX_BINS } from '../cart/bins.js';
 import { numberOption, readOptions, stringOption } from '../cart/options.js';
-import type { ParamSpec, Params, Task } from '../types.js';
+import type { ParamSpec, Params, Task } from '../../learning.js';
 
 export const REGRESSION_LOSSES = ['squared', 'absolute', 'huber'] as const;
 export type RegressionLoss = (typeof REGRESSION_LOSSES)[number];

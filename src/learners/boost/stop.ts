@@ -8,8 +8,8 @@
  * rows are never seen: the runner does not pass them to fit.
  */
 import { InputError } from '../../errors.js';
-import { createRng, deriveSeed, shuffleInPlace } from '../../run/rng.js';
-import type { Matrix, Target } from '../types.js';
+import { createRng, deriveSeed, shuffleInPlace } from '../../rng.js';
+import type { Matrix, Target } from '../../learning.js';
 
 export interface InnerSplit {
   /** ascending row indices */

@@ -14,7 +14,7 @@
  * (free: https://papers.nips.cc/paper/6907). Only the rows passed in (the training fold) are seen.
  */
 import { InputError } from '../../errors.js';
-import type { Matrix } from '../types.js';
+import type { Matrix } from '../../learning.js';
 
 export const MAX_BINS = 255;
 

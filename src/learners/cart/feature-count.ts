@@ -13,7 +13,7 @@
  *   count:M  min(M, p), for an integer M >= 1
  */
 import { UsageError } from '../../errors.js';
-import type { Task } from '../types.js';
+import type { Task } from '../../learning.js';
 
 const RULE =
   'breiman, sqrt, log2, all, frac:F with 0 < F <= 1, or count:M with M an integer >= 1';

@@ -17,8 +17,8 @@
  * target in a pure leaf).
  */
 import { InputError } from '../../errors.js';
-import { type Rng, createRng, deriveSeed } from '../../run/rng.js';
-import type { FitContext, Matrix, Target } from '../types.js';
+import { type Rng, createRng, deriveSeed } from '../../rng.js';
+import type { FitContext, Matrix, Target } from '../../learning.js';
 import { binMatrix } from './bins.js';
 import { resolveFeatureCount } from './feature-count.js';
 import { resolveSampleSize } from './sample-size.js';

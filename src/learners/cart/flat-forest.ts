@@ -14,7 +14,7 @@
  *     roots, feature, threshold, left, right, offset, values, importance }
  */
 import { InputError, UsageError } from '../../errors.js';
-import type { Matrix, Task } from '../types.js';
+import type { Matrix, Task } from '../../learning.js';
 import { NodeStore } from './node-store.js';
 
 export const FORMAT = 'foldwise-cart';

@@ -47,7 +47,7 @@
  * https://papers.nips.cc/paper/4928): each split adds its impurity decrease divided by the
  * root's weight to its feature.
  */
-import type { Rng } from '../../run/rng.js';
+import type { Rng } from '../../rng.js';
 import type { BinnedMatrix } from './bins.js';
 import type { NodeStore } from './node-store.js';
 

@@ -11,7 +11,7 @@
  * tree has its own generator (see forest.ts).
  * A regression model has no probabilities / probabilitiesPrefix property at all.
  */
-import type { Matrix, Model, Task } from '../types.js';
+import type { Matrix, Model, Task } from '../../learning.js';
 import { type CartKind, type FlatForestParts, partsToJSON, predictPrefixOf, probaPrefix } from './flat-forest.js';
 
 export interface CartModel extends Model {

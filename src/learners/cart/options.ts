@@ -9,7 +9,7 @@
  * Values are returned in a Map, never a plain object keyed by user-supplied names.
  */
 import { UsageError, closeNames } from '../../errors.js';
-import type { ParamSpec, ParamValue, Params } from '../types.js';
+import type { ParamSpec, ParamValue, Params } from '../../learning.js';
 
 /** "an integer >= 1", "a number > 0 and <= 1", "an integer between 2 and 255" */
 export function describeLimit(spec: ParamSpec & { kind: 'int' | 'number' }): string {

@@ -11,8 +11,8 @@
  * and any other key=value, passed to the program as text (environment and job.json).
  */
 import { InputError, UsageError } from '../../errors.js';
-import { matrixCsv } from '../../data/csv-text.js';
-import type { Learner, Matrix, Model, Params, ParamSpec, Target } from '../types.js';
+import { matrixCsv } from '../../io/csv-text.js';
+import type { Learner, Matrix, Model, Params, ParamSpec, Target } from '../../learning.js';
 import { runFold } from './invoke.js';
 import { readPredictions } from './predictions.js';
 import type { CommandProgram, CommandSetup } from './program.js';

@@ -9,7 +9,7 @@
  * Learning, 2nd ed., section 3.4.1 (free PDF from the authors).
  */
 import { InputError } from '../../errors.js';
-import type { Matrix } from '../types.js';
+import type { Matrix } from '../../learning.js';
 
 export interface Standardiser {
   readonly mean: Float64Array;

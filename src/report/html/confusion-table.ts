@@ -8,7 +8,7 @@
 import { esc } from './escape.js';
 import { attrNum } from './format.js';
 import { shade } from './palette.js';
-import type { LearnerReport } from '../types.js';
+import type { LearnerReport } from '../../model/report.js';
 
 const pct = (v: number): string => `${(v * 100).toFixed(1)}%`;
 

@@ -6,7 +6,7 @@
  */
 import { METRICS, type MetricName } from '../../metrics/index.js';
 import { bestLearner } from '../markdown.js';
-import type { LearnerReport, Report, ScoreSummary } from '../types.js';
+import type { LearnerReport, Report, ScoreSummary } from '../../model/report.js';
 
 export function own<T>(record: Readonly<Record<string, T>>, key: string): T | undefined {
   return Object.prototype.hasOwnProperty.call(record, key) ? record[key] : undefined;

@@ -24,8 +24,8 @@ import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
 import { residualChart, scatterChart } from './regression-charts.js';
 import { summaryChart } from './summary-chart.js';
-import { foldLabel } from '../fold-label.js';
-import type { Report } from '../types.js';
+import { foldLabel } from '../../model/fold-label.js';
+import type { Report } from '../../model/report.js';
 
 export function renderEvalHtml(report: Report): string {
   const ctx = chartContext(report);

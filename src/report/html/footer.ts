@@ -8,9 +8,9 @@
  * then, for both, the quick audit's suspects ("Data audit") and the warnings.
  */
 import { esc } from './escape.js';
-import { foldCount } from '../fold-label.js';
-import type { DataSection, Report, ReportAudit } from '../types.js';
-import type { TunePlanInfo, TuneReport } from '../tune-types.js';
+import { foldCount } from '../../model/fold-label.js';
+import type { DataSection, Report, ReportAudit } from '../../model/report.js';
+import type { TunePlanInfo, TuneReport } from '../../model/tune.js';
 
 export const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
 

@@ -10,7 +10,7 @@ import { CHART_WIDTH, figure } from './figure.js';
 import { attrNum, intervalText, num, px, signed, svgText } from './format.js';
 import { FAIL, INK, MUTED, PASS, BASELINE } from './palette.js';
 import { linearScale } from './scale.js';
-import type { GateVerdict } from '../../compare/types.js';
+import type { GateVerdict } from '../../model/compare.js';
 
 const WIDTH = CHART_WIDTH;
 

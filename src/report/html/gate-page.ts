@@ -9,7 +9,7 @@ import { num, pText, signed } from './format.js';
 import { gateChart } from './gate-chart.js';
 import { page } from './page.js';
 import { FAIL, PASS } from './palette.js';
-import type { GateVerdict } from '../../compare/types.js';
+import type { GateVerdict } from '../../model/compare.js';
 
 const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
 

@@ -7,7 +7,7 @@ import { METRICS, type MetricName } from '../../metrics/index.js';
 import { esc } from './escape.js';
 import { intervalText, num } from './format.js';
 import { own, summaryOf } from './context.js';
-import type { Report } from '../types.js';
+import type { Report } from '../../model/report.js';
 
 export function metricsTable(report: Report): string {
   const best = new Map<string, number>();

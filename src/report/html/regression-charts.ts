@@ -19,7 +19,7 @@ import { attrNum, num, px, svgText } from './format.js';
 import { INK, INTERVAL, MUTED, POINT } from './palette.js';
 import { linearScale } from './scale.js';
 import { own } from './context.js';
-import type { LearnerReport, PooledSample } from '../types.js';
+import type { LearnerReport, PooledSample } from '../../model/report.js';
 
 const WIDTH = CHART_WIDTH;
 /** side of the square plot area of the scatter */

@@ -11,7 +11,7 @@ import { clip, esc } from './escape.js';
 import { attrNum, num } from './format.js';
 import { shade } from './palette.js';
 import { type LearnerSpace, optionOf, valueKey, valueText } from './tune-space.js';
-import type { TuneCandidate, TuneReport } from '../tune-types.js';
+import type { TuneCandidate, TuneReport } from '../../model/tune.js';
 
 const finite = (v: number | null): v is number => v !== null && Number.isFinite(v);
 

@@ -17,8 +17,8 @@ import { attrNum, metricLabel, num, px, svgText } from './format.js';
 import { AXIS, BOX_FILL, GRID, BOX_STROKE, INK, INTERVAL, MUTED, POINT, WORSE } from './palette.js';
 import { linearScale, type Scale } from './scale.js';
 import { candidateById, type LearnerSpace, type OptionAxis, optionOf, sliceOf, valueKey, valueText } from './tune-space.js';
-import type { ParamValue } from '../../learners/types.js';
-import type { TuneCandidate, TuneReport } from '../tune-types.js';
+import type { ParamValue } from '../../learning.js';
+import type { TuneCandidate, TuneReport } from '../../model/tune.js';
 
 const WIDTH = CHART_WIDTH;
 const LEFT = 92;

@@ -16,8 +16,8 @@ import { own } from './context.js';
 import { BASELINE, BETTER, INK, INTERVAL, MUTED, POINT, UNCLEAR, WORSE } from './palette.js';
 import { linearScale } from './scale.js';
 import { spread } from './summary-chart.js';
-import type { ComparisonEntry } from '../../compare/types.js';
-import type { TuneOuterFold, TuneReport } from '../tune-types.js';
+import type { ComparisonEntry } from '../../model/compare.js';
+import type { TuneOuterFold, TuneReport } from '../../model/tune.js';
 
 const WIDTH = CHART_WIDTH;
 

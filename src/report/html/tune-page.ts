@@ -24,7 +24,7 @@ import { optionChart } from './tune-option-chart.js';
 import { baselinePair, outerChart, outerDiffChart, picksTable } from './tune-outer.js';
 import { byInnerMean, candidateById, learnerSpaces } from './tune-space.js';
 import { edgeOfWarning } from '../../search/edges.js';
-import type { TuneReport } from '../tune-types.js';
+import type { TuneReport } from '../../model/tune.js';
 
 const STYLE = `
 .cards{display:flex;flex-wrap:wrap;gap:12px 20px;margin:14px 0 6px}

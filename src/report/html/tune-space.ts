@@ -8,8 +8,8 @@
  * option named like an inherited property (`__proto__`) is just another name.
  */
 import { own } from './context.js';
-import type { ParamValue } from '../../learners/types.js';
-import type { TuneCandidate, TuneReport } from '../tune-types.js';
+import type { ParamValue } from '../../learning.js';
+import type { TuneCandidate, TuneReport } from '../../model/tune.js';
 
 export interface OptionAxis {
   readonly name: string;

@@ -15,8 +15,8 @@ import { type BoostModel, isBoostModel } from '../../../src/learners/boost/model
 import { innerSplit } from '../../../src/learners/boost/stop.js';
 import { getLearner } from '../../../src/learners/index.js';
 import { parseLearnerSpec, resolveParams } from '../../../src/learners/spec.js';
-import type { Matrix, Params, Target } from '../../../src/learners/types.js';
-import { createRng } from '../../../src/run/rng.js';
+import type { Matrix, Params, Target } from '../../../src/learning.js';
+import { createRng } from '../../../src/rng.js';
 
 const col = (xs: number[]): Matrix => ({ rows: xs.length, cols: 1, data: Float64Array.from(xs) });
 const reg = (ys: number[]): Target => ({ task: 'regression', values: Float64Array.from(ys) });

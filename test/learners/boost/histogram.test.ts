@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { binMatrix } from '../../../src/learners/cart/bins.js';
 import { bestSplit, buildHistogram, layoutOf, splitGain, subtractHistogram } from '../../../src/learners/boost/histogram.js';
-import { createRng } from '../../../src/run/rng.js';
+import { createRng } from '../../../src/rng.js';
 
 const n = 300;
 const p = 4;

@@ -9,14 +9,14 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
-import { csvField, csvRow, numberField } from '../../../src/data/csv-text.js';
+import { csvField, csvRow, numberField } from '../../../src/io/csv-text.js';
 import { commandLearner } from '../../../src/learners/command/learner.js';
 import { readPredictions } from '../../../src/learners/command/predictions.js';
 import { parseCommandProgram, parseCommandPrograms } from '../../../src/learners/command/program.js';
 import { CommandFoldError } from '../../../src/learners/command/errors.js';
 import { formatSpec, parseLearnerSpec, resolveParams } from '../../../src/learners/index.js';
-import type { FoldView, Matrix } from '../../../src/learners/types.js';
-import { createRng } from '../../../src/run/rng.js';
+import type { FoldView, Matrix } from '../../../src/learning.js';
+import { createRng } from '../../../src/rng.js';
 import { tempFolder } from '../../helpers/tmp.js';
 
 const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), '../../..');

@@ -3,7 +3,7 @@
  * Features arrive as a row-major matrix of doubles after fold-local preprocessing; targets as
  * class codes 0..C-1 (classification) or doubles (regression).
  */
-import type { Rng } from '../run/rng.js';
+import type { Rng } from './rng.js';
 
 export type Task = 'classification' | 'regression';
 export const TASKS = ['classification', 'regression'] as const;

@@ -4,8 +4,8 @@
  * double quotes inside doubled. Numbers are written as JavaScript writes them (the shortest
  * text that reads back as the same double), a missing value as an empty field.
  */
-import type { Matrix, Target } from '../learners/types.js';
-import type { Problem } from './problem.js';
+import type { Matrix, Target } from '../learning.js';
+import type { Problem } from '../data/problem.js';
 
 /** One field, quoted when needed. */
 export function csvField(text: string): string {

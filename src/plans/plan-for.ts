@@ -5,9 +5,9 @@
  * has those columns, from the generator derived from (seed, "plan").
  */
 import type { Problem } from '../data/problem.js';
-import { buildPlan } from '../plans/index.js';
-import type { BuiltPlan, PlanSpec } from '../plans/types.js';
-import { createRng, deriveSeed } from './rng.js';
+import { buildPlan } from './index.js';
+import type { BuiltPlan, PlanSpec } from './types.js';
+import { createRng, deriveSeed } from '../rng.js';
 
 export interface PlannedProblem {
   readonly plan: BuiltPlan;

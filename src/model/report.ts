@@ -3,8 +3,11 @@
  * shape; tests validate every report they make against it. A score that is undefined for a fold
  * (for example ROC AUC on a fold with one class) is null.
  */
-import type { ReportComparisons } from '../compare/types.js';
-import type { Params, Task } from '../learners/types.js';
+import type { DataSection } from '../data/types.js';
+import type { Params } from '../learning.js';
+import type { ReportComparisons } from './compare.js';
+
+export type { DataSection };
 
 export interface ScoreSummary {
   readonly n: number;
@@ -71,22 +74,6 @@ export interface ReportAudit {
   readonly suspects: readonly string[];
 }
 
-/** What every report says about its data: the same fields in eval, tune and audit reports. */
-export interface DataSection {
-  readonly path: string;
-  readonly sha256: string;
-  readonly rows: number;
-  readonly columns: number;
-  readonly rowsUsed: number;
-  readonly excludedRows: number;
-  readonly target: string;
-  readonly task: Task;
-  readonly classes?: readonly string[];
-  readonly features: readonly string[];
-  readonly dropped: readonly string[];
-  /** how each date column among the features and --order was read (absent when there is none) */
-  readonly dates?: readonly { readonly column: string; readonly read: string }[];
-}
 
 /** Where a report's predictions came from, when not from a foldwise eval run. */
 export interface ReportSource {

@@ -9,10 +9,10 @@
  *   search rows: the best of many inner means, optimistic by construction (Varma & Simon 2006,
  *   BMC Bioinformatics 7:91). The recommended candidate is the one to deploy, not its score.
  */
-import type { DataSection, ReportAudit } from './types.js';
-import type { ReportComparisons } from '../compare/types.js';
-import type { Params, Task } from '../learners/types.js';
-import type { ScoreSummary } from './types.js';
+import type { DataSection, ReportAudit } from './report.js';
+import type { ReportComparisons } from './compare.js';
+import type { Params, Task } from '../learning.js';
+import type { ScoreSummary } from './report.js';
 
 /** Inner cross-validation of one candidate on the headline metric. */
 export interface TuneInnerStat {
