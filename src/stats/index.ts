@@ -9,6 +9,7 @@ export {
   type ResampleCorrection,
 } from './corrected-interval.js';
 export { summarize, type Summary } from './summary.js';
+export { holm, type HolmResult } from './holm.js';
 export { correctedT, type CorrectedTResult } from './corrected-t.js';
 export {
   wilcoxon,
