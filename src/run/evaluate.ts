@@ -26,6 +26,8 @@ import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { foldLabel } from '../report/fold-label.js';
 import { assignmentOf } from './assignment.js';
 import { pooledSample } from './pooled-sample.js';
+import { sliceColumnsOf, type SliceColumn } from '../slices/slice-columns.js';
+import { sliceReports } from '../slices/slice-report.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
@@ -49,6 +51,8 @@ export interface ReportFrame {
   /** the quick audit's findings (absent in parts of older versions) */
   readonly audit?: ReportAudit;
   readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
+  /** --slice: the level of every data row per slice column (absent without --slice, and in parts of older versions) */
+  readonly slices?: readonly SliceColumn[];
 }
 
 /** One task's outcome with what scoring needs: its place, sizes, actual and predicted values. */
@@ -100,6 +104,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     warnings: prepared.warnings,
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
+    ...(prepared.slice ? { slices: sliceColumnsOf(prepared.table, prepared.slice.names, prepared.slice.bins) } : {}),
   };
 }
 
@@ -249,6 +254,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     warnings: [...new Set(warnings)],
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
+    ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, frame.metrics, frame.data.classes) } : {}),
     ...(totalMs === undefined
       ? {}
       : {
