@@ -69,6 +69,14 @@ describe('eval --slice and score --slice on the penguins', async () => {
     const mass = report.slices![1];
     expect(mass.levels.length).toBe(5);
     expect(mass.levels.map((l) => l.rows).reduce((a, b) => a + b, 0)).toBe(344);
+    // the 2 rows without a body mass: fewer than 5 test rows in every fold, reported, not scored
+    const missing = mass.levels[4];
+    expect(missing.level).toBe('(missing)');
+    expect(missing.rows).toBe(2);
+    expect(missing.scoredFolds).toBe(0);
+    expect(missing.learners[1].folds.length).toBe(10);
+    for (const f of missing.learners[1].folds) expect([f.short, f.scores.accuracy]).toEqual(['rows', null]);
+    expect(missing.learners[1].summary.accuracy).toBeNull();
   });
 
   it('every slice score equals the accuracy recomputed from the predictions file by hand', () => {
