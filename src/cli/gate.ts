@@ -33,7 +33,8 @@ interface GateFlags {
   /** the flag's name before format 2: refused with the new name */
   baseline?: string;
   current: string;
-  metric?: string;
+  metric?: string[];
+  slices?: boolean;
   learner?: string;
   currentLearner?: string;
   maxDrop: string;
@@ -77,7 +78,7 @@ function runGate(flags: GateFlags, io: Io): number {
 
   let verdict: GateVerdict;
   try {
-    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, absoluteMin });
+    verdict = gateReports(base, cur, { metrics: flags.metric, slices: flags.slices, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, absoluteMin });
   } catch (e) {
     if (e instanceof NotComparableError) {
       const md = renderNotComparableMarkdown(e.reason);
@@ -110,7 +111,8 @@ export function registerGate(prog: Command, io: Io, setCode: (code: number) => v
     .option('--previous <file>', 'the previous JSON report, the committed one (never written, except by --accept on a pass)')
     .addOption(new Option('--baseline <file>').hideHelp())
     .requiredOption('--current <file>', 'the JSON report of the run under test')
-    .option('--metric <name>', "the metric to gate on (default: the previous report's headline)")
+    .option('--metric <name>', "the metric to gate on (default: the previous report's headline); repeatable: every one is gated, the family-wise error kept at alpha by Holm's method", (v: string, prev: string[] = []) => [...prev, v])
+    .option('--slices', 'also gate every slice level both reports carry (eval --slice), the family-wise error over slices and metrics kept at alpha by Holm\'s method')
     .option('--learner <spec>', "the learner to gate (default: the previous report's best, the baseline learner left out)")
     .option('--current-learner <spec>', 'the learner in the current report, when its spec differs (default: the same spec)')
     .option('--max-drop <d>', "allowed drop in the metric's units, in its worse direction", String(DEFAULT_MAX_DROP))

@@ -9,6 +9,8 @@
  * direction. Wins, ties and losses count folds from THIS learner's side, in the better direction.
  */
 
+import type { GateFamily } from './gate-family.js';
+
 export type Direction = 'better' | 'worse' | 'equal';
 
 /** The Wilcoxon signed-rank figures of the paired differences (this minus reference). */
@@ -131,6 +133,8 @@ export interface GateVerdict {
   readonly p: number;
   /** the --absolute-min limit, or null */
   readonly absoluteMin: number | null;
+  /** several --metric or --slices: every test, Holm-adjusted over the family (gate-family.ts) */
+  readonly family?: GateFamily;
   /** present when --accept was given: whether the previous report's file was replaced */
   readonly accepted?: boolean;
   readonly warnings: readonly string[];
