@@ -14,6 +14,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/honesty.js')).cases,
   ...(await import('./cases/tune.js')).cases,
   ...(await import('./cases/scale.js')).cases,
+  ...(await import('./cases/slices.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {
