@@ -14,6 +14,7 @@ import { cli } from '../helpers/cli.js';
 import { penguinsCsv } from '../helpers/penguins.js';
 import { schemaCheck } from '../helpers/schema.js';
 import { tempFolder } from '../helpers/tmp.js';
+import { figureOf, tags } from '../helpers/html.js';
 
 const tmp = tempFolder();
 const penguins = tmp.file('penguins.csv', penguinsCsv());
@@ -139,6 +140,21 @@ describe('eval --slice and score --slice on the penguins', async () => {
     expect(md.code).toBe(0);
     expect(md.stdout).toMatch(/## accuracy by Island\n/);
     expect(md.stdout).toMatch(/\| Torgersen \| 52 \| \d+ of 10 \|/);
+  });
+
+  it('HTML: a slice chart per column, one mark per learner and scored level at its mean, short levels in words', async () => {
+    const page = await cli([...args, '--slice', 'Island', '--slice', 'Body Mass (g)', '--html', '-', '--no-timing', '--quiet']);
+    expect(page.code).toBe(0);
+    const one = figureOf(page.stdout, 'slice-chart-1');
+    const marks = tags(one, 'g').filter((g) => g.get('class') === 'slice-mark');
+    // 3 islands x 2 learners (baseline and knn)
+    expect(marks.length).toBe(6);
+    for (const m of marks) {
+      const lv = report.slices![0].levels.find((l) => l.level === m.get('data-level'))!;
+      const l = lv.learners.find((x) => x.spec === m.get('data-learner'))!;
+      expect(Math.abs(Number(m.get('data-mean')) - l.summary.accuracy!.mean)).toBeLessThan(1e-9);
+    }
+    expect(figureOf(page.stdout, 'slice-chart-2')).toMatch(/too few rows/);
   });
 
   it('bad --slice and --slice-bins are refused with exit 2, naming the option', async () => {
