@@ -1,5 +1,5 @@
 /**
- * `foldwise gate --previous PREV.json --current NEW.json [--metric M] [--learner SPEC]
+ * `foldwise gate --previous PREV.json --current NEW.json [--metric M ...] [--slices] [--learner SPEC]
  * [--current-learner SPEC] [--max-drop D] [--alpha A] [--absolute-min X] [--accept]
  * [--json FILE|-]`: passes or fails a change against the previous report, the committed one.
  * ("Baseline" is the majority/mean learner; the gate's committed report is the "previous"

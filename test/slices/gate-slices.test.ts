@@ -22,7 +22,7 @@ describe('gate --slices', async () => {
   const prev = join(tmp.dir, 'prev.json');
   const e = await cli(['eval', penguins, '--target', 'Species', '--learner', 'knn', '--plan', 'kfold:5x2', '--slice', 'Island', '--json', prev, '--no-timing', '--quiet']);
   const report: Report = JSON.parse(readFileSync(prev, 'utf8'));
-  const planted = structuredClone(report) as { slices: { levels: { level: string; learners: { spec: string; folds: { scores: Record<string, number | null> }[] }[] }[] }[] };
+  const planted = structuredClone(report) as unknown as { slices: { levels: { level: string; learners: { spec: string; folds: { scores: Record<string, number | null> }[] }[] }[] }[] };
   const biscoe = planted.slices[0].levels.find((l) => l.level === 'Biscoe')!;
   const knn = biscoe.learners.find((l) => l.spec === 'knn')!;
   // a drop of 0.2 in accuracy with some spread, in Biscoe only

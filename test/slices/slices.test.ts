@@ -157,6 +157,19 @@ describe('eval --slice and score --slice on the penguins', async () => {
     expect(figureOf(page.stdout, 'slice-chart-2')).toMatch(/too few rows/);
   });
 
+  it('shards and merge give the same slices as one run, byte for byte (the frame carries the slice columns)', async () => {
+    const one = await cli([...args, '--slice', 'Island', '--slice', 'Body Mass (g)', '--json', '-', '--jobs', '1', '--no-timing', '--quiet']);
+    const parts = [1, 2].map((i) => join(tmp.dir, `part-${i}.json`));
+    for (const [i, part] of parts.entries()) {
+      const r = await cli([...args, '--slice', 'Island', '--slice', 'Body Mass (g)', '--shard', `${i + 1}/2`, '--json', part, '--jobs', '1', '--no-timing', '--quiet']);
+      expect(r.code).toBe(0);
+    }
+    const merged = await cli(['merge', ...parts, '--json', '-', '--no-timing']);
+    expect(merged.code).toBe(0);
+    expect(JSON.parse(merged.stdout).slices.length).toBe(2);
+    expect(merged.stdout).toBe(one.stdout);
+  });
+
   it('bad --slice and --slice-bins are refused with exit 2, naming the option', async () => {
     const a = await cli([...args, '--slice', 'Islnd', '--quiet']);
     expect(a.code).toBe(2);
