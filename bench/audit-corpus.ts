@@ -20,7 +20,7 @@ import { fileURLToPath } from 'node:url';
 import Papa from 'papaparse';
 import { audit, quickSuspects, type AuditReport, type SuspectKind } from '../src/audit/index.js';
 import { loadCsv } from '../src/data/load-csv.js';
-import { createRng, type Rng } from '../src/run/rng.js';
+import { createRng, type Rng } from '../src/rng.js';
 
 export interface CorpusEntry {
   readonly name: string;

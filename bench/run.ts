@@ -16,6 +16,7 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/scale.js')).cases,
   ...(await import('./cases/audit.js')).cases,
   ...(await import('./cases/audit-scale.js')).cases,
+  ...(await import('./cases/slices.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

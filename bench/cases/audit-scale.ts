@@ -7,7 +7,7 @@
  */
 import { audit, quickSuspects } from '../../src/audit/index.js';
 import type { Column, Table } from '../../src/data/types.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { fixed, timeOnce, type BenchCase } from '../case.js';
 
 export function scaleTable(rows: number, features: number, seed: number): Table {

@@ -16,8 +16,8 @@
  * rule applied to the sample.
  */
 import type { Problem } from '../data/problem.js';
-import type { Target } from '../learners/types.js';
-import { createRng, deriveSeed, shuffleInPlace } from '../run/rng.js';
+import type { Target } from '../learning.js';
+import { createRng, deriveSeed, shuffleInPlace } from '../rng.js';
 import { argsortPresent } from './feature-data.js';
 
 export interface AuditSample {

@@ -1,5 +1,5 @@
 /**
- * `foldwise gate --previous PREV.json --current NEW.json [--metric M] [--learner SPEC]
+ * `foldwise gate --previous PREV.json --current NEW.json [--metric M ...] [--slices] [--learner SPEC]
  * [--current-learner SPEC] [--max-drop D] [--alpha A] [--worst-allowed X] [--accept]
  * [--json FILE|-]`: passes or fails a change against the previous report, the committed one.
  * ("Baseline" is the majority/mean learner; the gate's committed report is the "previous"
@@ -35,7 +35,8 @@ interface GateFlags {
   /** the flag's name before format 2: refused with the new name */
   baseline?: string;
   current: string;
-  metric?: string;
+  metric?: string[];
+  slices?: boolean;
   learner?: string;
   currentLearner?: string;
   maxDrop: string;
@@ -90,7 +91,7 @@ function runGate(flags: GateFlags, io: Io): number {
   const power = parseNumberOption(flags.power, '--power', 'a number above alpha and below 1 (such as 0.8)');
   let verdict: GateVerdict;
   try {
-    verdict = gateReports(base, cur, { metric: flags.metric, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, worstAllowed, power });
+    verdict = gateReports(base, cur, { metrics: flags.metric, slices: flags.slices, learner: flags.learner, currentLearner: flags.currentLearner, maxDrop, alpha, worstAllowed, power });
   } catch (e) {
     if (e instanceof NotComparableError) {
       const md = renderNotComparableMarkdown(e.reason);
@@ -124,7 +125,8 @@ export function registerGate(prog: Command, io: Io, setCode: (code: number) => v
     .option('--previous <file>', 'the previous JSON report, the committed one (never written, except by --accept on a pass)')
     .addOption(new Option('--baseline <file>').hideHelp())
     .requiredOption('--current <file>', 'the JSON report of the run under test')
-    .option('--metric <name>', "the metric to gate on (default: the previous report's headline)")
+    .option('--metric <name>', "the metric to gate on (default: the previous report's headline); repeatable: every one is gated, the family-wise error kept at alpha by Holm's method", (v: string, prev: string[] = []) => [...prev, v])
+    .option('--slices', 'also gate every slice level both reports carry (eval --slice), the family-wise error over slices and metrics kept at alpha by Holm\'s method')
     .option('--learner <spec>', "the learner to gate (default: the previous report's best, the baseline learner left out)")
     .option('--current-learner <spec>', 'the learner in the current report, when its spec differs (default: the same spec)')
     .option('--max-drop <d>', "allowed drop in the metric's units, in its worse direction", String(DEFAULT_MAX_DROP))

@@ -27,6 +27,7 @@ import { execute, InterruptedError } from '../run/execute.js';
 import { readSettings } from '../run/identity.js';
 import { withWiderSamples } from '../run/pooled-sample.js';
 import { parseShard } from '../run/shard.js';
+import { DEFAULT_SLICE_BINS, parseSliceBins } from '../slices/slice-columns.js';
 import { registerMerge } from './merge.js';
 import { registerScore } from './score.js';
 import { registerPower } from './power.js';
@@ -85,6 +86,8 @@ interface EvalFlags extends DataFlags, CommandFlags {
   html?: string;
   predictions?: string;
   predictionsKeep?: string[];
+  slice?: string[];
+  sliceBins?: string;
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
@@ -126,6 +129,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     timing: flags.timing,
     audit: flags.audit,
     onFoldError: flags.onFoldError,
+    ...(flags.slice?.length ? { slice: flags.slice, sliceBins: parseSliceBins(flags.sliceBins) } : {}),
   }, {
     commands,
     jobs,
@@ -233,6 +237,8 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--predictions <file>', 'write every out-of-fold prediction as CSV to a file, or - for standard output')
     .option('--predictions-keep <column>', 'copy an input column (an id, say) into each line of the predictions file (repeatable)', collect)
     .option('--no-audit', 'skip the quick data audit that runs before evaluating')
+    .option('--slice <column>', 'also score every metric per level of this column, which need not be a feature (repeatable; numeric columns are cut into quantile bins)', collect)
+    .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all rows (default ${DEFAULT_SLICE_BINS})`)
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 

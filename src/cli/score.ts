@@ -14,6 +14,7 @@ import { renderEvalHtml } from '../report/html/index.js';
 import { renderJson } from '../report/json.js';
 import { renderMarkdown } from '../report/markdown.js';
 import { scoreReport } from '../score/score-report.js';
+import { DEFAULT_SLICE_BINS, parseSliceBins } from '../slices/slice-columns.js';
 import { writeOutputs } from './output.js';
 import { parseDelimiter } from './data-options.js';
 import type { Io } from './io.js';
@@ -34,6 +35,8 @@ interface ScoreFlags {
   json?: string;
   markdown?: string;
   html?: string;
+  slice?: string[];
+  sliceBins?: string;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -75,6 +78,8 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
     .addOption(new Option('--task <task>', 'force the task instead of inferring it').choices(TASKS))
     .option('--train-rows <n>', 'training rows of every fold, when the file does not say (for the corrected intervals)')
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline)', collect)
+    .option('--slice <column>', 'also score every metric per level of this column of the predictions file (repeatable; numeric columns are cut into quantile bins)', collect)
+    .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all lines (default ${DEFAULT_SLICE_BINS})`)
     .option('--delimiter <char>', 'field separator, one character; "tab" or "\\t" for tab', ',')
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output')
@@ -103,6 +108,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
         delimiter: parseDelimiter(flags.delimiter),
         metrics: flags.metric,
         trainRows,
+        ...(flags.slice?.length ? { slice: flags.slice, sliceBins: parseSliceBins(flags.sliceBins) } : {}),
       });
       for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
       writeOutputs(io, flags, {

@@ -31,6 +31,7 @@ import { pairedGateTest, unpairedGateTest, checkGateRuleOptions, type GateTest }
 import type { GateVerdict } from '../model/compare.js';
 import { checkPowerSetting, DEFAULT_POWER, mddInSe } from '../stats/power.js';
 import { tQuantile } from '../stats/index.js';
+import { gateFamily } from './gate-family.js';
 
 export const GATE_SCHEMA = 'foldwise-gate/2';
 export const DEFAULT_MAX_DROP = 0;
@@ -38,6 +39,10 @@ export const DEFAULT_ALPHA = 0.05;
 
 export interface GateOptions {
   readonly metric?: string;
+  /** several metrics at once (the first is the verdict's headline); overrides `metric` */
+  readonly metrics?: readonly string[];
+  /** also gate every slice level both reports carry (gate-family.ts) */
+  readonly slices?: boolean;
   readonly learner?: string;
   readonly currentLearner?: string;
   readonly maxDrop?: number;
@@ -85,10 +90,11 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   const differences = reportDifferences(b, c);
   if (differences.some((d) => d.kind === 'data')) throw new NotComparableError('gate', differences);
 
-  const metric = options.metric ?? b.metrics[0];
-  if (!b.metrics.includes(metric)) {
-    throw new UsageError(`--metric ${metric}: the reports do not score it (they score ${b.metrics.join(', ')})`);
+  const metrics = options.metrics?.length ? [...new Set(options.metrics)] : [options.metric ?? b.metrics[0]];
+  for (const m of metrics) {
+    if (!b.metrics.includes(m)) throw new UsageError(`--metric ${m}: the reports do not score it (they score ${b.metrics.join(', ')})`);
   }
+  const metric = metrics[0];
   const scoreRules = getMetric(metric);
   const higherIsBetter = scoreRules.higherIsBetter;
 
@@ -102,34 +108,48 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
   }
   const cl = findLearner(c, options.currentLearner ?? bl.spec, options.currentLearner !== undefined ? '--current-learner' : '--learner', `the current report ${cur.path}`);
 
-  const bs = allScores(base, bl, metric);
-  const cs = allScores(cur, cl, metric);
   const warnings: string[] = [];
   const vw = versionWarning(b, c);
   if (vw) warnings.push(vw);
-  const ruleOptions = { higherIsBetter, maxDrop, alpha, proportion: scoreRules.proportion, range: scoreRules.range };
 
-  let test: GateTest;
   let unpairedBecause: string[] = differences.map((d) => describeDifferences([d]));
-  if (differences.length === 0) {
-    const paired = pairFolds(bl, cl, metric);
-    if (paired.unmatched === 0 && !paired.sizeMismatch && paired.correction) {
-      test = pairedGateTest(paired.a, paired.b, paired.correction, ruleOptions);
-    } else {
+  const testFor = (m: string): GateTest => {
+    const bs = allScores(base, bl, m);
+    const cs = allScores(cur, cl, m);
+    const rules = getMetric(m);
+    const ruleOptions = { higherIsBetter: rules.higherIsBetter, maxDrop, alpha, proportion: rules.proportion, range: rules.range };
+    if (differences.length === 0) {
+      const paired = pairFolds(bl, cl, m);
+      if (paired.unmatched === 0 && !paired.sizeMismatch && paired.correction) return pairedGateTest(paired.a, paired.b, paired.correction, ruleOptions);
       const why = paired.sizeMismatch
         ? `fold sizes (repeat ${paired.sizeMismatch.key.repeat + 1} fold ${paired.sizeMismatch.key.fold + 1}: train/test ${paired.sizeMismatch.a} vs ${paired.sizeMismatch.b})`
         : `fold lists (${paired.unmatched} folds on one side only)`;
       unpairedBecause = [`${why}, although the plans match`];
-      test = unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
     }
-  } else {
-    test = unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
-  }
+    return unpairedGateTest(bs, meanRows(bl), cs, meanRows(cl), ruleOptions);
+  };
+  const overall = metrics.map(testFor);
+  const test = overall[0];
+  const family =
+    metrics.length > 1 || options.slices
+      ? gateFamily({
+          previous: b,
+          current: c,
+          previousLearner: bl.spec,
+          currentLearner: cl.spec,
+          metrics,
+          overall,
+          slices: Boolean(options.slices),
+          paired: test.rule === 'paired',
+          maxDrop,
+          alpha,
+        })
+      : undefined;
 
   const worse =
     options.worstAllowed !== undefined && (higherIsBetter ? test.currentMean < options.worstAllowed : test.currentMean > options.worstAllowed);
   const reasons: ('regression' | 'worst-allowed')[] = [];
-  if (test.regression) reasons.push('regression');
+  if (family ? family.failing.length > 0 : test.regression) reasons.push('regression');
   if (worse) reasons.push('worst-allowed');
   // what this gate could see: the standard error behind its bound, and the drop it catches with the asked power
   const power = options.power ?? DEFAULT_POWER;
@@ -163,6 +183,7 @@ export function gateReports(base: LoadedReport, cur: LoadedReport, options: Gate
     p: test.p,
     worstAllowed: options.worstAllowed ?? null,
     detectable: mdd === null ? null : { power, mdd, drop: maxDrop + mdd },
+    ...(family ? { family } : {}),
     warnings,
   };
 }

@@ -4,6 +4,7 @@
  */
 import { cell, num } from '../markdown-text.js';
 import type { CrossComparison, GateVerdict } from '../model/compare.js';
+import { familyName } from './gate-family.js';
 
 /** A signed number with four decimals ("+0.0120", "-0.0031"), or "–". */
 export function signed(v: number | null | undefined): string {
@@ -85,6 +86,16 @@ export function renderGateMarkdown(v: GateVerdict): string {
       `- **Rule (unpaired):** the runs used different folds (they differ in ${v.unpairedBecause.map(cell).join(', ')}), so the two sets of fold scores are compared by a Welch test, each variance with the Nadeau-Bengio correction; conservative: pair the runs (same plan and seed) for a sharper gate. Fail only when the drop exceeds ${limit(v.maxDrop)} beyond fold noise; ${test}`,
     );
   }
+  if (v.family) {
+    const f = v.family;
+    out.push(
+      `- **Family:** ${f.tests.length} tests (${[...new Set(f.tests.map((t) => t.metric))].map(cell).join(', ')}${f.tests.some((t) => t.column !== undefined) ? ', on all rows and per slice' : ''}), each the rule above; Holm's step-down method keeps the chance of any false failure at most alpha ${limit(v.alpha)}`,
+    );
+    for (const t of f.tests.filter((x) => x.regression)) {
+      out.push(`- **Failing:** ${cell(familyName(t))}: drop ${num(t.drop)} (one-sided bound ${num(t.dropBound)}), p = ${pValue(t.p)}, Holm-adjusted ${pValue(t.adjustedP)}`);
+    }
+    if (f.notGated.length) out.push(`- **Not gated:** ${f.notGated.map(cell).join('; ')}`);
+  }
   if (v.worstAllowed !== null) {
     const met = !v.reasons.includes('worst-allowed');
     out.push(
@@ -92,7 +103,9 @@ export function renderGateMarkdown(v: GateVerdict): string {
     );
   }
   let why: string;
-  if (v.reasons.includes('regression')) {
+  if (v.reasons.includes('regression') && v.family) {
+    why = `a drop beyond ${limit(v.maxDrop)} and beyond fold noise, after Holm's adjustment, in ${v.family.failing.map(cell).join('; ')}`;
+  } else if (v.reasons.includes('regression')) {
     why = `${m} dropped by ${num(v.drop)} (at least ${num(v.dropBound)} with ${confidence} confidence), more than the allowed ${limit(v.maxDrop)}`;
   } else if (v.improvement) {
     why = `${m} improved beyond fold noise (one-sided, alpha ${limit(v.alpha)})`;

@@ -9,6 +9,7 @@
  * direction. Wins, ties and losses count folds from THIS learner's side, in the better direction.
  */
 
+
 export type Direction = 'better' | 'worse' | 'equal';
 
 /** The Wilcoxon signed-rank figures of the paired differences (this minus reference). */
@@ -143,6 +144,8 @@ export interface GateVerdict {
    * (maxDrop + mdd); null when the folds show no spread
    */
   readonly detectable: { readonly power: number; readonly mdd: number; readonly drop: number } | null;
+  /** several --metric or --slices: every test, Holm-adjusted over the family (src/compare/gate-family.ts) */
+  readonly family?: GateFamily;
   /** present when --accept was given: whether the previous report's file was replaced */
   readonly accepted?: boolean;
   readonly warnings: readonly string[];
@@ -155,4 +158,32 @@ export interface GateSide {
   readonly folds: number;
   /** mean of those scores */
   readonly mean: number;
+}
+
+export interface FamilyTest {
+  readonly metric: string;
+  /** the slice column and level; absent for the test on all rows */
+  readonly column?: string;
+  readonly level?: string;
+  readonly rule: 'paired' | 'unpaired';
+  /** folds the test used (current side) */
+  readonly folds: number;
+  readonly drop: number;
+  /** one-sided (1 - alpha) lower bound of the drop, before the Holm adjustment */
+  readonly dropBound: number;
+  /** one-sided p of H0: drop <= maxDrop */
+  readonly p: number;
+  /** Holm-adjusted p over the family */
+  readonly adjustedP: number;
+  /** adjustedP <= alpha: this test fails the gate */
+  readonly regression: boolean;
+}
+
+export interface GateFamily {
+  readonly method: 'holm';
+  readonly tests: readonly FamilyTest[];
+  /** the failing tests, as "metric" or "metric in column = level" */
+  readonly failing: readonly string[];
+  /** slices or metrics that could not be tested, with why */
+  readonly notGated: readonly string[];
 }

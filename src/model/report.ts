@@ -118,6 +118,8 @@ export interface Report {
   /** the quick audit's findings (absent in reports of older versions, which listed them under warnings) */
   readonly audit?: ReportAudit;
   readonly learners: readonly LearnerReport[];
+  /** every metric per level of each --slice column (src/slices/slice-report.ts); absent without --slice */
+  readonly slices?: readonly SliceReport[];
   /** paired comparisons of the learners on the headline metric (src/compare/within-report.ts); absent with one learner */
   readonly comparisons?: ReportComparisons;
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */
@@ -125,4 +127,44 @@ export interface Report {
     readonly totalMs: number;
     readonly learners: readonly { readonly spec: string; readonly fitMs: number; readonly predictMs: number }[];
   };
+}
+
+/** One learner's scores on one slice, fold by fold: FoldScores whose testRows are the whole fold's. */
+export interface SliceFold extends FoldScores {
+  /** test rows of this fold that fall in the slice (testRows is the whole fold's, for the correction) */
+  readonly rows: number;
+  /** why the fold is not scored in this slice: fewer test rows than minRows; absent when scored */
+  readonly short?: 'rows';
+  /** class-averaged metrics left unscored because a class is missing from the slice's test rows */
+  readonly missingClasses?: readonly string[];
+}
+
+export interface SliceLearner {
+  readonly name: string;
+  readonly spec: string;
+  readonly folds: readonly SliceFold[];
+  /** over the scored folds, with the corrected interval of the whole folds' sizes; null when no fold is scored */
+  readonly summary: Readonly<Record<string, ScoreSummary | null>>;
+}
+
+export interface SliceLevel {
+  readonly level: string;
+  /** data rows of the level among the rows the plan tests (repeat 1) */
+  readonly rows: number;
+  /** folds (of the first learner) with at least minRows test rows in the level */
+  readonly scoredFolds: number;
+  readonly learners: readonly SliceLearner[];
+  /** paired comparisons of the learners in this slice, on the headline metric (as the report's) */
+  readonly comparisons?: ReportComparisons;
+}
+
+export interface SliceReport {
+  readonly column: string;
+  /** levels of a categorical column, or quantile bins of a numeric one */
+  readonly kind: 'levels' | 'bins';
+  /** bin edges fixed on all rows of the file (lowest value, inner edges, highest value) */
+  readonly edges?: readonly number[];
+  /** a fold with fewer test rows than this in a slice is reported, not scored */
+  readonly minRows: number;
+  readonly levels: readonly SliceLevel[];
 }

@@ -119,6 +119,41 @@ function notesLines(report: Report): string[] {
   });
 }
 
+/**
+ * One table per --slice column on the headline metric: each level's rows, the folds scored in
+ * it, and each learner's mean with its corrected interval; a level whose folds all have fewer
+ * than minRows test rows in it says so instead of a score.
+ */
+function sliceSection(report: Report): string[] {
+  if (!report.slices?.length) return [];
+  const head = report.metrics[0];
+  const out: string[] = [];
+  for (const s of report.slices) {
+    const folds = report.learners[0]?.folds.length ?? 0;
+    out.push(`## ${cell(head)} by ${cell(s.column)}${s.kind === 'bins' ? ' (quantile bins fixed on all rows)' : ''}`, '');
+    out.push(
+      table(
+        ['slice', 'rows', 'folds scored', ...report.learners.map((l) => cell(l.spec))],
+        ['l', 'r', 'r', ...report.learners.map(() => 'r' as const)],
+        s.levels.map((lv) => [
+          cell(lv.level),
+          String(lv.rows),
+          `${lv.scoredFolds} of ${folds}`,
+          ...lv.learners.map((l) => {
+            const sm = l.summary[head];
+            if (!sm) return lv.scoredFolds === 0 ? `too few rows (< ${s.minRows} per fold)` : '–';
+            return sm.ci95 ? `${num(sm.mean)} (${num(sm.ci95[0])} to ${num(sm.ci95[1])})` : `${num(sm.mean)} (one fold)`;
+          }),
+        ]),
+      ),
+      '',
+      `_mean over the folds with at least ${s.minRows} test rows in the slice, corrected 95% interval in brackets (whole-fold sizes: conservative); the JSON report has every metric, fold by fold, and the paired comparisons per slice._`,
+      '',
+    );
+  }
+  return out;
+}
+
 /** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
 export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
   const head = report.metrics[0];
@@ -149,6 +184,8 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
       '',
     );
   }
+
+  out.push(...sliceSection(report));
 
   if (report.learners.some((l) => l.final)) {
     out.push('## Holdout (scored once)', '');

@@ -12,6 +12,7 @@
  * Randomness: the plan's generator is derived from (seed, "plan"); each fit gets a seed derived
  * from (seed, "fit", learner spec, repeat, fold).
  */
+import type { TaskRecord } from '../model/record.js';
 import { performance } from 'node:perf_hooks';
 import { dataSection } from '../data/problem.js';
 import type { Table } from '../data/types.js';
@@ -27,8 +28,10 @@ import { foldLabel } from '../model/fold-label.js';
 import { assignmentOf } from './assignment.js';
 import { pooledRefused, scoreNote } from '../stats/score-notes.js';
 import { pooledSample } from './pooled-sample.js';
+import { sliceColumnsOf, type SliceColumn } from '../slices/slice-columns.js';
+import { sliceReports } from '../slices/slice-report.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
-import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
+import { concatPredictions, concatTargets, scoreOf, type Prediction } from '../metrics/scoring.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
 export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -50,35 +53,11 @@ export interface ReportFrame {
   /** the quick audit's findings (absent in parts of older versions) */
   readonly audit?: ReportAudit;
   readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
+  /** --slice: the level of every data row per slice column (absent without --slice, and in parts of older versions) */
+  readonly slices?: readonly SliceColumn[];
 }
 
-/** One task's outcome with what scoring needs: its place, sizes, actual and predicted values. */
-export interface TaskRecord {
-  readonly id: string;
-  readonly candidateIndex: number;
-  /** -1 for the final (holdout) task */
-  readonly foldIndex: number;
-  readonly repeat: number;
-  readonly fold: number;
-  readonly trainRows: number;
-  readonly actual: Target;
-  readonly predicted: Int32Array | Float64Array;
-  readonly probs?: Float64Array;
-  readonly fitMs: number;
-  readonly predictMs: number;
-  /** why the task failed; `predicted` is then empty */
-  readonly failed?: string;
-  /** 0-based data row in the input file of each test row (for --predictions) */
-  readonly rows?: Int32Array;
-  /** 1-based line in the input file of each test row */
-  readonly lines?: Int32Array;
-  /** --predictions-keep: the kept columns' text, row by row (rows x kept columns) */
-  readonly keep?: readonly string[];
-  /** tune: the candidate this outer fold picked (the predictions file's pick column) */
-  readonly pick?: string;
-  /** the model's notes about this fit (Model.notes) */
-  readonly notes?: Readonly<Record<string, number>>;
-}
+export type { TaskRecord };
 
 export function frameOf(prepared: Prepared): ReportFrame {
   const { problem, plan, planSpec, metrics, candidates } = prepared;
@@ -101,6 +80,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     warnings: prepared.warnings,
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
+    ...(prepared.slice ? { slices: sliceColumnsOf(prepared.table, prepared.slice.names, prepared.slice.bins) } : {}),
   };
 }
 
@@ -252,6 +232,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     warnings: [...new Set(warnings)],
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
+    ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, frame.metrics, frame.data.classes) } : {}),
     ...(totalMs === undefined
       ? {}
       : {

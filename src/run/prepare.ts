@@ -17,6 +17,7 @@ import type { Impute } from '../prep/fold-prep.js';
 import { quickSuspects } from '../audit/quick-audit.js';
 import type { ReportAudit } from '../model/report.js';
 import { planFor } from '../plans/plan-for.js';
+import { checkSliceBins, checkSliceNames, DEFAULT_SLICE_BINS } from '../slices/slice-columns.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
 
 import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../plans/defaults.js';
@@ -45,6 +46,10 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly audit?: boolean;
   /** a failed fold of a command: learner stops the run (fail, default) or is recorded (skip) */
   readonly onFoldError?: OnFoldError;
+  /** --slice: columns to score every metric per level of (src/slices/) */
+  readonly slice?: readonly string[];
+  /** --slice-bins: quantile bins of a numeric slice column (default 4) */
+  readonly sliceBins?: number;
 }
 
 export interface Prepared extends TaskContext {
@@ -56,6 +61,8 @@ export interface Prepared extends TaskContext {
   readonly warnings: readonly string[];
   /** the quick audit's findings, set by withAudit (absent when it was not called) */
   readonly audit?: ReportAudit;
+  /** --slice columns (checked) and --slice-bins; absent without --slice */
+  readonly slice?: { readonly names: readonly string[]; readonly bins: number };
 }
 
 function resolveCandidates(problem: Problem, options: EvaluateOptions, headline: string): Candidate[] {
@@ -129,6 +136,9 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
       warnings.push('leave-one-out: each fold scores one row, so per-fold spread is degenerate; read the pooled scores');
     }
   }
+  const sliceNames = options.slice ?? [];
+  checkSliceNames(table, sliceNames, problem.targetName);
+  const sliceBins = checkSliceBins(options.sliceBins ?? DEFAULT_SLICE_BINS);
   return {
     table,
     problem,
@@ -143,5 +153,6 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     final: Boolean(options.final && plan.holdout),
     onFoldError: options.onFoldError ?? 'fail',
     warnings,
+    ...(sliceNames.length ? { slice: { names: sliceNames, bins: sliceBins } } : {}),
   };
 }

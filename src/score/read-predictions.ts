@@ -28,6 +28,8 @@ export interface ScoreColumns {
   readonly probColumns?: readonly string[];
   readonly task?: Task;
   readonly delimiter?: string;
+  /** --slice: columns whose text per line the groups keep (sliceTexts) */
+  readonly slice?: readonly string[];
 }
 
 export interface PredictionGroup {
@@ -46,6 +48,8 @@ export interface PredictionGroup {
   readonly rows: number[];
   /** the train_rows column's value, when the file has one */
   trainRows?: number;
+  /** --slice: per slice column, the text of each line of the group */
+  readonly sliceTexts: string[][];
 }
 
 export interface ReadPredictions {
@@ -130,6 +134,7 @@ export function readPredictions(text: string, name: string, opts: ScoreColumns =
   const rowI = column(foldwise ? 'row' : opts.row, '--row', false);
   const roleI = foldwise ? index.get('role') : undefined;
   const trainI = foldwise ? index.get('train_rows') : undefined;
+  const sliceI = (opts.slice ?? []).map((c) => column(c, '--slice', true)!);
 
   // probability columns and their classes
   let probs: { col: number; cls: string }[] = [];
@@ -204,11 +209,12 @@ export function readPredictions(text: string, name: string, opts: ScoreColumns =
     const key = `${li}\u0000${repeat}\u0000${fold}\u0000${role}`;
     let g = groups.get(key);
     if (!g) {
-      g = { learner: li, repeat: -1, fold: -1, holdout, fileLines: [], actual: [], predicted: [], rows: [] };
+      g = { learner: li, repeat: -1, fold: -1, holdout, fileLines: [], actual: [], predicted: [], rows: [], sliceTexts: sliceI.map(() => []) };
       groups.set(key, g);
       rawGroups.push({ key, repeat, fold, holdout, g });
     }
     g.fileLines.push(r.line);
+    sliceI.forEach((c, k) => g!.sliceTexts[k].push(r.fields[c]));
     if (task === 'classification') {
       const a = classIndex.get(need(r, actualI, 'actual'));
       const p = classIndex.get(need(r, predictedI, 'predicted'));

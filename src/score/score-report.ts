@@ -17,10 +17,30 @@ import { defaultMetrics, getMetric } from '../metrics/index.js';
 import type { Report, ReportSource } from '../model/report.js';
 import { assignmentOf } from '../run/assignment.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from '../run/evaluate.js';
-import { readPredictions, type ReadPredictions, type ScoreColumns } from './read-predictions.js';
+import { classOrder, readPredictions, type ReadPredictions, type ScoreColumns } from './read-predictions.js';
+import { binnedSlice, DEFAULT_SLICE_BINS, levelSlice, type SliceColumn } from '../slices/slice-columns.js';
+
+const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * A slice column from the texts of a predictions file's lines: numeric when every non-empty
+ * text is a number (then quantile bins, edges fixed on all lines of the file), levels otherwise
+ * (in foldwise's class order); an empty text is missing.
+ */
+function sliceOfTexts(name: string, texts: readonly string[], bins: number): SliceColumn {
+  const present = texts.filter((t) => t.trim() !== '');
+  if (present.length && present.every((t) => NUMBER.test(t.trim()))) {
+    return binnedSlice(name, Float64Array.from(texts, (t) => (t.trim() === '' ? Number.NaN : Number(t))), bins);
+  }
+  const levels = classOrder(present);
+  const at = new Map(levels.map((l, i) => [l, i]));
+  return levelSlice(name, levels, texts.map((t) => (t.trim() === '' ? -1 : at.get(t)!)));
+}
 
 export interface ScoreOptions extends ScoreColumns {
   readonly metrics?: readonly string[];
+  /** --slice-bins for numeric --slice columns (default 4) */
+  readonly sliceBins?: number;
   /** the training rows of every fold, when the file does not say */
   readonly trainRows?: number;
 }
@@ -69,6 +89,11 @@ export function scoreReport(text: string, file: string, opts: ScoreOptions = {})
   const assignment = read.hasRows ? assignmentOf(first.map((g) => ({ repeat: g.repeat, fold: g.fold, rows: g.rows }))) : undefined;
   const holdoutRows = read.groups.find((g) => g.holdout)?.actual.length;
 
+  // --slice: every line of the file gets an index; the slice columns are indexed by it
+  const slices = (opts.slice ?? []).map((name, k) => sliceOfTexts(name, read.groups.flatMap((g) => g.sliceTexts[k]), opts.sliceBins ?? DEFAULT_SLICE_BINS));
+  const starts: number[] = [];
+  read.groups.reduce((at, g) => (starts.push(at), at + g.actual.length), 0);
+
   const frame: ReportFrame = {
     data: {
       path: file,
@@ -97,6 +122,7 @@ export function scoreReport(text: string, file: string, opts: ScoreOptions = {})
     metrics,
     warnings,
     learners: read.learners.map((spec) => ({ name: learnerName(spec), spec, params: {} })),
+    ...(slices.length ? { slices } : {}),
   };
 
   const classes = read.classes ?? [];
@@ -114,6 +140,7 @@ export function scoreReport(text: string, file: string, opts: ScoreOptions = {})
       ...(g.probs ? { probs: Float64Array.from(g.probs) } : {}),
       fitMs: 0,
       predictMs: 0,
+      ...(slices.length ? { rows: Int32Array.from(g.actual, (_, k) => starts[i] + k) } : {}),
     };
   });
   const report = assembleReport(frame, records);

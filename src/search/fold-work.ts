@@ -36,7 +36,7 @@ import type { Learner, Params, Target } from '../learning.js';
 import { notesOf } from '../run/notes.js';
 import { createRng, deriveSeed } from '../rng.js';
 import { type SplitData, subsetTarget } from '../run/tasks.js';
-import type { Prediction } from '../run/scoring.js';
+import type { Prediction } from '../metrics/scoring.js';
 import type { SearchCandidate } from './space.js';
 
 /** Counts of the work done, against what a plain loop over candidates would do. */

@@ -10,7 +10,7 @@ import type { Problem } from '../data/problem.js';
 import { dataSection } from '../data/problem.js';
 import type { Target } from '../learning.js';
 import type { ReportFrame, TaskRecord } from '../run/evaluate.js';
-import type { Prediction } from '../run/scoring.js';
+import type { Prediction } from '../metrics/scoring.js';
 
 export interface TunePredictions {
   readonly problem: Problem;

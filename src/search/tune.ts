@@ -57,7 +57,7 @@ import { newWorkCount, predictAll, type WorkCount } from './fold-work.js';
 import { splitHoldout } from './holdout-split.js';
 import { type InnerStat, innerStat, type Pick, PICK_RULES, pickCandidate, type PickRule } from './pick.js';
 import { allRows, planOver, type SubsetPlan } from './plan-over.js';
-import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../run/scoring.js';
+import { concatPredictions, concatTargets, type Prediction, scoreOf } from '../metrics/scoring.js';
 import { parseSearchSpace, type SearchCandidate, searchCandidates } from './space.js';
 import type { TunePredictions } from './tune-predictions.js';
 

@@ -10,6 +10,7 @@ export {
 } from './corrected-interval.js';
 export { summarize, type Summary, type SummaryRules } from './summary.js';
 export { binomialVarianceFloor, clipInterval, differenceRange } from './variance-floor.js';
+export { holm, type HolmResult } from './holm.js';
 export { correctedT, type CorrectedTResult } from './corrected-t.js';
 export {
   roundingTolerance,

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import { audit, quickAudit, type AuditReport, type Suspect } from '../../src/audit/index.js';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { prepareRun } from '../../src/run/prepare.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { PENGUINS_JSON } from '../helpers/penguins.js';
 import { cleanColumns, gauss, tableOf, type Cell } from './synthetic.js';
 

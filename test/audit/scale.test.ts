@@ -8,7 +8,7 @@ import { audit, AUDIT_LIMITS } from '../../src/audit/index.js';
 import { argsortPresent } from '../../src/audit/feature-data.js';
 import { sampleRows } from '../../src/audit/sample.js';
 import type { Column, Table } from '../../src/data/types.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 import { expectValidAudit } from './validate.js';
 
 describe('argsortPresent', () => {

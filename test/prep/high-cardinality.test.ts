@@ -8,7 +8,7 @@ import { audit } from '../../src/audit/index.js';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { defineProblem } from '../../src/data/problem.js';
 import { applyPrep, fitPrep, ONE_HOT_LIMIT } from '../../src/prep/fold-prep.js';
-import { createRng } from '../../src/run/rng.js';
+import { createRng } from '../../src/rng.js';
 
 async function problemWith(levels: number, n: number) {
   const rng = createRng(7);

@@ -1,7 +1,8 @@
 /**
  * The HTML page of an eval report: a heading naming the target and data (and counting the
  * warnings and the quick audit's suspects), the summary chart of the headline metric, the
- * paired comparison chart (when the report carries comparisons), a table of every metric, then
+ * paired comparison chart (when the report carries comparisons), a table of every metric, the
+ * slice charts (with --slice: slice-chart.ts), then
  * by task:
  *
  * - classification: the pooled confusion matrix of the best learner (the others' folded away in
@@ -24,6 +25,7 @@ import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
 import { residualChart, scatterChart } from './regression-charts.js';
 import { summaryChart } from './summary-chart.js';
+import { sliceCharts } from './slice-chart.js';
 import { foldLabel } from '../../model/fold-label.js';
 import type { Report } from '../../model/report.js';
 
@@ -58,6 +60,8 @@ export function renderEvalHtml(report: Report): string {
   const cmp = comparisonChart(ctx);
   if (cmp) parts.push('<section><h2>Paired comparisons</h2>', cmp, '</section>');
   parts.push('<section><h2>All metrics</h2>', metricsTable(report), '</section>');
+  const slices = sliceCharts(report, ctx.higherIsBetter);
+  if (slices) parts.push('<section><h2>Slices</h2>', slices, '</section>');
 
   if (d.task === 'classification' && d.classes) {
     const withMatrix = report.learners.filter((l) => l.confusion && l.confusion.length > 0);

@@ -4,7 +4,7 @@
  * and the concatenations that pooled out-of-fold scores are computed on.
  */
 import type { Target } from '../learning.js';
-import type { Metric } from '../metrics/types.js';
+import type { Metric } from './types.js';
 
 export interface Prediction {
   readonly predicted: Int32Array | Float64Array;
