@@ -105,7 +105,7 @@ describe('comparisons inside an eval report (Palmer penguins, vega-datasets; Gor
     expect(r.code).toBe(0);
     expect(r.stdout).toContain('## accuracy: paired comparisons on the same folds');
     expect(r.stdout).toContain('| learner | vs | difference | 95% interval (corrected) | t | p | Wilcoxon p | detectable | wins/ties/losses |');
-    expect(r.stdout).toMatch(/\| knn \| baseline \| \+0\.\d{4} \| \+0\.\d{4} to \+0\.\d{4} \| [\d.]+ \| < 0\.0001 \| [\d.]+ \| 10\/0\/0 \|/);
+    expect(r.stdout).toMatch(/\| knn \| baseline \| \+0\.\d{4} \| \+0\.\d{4} to \+0\.\d{4} \| [\d.]+ \| < 0\.0001 \| [\d.]+ \| 0\.\d{4} \| 10\/0\/0 \|/);
     expect(r.stdout).toContain('difference = learner minus reference over 10 paired folds (accuracy: higher is better)');
   });
 
