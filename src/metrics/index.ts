@@ -6,8 +6,10 @@
  */
 import { closeNames, UsageError } from '../errors.js';
 import { accuracy } from './accuracy.js';
+import { averagePrecision } from './average-precision.js';
 import { balancedAccuracy } from './balanced-accuracy.js';
 import { brier } from './brier.js';
+import { ece } from './ece.js';
 import { kappa } from './kappa.js';
 import { logLoss } from './log-loss.js';
 import { macroF1 } from './macro-f1.js';
@@ -23,11 +25,16 @@ import type { ClassificationInput, Metric, RegressionInput } from './types.js';
 
 export type { ClassificationInput, Metric, RegressionInput } from './types.js';
 export { confusionMatrix } from './confusion-matrix.js';
+export { brierParts, type BrierParts } from './brier-parts.js';
+export { calibrationPairs, equalCountBins, type CalibrationBin } from './calibration-bins.js';
+export { ECE_BINS } from './ece.js';
 export { perClassScores, type PerClassScores } from './per-class.js';
 export {
   accuracy,
+  averagePrecision,
   balancedAccuracy,
   brier,
+  ece,
   kappa,
   logLoss,
   macroF1,
@@ -52,6 +59,8 @@ export const METRIC_NAMES = [
   'log_loss',
   'brier',
   'roc_auc',
+  'average_precision',
+  'ece',
   'mae',
   'rmse',
   'r2',
@@ -92,6 +101,8 @@ export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metr
   classification('log_loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [1e-15, 1-1e-15]'),
   classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)'),
   classification('roc_auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes'),
+  classification('average_precision', averagePrecision, true, true, 'step-wise area under the precision-recall curve; macro one-vs-rest for more than two classes'),
+  classification('ece', ece, true, false, 'expected calibration error, 10 equal-count bins; top-label form for more than two classes'),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
   regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant'),

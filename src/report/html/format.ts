@@ -37,7 +37,10 @@ function unitOf(metric: string, target: string): string {
     case 'macro_recall':
     case 'macro_f1':
     case 'roc_auc':
+    case 'average_precision':
       return '0 to 1';
+    case 'ece':
+      return 'probability gap, 0 to 1';
     case 'mcc':
     case 'kappa':
       return '−1 to 1';
