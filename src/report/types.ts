@@ -4,6 +4,7 @@
  * (for example ROC AUC on a fold with one class) is null.
  */
 import type { ReportComparisons } from '../compare/types.js';
+import type { LearnerCurves } from '../curves/types.js';
 import type { Params, Task } from '../learners/types.js';
 
 export interface ScoreSummary {
@@ -51,6 +52,8 @@ export interface LearnerReport {
     readonly failed?: string;
     readonly notes?: Readonly<Record<string, number>>;
   };
+  /** classification with probabilities: ROC, precision-recall and reliability curves of the out-of-fold predictions (src/curves/) */
+  readonly curves?: LearnerCurves;
   /** regression only: an evenly spaced sample of the pooled out-of-fold predictions (src/run/pooled-sample.ts) */
   readonly pooledSample?: PooledSample;
 }

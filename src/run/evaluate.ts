@@ -24,6 +24,7 @@ import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { foldLabel } from '../report/fold-label.js';
+import { learnerCurves } from '../curves/build.js';
 import { assignmentOf } from './assignment.js';
 import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -233,6 +234,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
         : {}),
       ...(final ? { final } : {}),
+      ...(curvesOf(preds, actual, frame.data.classes, { testRows: testMean, trainRows: trainMean })),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
     };
     return report;
@@ -259,4 +261,22 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         }),
   };
   return withComparisons(report);
+}
+
+/** The curves of a classifier whose every scored fold has probabilities (src/curves/); nothing otherwise. */
+function curvesOf(
+  preds: readonly Prediction[],
+  actual: readonly Target[],
+  classNames: readonly string[] | undefined,
+  sizes: { testRows: number; trainRows: number },
+): Pick<LearnerReport, 'curves'> {
+  if (!classNames || classNames.length < 2 || preds.length === 0) return {};
+  const folds: { actual: Int32Array; proba: Float64Array }[] = [];
+  for (let i = 0; i < preds.length; i++) {
+    const a = actual[i];
+    const proba = preds[i].proba;
+    if (a.task !== 'classification' || !proba) return {};
+    folds.push({ actual: a.codes, proba });
+  }
+  return { curves: learnerCurves(folds, classNames, sizes) };
 }
