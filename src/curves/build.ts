@@ -9,7 +9,7 @@
  * class keeps its areas up to CLASS_AREA_LIMIT classes; beyond that no per-class entry is
  * kept at all, only the averages).
  */
-import { brierParts } from '../metrics/brier-parts.js';
+import { brierParts, fewForecasts } from '../metrics/brier-parts.js';
 import { calibrationPairs, equalCountBins } from '../metrics/calibration-bins.js';
 import type { ScoreSummary } from '../report/types.js';
 import { summarize } from '../stats/index.js';
@@ -106,7 +106,7 @@ function calibrationOf(actual: Int32Array, proba: Float64Array, classes: number)
     ece += (b.count / n) * gap;
     mce = Math.max(mce, gap);
   }
-  const parts = brierParts({ actual, predicted: new Int32Array(n), classes, proba });
+  const parts = fewForecasts(proba, classes, BRIER_GROUP_LIMIT) ? brierParts({ actual, predicted: new Int32Array(n), classes, proba }) : undefined;
   return {
     form: classes === 2 ? 'positive-class' : 'top-label',
     bins: bins.map((b) => ({
@@ -119,7 +119,7 @@ function calibrationOf(actual: Int32Array, proba: Float64Array, classes: number)
     })),
     ece,
     mce,
-    ...(parts.groups <= BRIER_GROUP_LIMIT ? { brierParts: parts } : { distinctForecasts: parts.groups }),
+    ...(parts ? { brierParts: parts } : { distinctForecastsAbove: BRIER_GROUP_LIMIT }),
   };
 }
 

@@ -61,8 +61,8 @@ export interface Calibration {
     readonly uncertainty: number;
     readonly groups: number;
   };
-  /** when brierParts is left out: the number of distinct forecast vectors */
-  readonly distinctForecasts?: number;
+  /** when brierParts is left out: the forecasts take more distinct vectors than this (BRIER_GROUP_LIMIT) */
+  readonly distinctForecastsAbove?: number;
 }
 
 export interface LearnerCurves {

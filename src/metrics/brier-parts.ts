@@ -32,6 +32,21 @@ export interface BrierParts {
   readonly groups: number;
 }
 
+/**
+ * Whether the rows' probability vectors take at most `limit` distinct values; stops reading at
+ * the first vector past the limit, so it is cheap on continuous forecasts (where the partition
+ * says little: nearly every row is its own group).
+ */
+export function fewForecasts(proba: Float64Array, classes: number, limit: number): boolean {
+  const seen = new Set<string>();
+  const n = proba.length / classes;
+  for (let i = 0; i < n; i++) {
+    seen.add(Array.prototype.join.call(proba.subarray(i * classes, (i + 1) * classes), ','));
+    if (seen.size > limit) return false;
+  }
+  return true;
+}
+
 export function brierParts(input: ClassificationInput): BrierParts {
   const proba = checkProbabilities('brier_parts', input);
   const { actual, classes } = input;

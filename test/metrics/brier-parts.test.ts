@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { brier } from '../../src/metrics/brier.js';
-import { brierParts } from '../../src/metrics/brier-parts.js';
+import { brierParts, fewForecasts } from '../../src/metrics/brier-parts.js';
 import { PENGUINS_JSON } from '../helpers/penguins.js';
 import { binaryScores } from './helpers.js';
 
@@ -62,5 +62,19 @@ describe('Brier partition (Murphy 1973)', () => {
       else expect(p.reliability).toBeGreaterThan(1e-4);
       expect(p.resolution).toBeGreaterThan(0.1); // the island says much about the species
     }
+  });
+});
+
+describe('fewForecasts (when the report keeps the partition)', () => {
+  it('counts distinct probability vectors up to the limit', () => {
+    // 100 distinct vectors, each twice: at most 100 -> true; one more distinct vector -> false
+    const rows = 201;
+    const proba = new Float64Array(2 * rows);
+    for (let i = 0; i < 200; i++) (proba[2 * i] = (i % 100) / 100), (proba[2 * i + 1] = 1 - (i % 100) / 100);
+    expect(fewForecasts(proba.subarray(0, 400), 2, 100)).toBe(true);
+    proba[400] = 0.555;
+    proba[401] = 0.445;
+    expect(fewForecasts(proba, 2, 100)).toBe(false);
+    expect(fewForecasts(proba, 2, 101)).toBe(true);
   });
 });
