@@ -7,8 +7,10 @@
 import { closeNames, UsageError } from '../errors.js';
 import { refuseOldMetric } from '../renamed.js';
 import { accuracy } from './accuracy.js';
+import { averagePrecision } from './average-precision.js';
 import { balancedAccuracy } from './balanced-accuracy.js';
 import { brier } from './brier.js';
+import { ece } from './ece.js';
 import { kappa } from './kappa.js';
 import { LOG_LOSS_EPS, logLoss } from './log-loss.js';
 import { macroF1 } from './macro-f1.js';
@@ -24,11 +26,16 @@ import type { ClassificationInput, Metric, RegressionInput, ScoreRules } from '.
 
 export type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 export { confusionMatrix } from './confusion-matrix.js';
+export { brierParts, type BrierParts } from './brier-parts.js';
+export { calibrationPairs, equalCountBins, type CalibrationBin } from './calibration-bins.js';
+export { ECE_BINS } from './ece.js';
 export { perClassScores, type PerClassScores } from './per-class.js';
 export {
   accuracy,
+  averagePrecision,
   balancedAccuracy,
   brier,
+  ece,
   kappa,
   logLoss,
   macroF1,
@@ -53,6 +60,8 @@ export const METRIC_NAMES = [
   'log-loss',
   'brier',
   'roc-auc',
+  'average-precision',
+  'ece',
   'mae',
   'rmse',
   'r2',
@@ -126,6 +135,8 @@ export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metr
   classification('log-loss', logLoss, true, false, 'mean -ln(probability of the actual class), clipped to [2^-53, 1-2^-53]', { ...ERROR, range: [0, LOG_LOSS_MAX] }),
   classification('brier', brier, true, false, 'mean over rows of the sum of squared probability errors over classes (0..2)', { ...ERROR, range: [0, 2] }),
   classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
+  classification('average-precision', averagePrecision, true, true, 'step-wise area under the precision-recall curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
+  classification('ece', ece, true, false, 'expected calibration error, 10 equal-count bins; top-label form for more than two classes', { ...ERROR, range: [0, 1] }),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
   regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant', { ...ERROR, range: [-Infinity, 1] }),

@@ -4,23 +4,14 @@
  * (for example ROC AUC on a fold with one class) is null.
  */
 import type { DataSection } from '../data/types.js';
+import type { ScoreSummary } from './summary.js';
 import type { Params } from '../learning.js';
 import type { ReportComparisons } from './compare.js';
+import type { LearnerCurves } from './curves.js';
 
 export type { DataSection };
+export type { ScoreSummary };
 
-export interface ScoreSummary {
-  readonly n: number;
-  readonly mean: number;
-  readonly median: number;
-  readonly sd: number | null;
-  readonly min: number;
-  readonly max: number;
-  readonly q1: number;
-  readonly q3: number;
-  /** 95% interval for the mean, Student t with the Nadeau-Bengio variance correction */
-  readonly ci95: readonly [number, number] | null;
-}
 
 export interface FoldScores {
   readonly repeat: number;
@@ -54,6 +45,8 @@ export interface LearnerReport {
     readonly failed?: string;
     readonly notes?: Readonly<Record<string, number>>;
   };
+  /** classification with probabilities: ROC, precision-recall and reliability curves of the out-of-fold predictions (src/curves/) */
+  readonly curves?: LearnerCurves;
   /** regression only: an evenly spaced sample of the pooled out-of-fold predictions (src/run/pooled-sample.ts) */
   readonly pooledSample?: PooledSample;
 }

@@ -4,6 +4,7 @@
  * matrix of the best learner, the quick audit's suspects, and the warnings. Numbers are
  * right-aligned with four decimals.
  */
+import { curvesSection } from '../curves/markdown.js';
 import { foldCount, foldLabel } from '../model/fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 
@@ -230,6 +231,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
     );
   }
 
+  out.push(...curvesSection(report, cell, num, table));
   out.push(...auditSection(report.audit));
   if (report.warnings.length) {
     out.push('## Warnings', '', ...report.warnings.map((w) => `- ${cell(w)}`), '');

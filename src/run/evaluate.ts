@@ -25,6 +25,7 @@ import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
 import { REPORT_SCHEMA, VERSION } from '../version.js';
 import { foldLabel } from '../model/fold-label.js';
+import { learnerCurves } from '../curves/build.js';
 import { assignmentOf } from './assignment.js';
 import { pooledRefused, scoreNote } from '../stats/score-notes.js';
 import { pooledSample } from './pooled-sample.js';
@@ -216,6 +217,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
         : {}),
       ...(final ? { final } : {}),
+      ...(curvesOf(preds, actual, frame.data.classes, { testRows: testMean, trainRows: trainMean })),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
     };
     return report;
@@ -243,4 +245,22 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         }),
   };
   return withComparisons(report);
+}
+
+/** The curves of a classifier whose every scored fold has probabilities (src/curves/); nothing otherwise. */
+function curvesOf(
+  preds: readonly Prediction[],
+  actual: readonly Target[],
+  classNames: readonly string[] | undefined,
+  sizes: { testRows: number; trainRows: number },
+): Pick<LearnerReport, 'curves'> {
+  if (!classNames || classNames.length < 2 || preds.length === 0) return {};
+  const folds: { actual: Int32Array; proba: Float64Array }[] = [];
+  for (let i = 0; i < preds.length; i++) {
+    const a = actual[i];
+    const proba = preds[i].probs;
+    if (a.task !== 'classification' || !proba) return {};
+    folds.push({ actual: a.codes, proba });
+  }
+  return { curves: learnerCurves(folds, classNames, sizes) };
 }

@@ -31,9 +31,9 @@ const ok: ClassificationInput = {
 };
 
 describe('classification input checks, for every classification metric', () => {
-  it('has the ten classification metrics and three with probabilities', () => {
-    expect(classification.length).toBe(10);
-    expect(withProba.map((m) => m.name)).toEqual(['log-loss', 'brier', 'roc-auc']);
+  it('has the twelve classification metrics and five with probabilities', () => {
+    expect(classification.length).toBe(12);
+    expect(withProba.map((m) => m.name)).toEqual(['log-loss', 'brier', 'roc-auc', 'average-precision', 'ece']);
   });
   for (const m of classification) {
     const fn = m.fn as (input: ClassificationInput) => number;

@@ -62,17 +62,17 @@ describe('HTML eval report of a classification run (penguins)', async () => {
     expect(html).not.toMatch(/url\(/i);
   });
 
-  it('has the summary, comparison, metrics, confusion and recall views, each chart with a text alternative', () => {
-    for (const id of ['summary', 'comparisons', 'recall']) expect(html).toContain(`<figure class="chart" id="${id}">`);
+  it('has the summary, comparison, metrics, confusion, recall, curve and reliability views, each chart with a text alternative', () => {
+    for (const id of ['summary', 'comparisons', 'recall', 'roc', 'pr', 'reliability']) expect(html).toContain(`<figure class="chart" id="${id}">`);
     const svgs = tags(html, 'svg');
-    expect(svgs.length).toBe(3);
+    expect(svgs.length).toBe(6);
     for (const s of svgs) {
       expect(s.get('role')).toBe('img');
       expect((s.get('aria-label') ?? '').length).toBeGreaterThan(10);
       const id = s.get('aria-describedby') ?? '';
       expect(html).toMatch(new RegExp(`<desc id="${id}">[^<]{40,}</desc>`));
     }
-    expect(html.match(/<title id="[a-z-]+-title">/g)?.length).toBe(3);
+    expect(html.match(/<title id="[a-z-]+-title">/g)?.length).toBe(6);
     expect(html).toContain('<table class="metrics">');
     expect(html.match(/<table class="confusion"/g)?.length).toBe(report.learners.length);
     expect(html).toContain('<footer>');

@@ -6,7 +6,9 @@
  * by task:
  *
  * - classification: the pooled confusion matrix of the best learner (the others' folded away in
- *   a <details> block) and the per-class recall bars;
+ *   a <details> block), the per-class recall bars, and for the best learner with probabilities
+ *   the ROC and precision-recall curves with their fold bands and the reliability diagram
+ *   (curve-charts.ts);
  * - regression: for the best learner, predicted against actual with the identity line and the
  *   residuals against predicted with a zero line, drawn from the sample of pooled out-of-fold
  *   predictions the report carries (regression-charts.ts); the other learners' charts folded
@@ -16,6 +18,7 @@
  */
 import { comparisonChart } from './comparison-chart.js';
 import { confusionTable } from './confusion-table.js';
+import { prChart, reliabilityChart, rocChart } from './curve-charts.js';
 import { chartContext, summaryOf } from './context.js';
 import { esc } from './escape.js';
 import { evalFooter } from './footer.js';
@@ -78,6 +81,13 @@ export function renderEvalHtml(report: Report): string {
       parts.push('</section>');
       const recall = recallChart(ctx);
       if (recall) parts.push('<section><h2>Recall per class</h2>', recall, '</section>');
+    }
+    // curves of the best learner with probabilities (src/curves/); the baseline only when alone
+    const withCurves = report.learners.filter((l) => l.curves);
+    const shown = ctx.best && withCurves.includes(ctx.best) ? ctx.best : (withCurves.find((l) => l !== ctx.baseline) ?? withCurves[0]);
+    if (shown) {
+      parts.push(`<section><h2>${esc(`Curves of ${shown.spec}`)}</h2>`, rocChart(shown) ?? '', prChart(shown) ?? '', '</section>');
+      parts.push(`<section><h2>${esc(`Calibration of ${shown.spec}`)}</h2>`, reliabilityChart(shown) ?? '', '</section>');
     }
   }
   if (d.task === 'regression') {

@@ -37,7 +37,10 @@ function unitOf(metric: string, target: string): string {
     case 'macro-recall':
     case 'macro-f1':
     case 'roc-auc':
+    case 'average-precision':
       return '0 to 1';
+    case 'ece':
+      return 'probability gap, 0 to 1';
     case 'mcc':
     case 'kappa':
       return '−1 to 1';
