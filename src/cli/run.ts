@@ -9,7 +9,8 @@ import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 import type { Readable } from 'node:stream';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
-import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
+import { DEFAULT_MISSING } from '../data/load-csv.js';
+import { loadTable } from '../data/load-table.js';
 import { DATE_ORDERS, parseDateOrder } from '../data/dates.js';
 import type { ProblemOptions } from '../data/problem.js';
 import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
@@ -91,7 +92,7 @@ export interface DataFlags {
 /** Options shared by every command that reads a CSV. */
 export function addDataOptions(cmd: Command): Command {
   return cmd
-    .argument('<data>', 'CSV file, or - for standard input')
+    .argument('<data>', 'CSV, Parquet or Arrow file, or - for CSV on standard input')
     .requiredOption('--target <column>', 'the column to predict')
     .option('--drop <column>', 'leave a column out (repeatable)', collect)
     .option('--categorical <column>', 'read a column as categorical even if numeric (repeatable)', collect)
@@ -196,7 +197,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
-  const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   const result = await execute(table, {

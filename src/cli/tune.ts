@@ -11,7 +11,7 @@
 import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
 import { resolve } from 'node:path';
-import { loadCsv } from '../data/load-csv.js';
+import { loadTable } from '../data/load-table.js';
 import { loadExternalLearners } from '../learners/index.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
@@ -93,7 +93,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
   io.stderr.write(`foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`);
 
-  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  const table = await loadTable(sourceOf(data, io), loadOptionsOf(flags));
   const keep = flags.predictionsKeep ?? [];
   const { report, predictions } = tuneWithPredictions(table, {
     ...problemOptionsOf(flags),
