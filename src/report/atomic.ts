@@ -41,7 +41,7 @@ function writeError(option: string, path: string, e: unknown): InputError {
   return new InputError(`${option} ${path}: cannot be written (${code}); check the path and permissions`);
 }
 
-export function writeFileAtomic(path: string, text: string, option = 'output'): void {
+export function writeFileAtomic(path: string, text: string | Uint8Array, option = 'output'): void {
   checkWritable(path, option);
   let target = path;
   try {
