@@ -309,12 +309,13 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
-  addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))
+  addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV, Parquet or Arrow files'))
     .option('--plan <plan>', 'resampling plan (as for eval)', DEFAULT_PLAN)
     .option('--no-stratify', 'do not stratify by class')
     .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
     .option('--out <dir>', 'folder for the part files (created if missing)')
     .option('--assign <file>', 'write a row-to-fold assignment CSV')
+    .option('--format <format>', 'format of the part files: csv, parquet or arrow (default: the input\'s)')
     .action(async (data: string, flags) => setCode(await runSplit(data, flags, io)));
 
   registerCompare(prog, io, setCode);

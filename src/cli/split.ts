@@ -3,6 +3,7 @@ import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { loadCsv } from '../data/load-csv.js';
+import { DATA_FORMATS, loadTable, sniffFormat, type DataFormat } from '../data/load-table.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
 import { splitTable } from '../run/split.js';
@@ -14,6 +15,7 @@ interface SplitFlags extends DataFlags {
   seed: string;
   out?: string;
   assign?: string;
+  format?: string;
 }
 
 async function readAll(stream: Readable): Promise<Buffer> {
@@ -27,16 +29,21 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
   const seed = parseSeed(flags.seed);
   checkOutputs(data, [['--assign', flags.assign]]);
   if (flags.assign) checkWritable(flags.assign, '--assign');
+  if (flags.format !== undefined && !(DATA_FORMATS as readonly string[]).includes(flags.format)) {
+    throw new UsageError(`--format ${JSON.stringify(flags.format)}: expected one of ${DATA_FORMATS.join(', ')}`);
+  }
   let table;
-  let text: string;
+  let text: string | undefined;
+  let input: DataFormat = 'csv';
   if (data === '-') {
     if (!io.stdin) throw new UsageError('data "-": no standard input available');
     text = (await readAll(io.stdin)).toString('utf8');
     table = await loadCsv({ text, name: 'stdin' }, loadOptionsOf(flags));
   } else {
-    // the loader checks the file (and gives the precise error); then its text is read once more
-    table = await loadCsv({ path: data }, loadOptionsOf(flags));
-    text = readFileSync(data, 'utf8');
+    input = await sniffFormat(data);
+    // the loader checks the file (and gives the precise error); then a CSV's text is read once more
+    table = await loadTable({ path: data }, loadOptionsOf(flags));
+    if (input === 'csv') text = readFileSync(data, 'utf8');
   }
   const result = splitTable(table, text, {
     ...problemOptionsOf(flags),
@@ -45,6 +52,8 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     seed,
     delimiter: parseDelimiter(flags.delimiter ?? ','),
     parts: Boolean(flags.out),
+    // parts in the input's format unless --format says otherwise
+    format: (flags.format as DataFormat | undefined) ?? input,
   });
   if (flags.out) {
     try {
