@@ -8,6 +8,8 @@
  */
 import * as A from 'apache-arrow';
 import { parquetWriteBuffer } from 'hyparquet-writer';
+import type { Matrix, Target } from '../learners/types.js';
+import type { Problem } from './problem.js';
 import type { Column } from './types.js';
 
 const DAY_MS = 86_400_000;
@@ -105,4 +107,34 @@ export function parquetBytes(columns: readonly OutColumn[], length: number): Uin
     return { name: c.name, data: nulls ? Array.from(v, (d) => (d === d ? d : null)) : v };
   });
   return new Uint8Array(parquetWriteBuffer({ columnData, schema: schema as never, rowGroupSize: 1 << 20 }));
+}
+
+/** The target entries `idx` (positions among the used rows) as an output column. */
+export function targetColumn(name: string, y: Target, idx?: ArrayLike<number>): OutColumn {
+  const n = idx ? idx.length : y.task === 'classification' ? y.codes.length : y.values.length;
+  const at = (i: number): number => (idx ? idx[i] : i);
+  if (y.task === 'classification') return { kind: 'text', name, codes: Int32Array.from({ length: n }, (_, i) => y.codes[at(i)]), levels: y.classes };
+  return { kind: 'float', name, values: Float64Array.from({ length: n }, (_, i) => y.values[at(i)]) };
+}
+
+/** A matrix's columns (row-major data) as output columns. */
+export function matrixColumns(X: Matrix, names: readonly string[]): OutColumn[] {
+  return names.map((name, j) => {
+    const values = new Float64Array(X.rows);
+    for (let i = 0; i < X.rows; i++) values[i] = X.data[i * X.cols + j];
+    return { kind: 'float', name, values };
+  });
+}
+
+/** The used rows `idx` of a problem as read (features, and the target last when `withTarget`). */
+export function problemColumns(problem: Problem, idx: Int32Array, withTarget: boolean): OutColumn[] {
+  const rows = Int32Array.from(idx, (i) => problem.rows[i]);
+  const out = problem.features.map((f) => outColumn(f, rows));
+  if (withTarget) out.push(targetColumn(problem.targetName, problem.target, idx));
+  return out;
+}
+
+/** Columns in a format's bytes. */
+export function formatBytes(format: 'parquet' | 'arrow', columns: readonly OutColumn[], length: number): Uint8Array {
+  return format === 'parquet' ? parquetBytes(columns, length) : arrowBytes(columns, length);
 }

@@ -8,6 +8,7 @@
 import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
 import { problemRowsCsv } from '../data/csv-text.js';
+import { formatBytes, problemColumns } from '../data/write-columnar.js';
 import { CommandFoldError } from '../learners/command/errors.js';
 import { foldLabel } from '../report/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
@@ -115,6 +116,10 @@ export class SplitData {
       columns: this.prep.names,
       target: this.problem.targetName,
       rawCsv: (part) => problemRowsCsv(this.problem, part === 'train' ? this.train : this.test, part === 'train'),
+      rawBytes: (part, format) => {
+        const idx = part === 'train' ? this.train : this.test;
+        return formatBytes(format, problemColumns(this.problem, idx, part === 'train'), idx.length);
+      },
     };
   }
   matrix(part: 'train' | 'test', scale: boolean): Matrix {

@@ -8,7 +8,7 @@ import { spawnSync } from 'node:child_process';
 import { chmodSync, closeSync, existsSync, mkdtempSync, openSync, readFileSync, readSync, rmSync, statSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { CommandFoldError } from './errors.js';
-import { COMMAND_PROTOCOL, JOB_FILE, optionVariable, PREDICTIONS_FILE, STDERR_FILE, STDOUT_FILE, TEST_FILE, TRAIN_FILE, type CommandJob } from './protocol.js';
+import { COMMAND_PROTOCOL, dataFiles, JOB_FILE, optionVariable, PREDICTIONS_FILE, STDERR_FILE, STDOUT_FILE, type CommandJob } from './protocol.js';
 
 export interface FoldRun {
   /** learner name, command:NAME */
@@ -19,8 +19,10 @@ export interface FoldRun {
   readonly keepTemp: boolean;
   readonly timeoutMs: number;
   readonly job: Omit<CommandJob, 'protocol' | 'train' | 'test' | 'predictions'>;
-  readonly trainCsv: string;
-  readonly testCsv: string;
+  /** the format of the two data files (their names follow it) */
+  readonly format?: 'csv' | 'parquet' | 'arrow';
+  readonly trainCsv: string | Uint8Array;
+  readonly testCsv: string | Uint8Array;
 }
 
 /** How many bytes and lines of the program's stderr a failure message quotes. */
@@ -58,8 +60,9 @@ export function runFold<T>(run: FoldRun, read: (text: string, path: string) => T
   const kept = run.keepTemp ? ` (files kept in ${dir})` : ' (rerun with --keep-temp to keep its files)';
   try {
     chmodSync(dir, 0o700);
-    const train = join(dir, TRAIN_FILE);
-    const test = join(dir, TEST_FILE);
+    const names = dataFiles(run.format ?? 'csv');
+    const train = join(dir, names.train);
+    const test = join(dir, names.test);
     const predictions = join(dir, PREDICTIONS_FILE);
     const jobPath = join(dir, JOB_FILE);
     const job: CommandJob = { protocol: COMMAND_PROTOCOL, ...run.job, train, test, predictions };
