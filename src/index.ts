@@ -6,6 +6,7 @@
  *   const report = evaluate(table, { target: 'grade', plan: 'kfold:10', seed: 1 });
  */
 export { DEFAULT_MISSING, loadCsv, type CsvSource, type LoadOptions } from './data/load-csv.js';
+export { loadTable, type DataFormat } from './data/load-table.js';
 export { defineProblem, type Problem, type ProblemOptions } from './data/problem.js';
 export type { Column, Fingerprint, Table } from './data/types.js';
 export { EXIT_BAD_INPUT, EXIT_OK, EXIT_REGRESSION, FoldwiseError, InputError, RegressionError, UsageError } from './errors.js';

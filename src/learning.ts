@@ -70,6 +70,8 @@ export interface FoldView {
    * first): the feature columns, and for `train` the target as the last column.
    */
   rawCsv(part: 'train' | 'test'): string;
+  /** The same rows as Parquet or Arrow bytes (for `format=` of command learners). */
+  rawBytes?(part: 'train' | 'test', format: 'parquet' | 'arrow'): Uint8Array;
 }
 
 export interface FitContext {

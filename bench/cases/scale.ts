@@ -20,7 +20,7 @@ import { scaleColumns, writeScaleCsv, type ScaleKind } from '../scale-data.js';
 export interface ScaleFile {
   readonly kind: ScaleKind;
   readonly rows: number;
-  readonly format: 'csv';
+  readonly format: 'csv' | 'parquet' | 'arrow';
   readonly path: string;
   readonly bytes: number;
 }
@@ -133,8 +133,59 @@ export const longFieldRows: ScaleRowProducer = ({ files, log }) => {
   ];
 };
 
+/** Parquet and Arrow load goals of issue 14 (seconds for 10^6 x 20) and the command handoff goal. */
+const TYPED_GOAL_S = { parquet: 3, arrow: 1 } as const;
+const HANDOFF_GOAL_S = 2;
+
+/**
+ * Parquet and Arrow load (issue 14): each numeric CSV loaded, written by foldwise's writers
+ * (hyparquet-writer, snappy; apache-arrow IPC file), and loaded back in a child process; and
+ * the command: handoff at format=arrow vs csv (train and test files of every row).
+ */
+export const typedLoadRows: ScaleRowProducer = async ({ files, log }) => {
+  const { loadTable } = await import('../../src/data/load-table.js');
+  const { formatBytes, outColumn } = await import('../../src/io/write-columnar.js');
+  const rows: ScaleRow[] = [];
+  for (const file of files.filter((f) => f.kind === 'numeric')) {
+    const t = await loadTable({ path: file.path });
+    for (const format of ['parquet', 'arrow'] as const) {
+      const path = `${file.path}.${format}`;
+      writeFileSync(path, formatBytes(format, t.columns.map((c) => outColumn(c)), t.rows));
+      const typed: ScaleFile = { ...file, format, path, bytes: statSync(path).size };
+      log(`load ${format} ${file.rows} rows (${fixed(typed.bytes / MB, 1)} MB)`);
+      const r = child<LoadFigures>('scale-load.js', [path, 'typed']);
+      if (r.rows !== file.rows) throw new Error(`scale: loaded ${r.rows} rows of ${path}, expected ${file.rows}`);
+      const goal = file.rows === 1_000_000 ? TYPED_GOAL_S[format] : undefined;
+      rows.push({
+        measure: `${format === 'parquet' ? 'Parquet' : 'Arrow'} load time`,
+        file: typed,
+        figure: `${fixed(r.wallMs / 1000, 2)} s wall, ${fixed(r.cpuMs / 1000, 2)} s CPU`,
+        peakRssMb: r.peakRssMb,
+        goal: goal === undefined ? '' : `<= ${goal} s`,
+        ...(goal === undefined ? {} : { met: r.wallMs / 1000 <= goal ? 'yes' : r.cpuMs / 1000 <= goal ? 'by CPU time only' : 'no' }),
+      });
+      rmSync(path, { force: true });
+    }
+    if (file.rows !== 1_000_000) continue;
+    for (const how of ['handoff-arrow', 'handoff-csv'] as const) {
+      log(`command handoff ${how} ${file.rows} rows`);
+      const r = child<LoadFigures>('scale-load.js', [file.path, how]);
+      for (const ext of ['train', 'test']) rmSync(`${file.path}.${ext}.${how === 'handoff-arrow' ? 'arrow' : 'csv'}`, { force: true });
+      rows.push({
+        measure: `command: handoff, format=${how.slice('handoff-'.length)} (train + test files of every row)`,
+        file,
+        figure: `${fixed(r.wallMs / 1000, 2)} s wall, ${fixed(r.cpuMs / 1000, 2)} s CPU`,
+        peakRssMb: r.peakRssMb,
+        goal: how === 'handoff-arrow' ? `<= ${HANDOFF_GOAL_S} s` : '',
+        ...(how === 'handoff-arrow' ? { met: r.wallMs / 1000 <= HANDOFF_GOAL_S ? 'yes' : r.cpuMs / 1000 <= HANDOFF_GOAL_S ? 'by CPU time only' : 'no' } : {}),
+      });
+    }
+  }
+  return rows;
+};
+
 /** Producers of the table's rows, in order. Add a line here for a new measure or format. */
-export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows];
+export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows, typedLoadRows];
 
 async function run({ log }: { log: (line: string) => void }) {
   const dir = mkdtempSync(join(tmpdir(), 'foldwise-scale-'));

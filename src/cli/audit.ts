@@ -9,7 +9,7 @@ import { Command, Option } from 'commander';
 import { audit } from '../audit/audit.js';
 import { renderAuditJson, renderAuditMarkdown } from '../audit/render.js';
 import { AUDIT_LIMITS } from '../audit/types.js';
-import { loadCsv } from '../data/load-csv.js';
+import { loadTable } from '../data/load-table.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { DEFAULT_PLAN, DEFAULT_SEED } from '../run/evaluate.js';
 import { addDataOptions, checkOutputs, loadOptionsOf, parseSeed, sourceOf, type DataFlags, problemOptionsOf } from './data-options.js';
@@ -36,7 +36,7 @@ async function runAudit(data: string, flags: AuditFlags, io: Io): Promise<number
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown]]);
   const seed = parseSeed(flags.seed);
   const clusterThreshold = parseClusterThreshold(flags.clusterThreshold);
-  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  const table = await loadTable(sourceOf(data, io), loadOptionsOf(flags));
   const report = audit(table, {
     ...problemOptionsOf(flags),
     plan: flags.plan,

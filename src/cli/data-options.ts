@@ -49,7 +49,7 @@ export interface DataFlags {
 /** Options shared by every command that reads a CSV. */
 export function addDataOptions(cmd: Command): Command {
   return cmd
-    .argument('<data>', 'CSV file, or - for standard input')
+    .argument('<data>', 'CSV, Parquet or Arrow file, or - for CSV on standard input')
     .requiredOption('--target <column>', 'the column to predict')
     .option('--drop <column>', 'leave a column out (repeatable)', collect)
     .option('--categorical <column>', 'read a column as categorical even if numeric (repeatable)', collect)

@@ -1,26 +1,36 @@
 /** `--predictions FILE|-` and `--predictions-keep COL` for eval, merge and tune. */
-import { extname } from 'node:path';
 import { UsageError } from '../errors.js';
+import { formatOfName } from '../data/load-table.js';
+import { arrowBytes, parquetBytes } from '../io/write-columnar.js';
 import { stageChunks, writeChunks, type ChunkSink, type Staged } from '../report/atomic-stream.js';
-import type { ReportFrame, TaskRecord } from '../run/evaluate.js';
-import { predictionsCsv } from '../run/predictions-out.js';
+import type { ReportFrame } from '../run/evaluate.js';
+import type { TaskRecord } from '../model/record.js';
+import { predictionsColumns, predictionsCsv } from '../run/predictions-out.js';
 import type { Io } from './io.js';
 
-/** Refuses file formats foldwise does not write yet (the name decides the format). */
+/** Refuses an empty name (the name decides the format). */
 export function checkPredictionsPath(path: string | undefined): void {
   if (path === undefined) return;
   if (path === '') throw new UsageError('--predictions: give a file name, or - for standard output');
-  const ext = extname(path).toLowerCase();
-  if (ext === '.parquet' || ext === '.arrow' || ext === '.feather') {
-    throw new UsageError(`--predictions ${path}: foldwise writes predictions as CSV only so far; give a name ending in .csv (or -)`);
-  }
+}
+
+/** The format the name asks for: Parquet for .parquet/.pq, Arrow IPC for .arrow/.feather/.arrows/.ipc, CSV otherwise. */
+export function predictionsFormat(path: string): 'csv' | 'parquet' | 'arrow' {
+  const f = path === '-' ? undefined : formatOfName(path);
+  return f === 'parquet' || f === 'arrow' ? f : 'csv';
 }
 
 /**
  * Writes the predictions file to a temporary file (to rename with the run's other outputs), or
- * streams it to standard output for "-" (nothing left to commit then).
+ * streams it to standard output for "-" (nothing left to commit then). CSV goes in chunks;
+ * Parquet and Arrow files are built whole in memory first.
  */
 export async function stagePredictions(io: Io, path: string, frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[]): Promise<Staged> {
+  const format = predictionsFormat(path);
+  if (format !== 'csv') {
+    const { columns, length } = predictionsColumns(frame, records, keep);
+    return stageChunks(path, [format === 'parquet' ? parquetBytes(columns, length) : arrowBytes(columns, length)], '--predictions');
+  }
   const chunks = predictionsCsv(frame, records, keep);
   if (path !== '-') return stageChunks(path, chunks, '--predictions');
   await writeChunks(io.stdout as ChunkSink, chunks);

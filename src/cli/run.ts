@@ -7,7 +7,8 @@ import { Command, CommanderError, Option } from 'commander';
 import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
-import { DEFAULT_MISSING, loadCsv } from '../data/load-csv.js';
+import { DEFAULT_MISSING } from '../data/load-csv.js';
+import { loadTable } from '../data/load-table.js';
 import { DATE_ORDERS, parseDateOrder } from '../data/dates.js';
 import type { ProblemOptions } from '../data/problem.js';
 import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
@@ -111,7 +112,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
-  const table = await loadCsv(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   let disarm: (() => void) | undefined;
@@ -242,12 +243,13 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
-  addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV files'))
+  addDataOptions(prog.command('split').description('write the parts of a resampling plan as CSV, Parquet or Arrow files'))
     .option('--plan <plan>', 'resampling plan (as for eval)', DEFAULT_PLAN)
     .option('--no-stratify', 'do not stratify by class')
     .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
     .option('--out <dir>', 'folder for the part files (created if missing)')
     .option('--assign <file>', 'write a row-to-fold assignment CSV')
+    .option('--format <format>', 'format of the part files: csv, parquet or arrow (default: the input\'s)')
     .action(async (data: string, flags) => setCode(await runSplit(data, flags, io)));
 
   registerCompare(prog, io, setCode);

@@ -6,6 +6,8 @@
  */
 import { Option, type Command } from 'commander';
 import { readFileSync } from 'node:fs';
+import { loadTable, sniffFormat } from '../data/load-table.js';
+import { fieldsOfTable, type PredictionFields } from '../score/read-predictions.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { TASKS, type Task } from '../learning.js';
 import { getMetric } from '../metrics/index.js';
@@ -41,12 +43,16 @@ interface ScoreFlags {
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
-async function readAll(path: string, io: Io): Promise<string> {
+async function readAll(path: string, io: Io): Promise<string | PredictionFields> {
   if (path === '-') {
     if (!io.stdin) throw new UsageError('predictions "-": no standard input available');
     const chunks: Buffer[] = [];
     for await (const c of io.stdin) chunks.push(typeof c === 'string' ? Buffer.from(c) : (c as Buffer));
     return Buffer.concat(chunks).toString('utf8');
+  }
+  if ((await sniffFormat(path)) !== 'csv') {
+    // typed predictions: only nulls are missing, so a class named NA stays a class
+    return fieldsOfTable(await loadTable({ path }, { missing: [''] }));
   }
   try {
     return readFileSync(path, 'utf8');

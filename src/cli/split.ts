@@ -3,6 +3,7 @@ import { mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { loadCsv } from '../data/load-csv.js';
+import { DATA_FORMATS, loadTable, sniffFormat, type DataFormat } from '../data/load-table.js';
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
@@ -16,6 +17,7 @@ interface SplitFlags extends DataFlags {
   seed: string;
   out?: string;
   assign?: string;
+  format?: string;
 }
 
 async function readAll(stream: Readable): Promise<Buffer> {
@@ -28,16 +30,21 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
   if (!flags.out && !flags.assign) throw new UsageError('split: give --out DIR for part files, --assign FILE for the assignment, or both');
   const seed = parseSeed(flags.seed);
   checkOutputs(data, [['--assign', flags.assign]]);
+  if (flags.format !== undefined && !(DATA_FORMATS as readonly string[]).includes(flags.format)) {
+    throw new UsageError(`--format ${JSON.stringify(flags.format)}: expected one of ${DATA_FORMATS.join(', ')}`);
+  }
   let table;
-  let text: string;
+  let text: string | undefined;
+  let input: DataFormat = 'csv';
   if (data === '-') {
     if (!io.stdin) throw new UsageError('data "-": no standard input available');
     text = (await readAll(io.stdin)).toString('utf8');
     table = await loadCsv({ text, name: 'stdin' }, loadOptionsOf(flags));
   } else {
-    // the loader checks the file (and gives the precise error); then its text is read once more
-    table = await loadCsv({ path: data }, loadOptionsOf(flags));
-    text = readFileSync(data, 'utf8');
+    input = await sniffFormat(data);
+    // the loader checks the file (and gives the precise error); then a CSV's text is read once more
+    table = await loadTable({ path: data }, loadOptionsOf(flags));
+    if (input === 'csv') text = readFileSync(data, 'utf8');
   }
   const result = splitTable(table, text, {
     ...problemOptionsOf(flags),
@@ -46,6 +53,8 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     seed,
     delimiter: parseDelimiter(flags.delimiter ?? ','),
     parts: Boolean(flags.out),
+    // parts in the input's format unless --format says otherwise
+    format: (flags.format as DataFormat | undefined) ?? input,
   });
   const writes: FileWrite[] = [];
   if (flags.out) for (const [file, csv] of result.files) writes.push({ path: join(flags.out, file), text: csv, option: '--out' });

@@ -11,7 +11,7 @@
 import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
 import { resolve } from 'node:path';
-import { loadCsv } from '../data/load-csv.js';
+import { loadTable } from '../data/load-table.js';
 import { defineProblem } from '../data/problem.js';
 import { parsePlan } from '../plans/parse.js';
 import { resolveMetrics } from '../run/prepare.js';
@@ -93,7 +93,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
   const note = `foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`;
 
-  const table = await loadCsv(sourceOf(data, io), loadOptionsOf(flags));
+  const table = await loadTable(sourceOf(data, io), loadOptionsOf(flags));
   // the note comes once the data, target, plans and metrics are known to be usable, so that a
   // refused run prints its one error line only
   resolveMetrics(defineProblem(table, problemOptionsOf(flags)), flags.metric);

@@ -35,7 +35,7 @@ const failed = (option: string, path: string, e: unknown): InputError => {
 };
 
 /** Writes the chunks to a temporary file beside `path`; nothing is in place until `commit`. */
-export function stageChunks(path: string, chunks: Iterable<string>, option: string): Staged {
+export function stageChunks(path: string, chunks: Iterable<string | Uint8Array>, option: string): Staged {
   checkWritable(path, option);
   let target = path;
   try {
@@ -56,7 +56,7 @@ export function stageChunks(path: string, chunks: Iterable<string>, option: stri
       commit: () => {
         try {
           const fd = openSync(target, 'w');
-          for (const c of all) writeSync(fd, c);
+          for (const c of all) (typeof c === 'string' ? writeSync(fd, c) : writeSync(fd, c));
           closeSync(fd);
         } catch (e) {
           throw failed(option, path, e);
@@ -70,7 +70,7 @@ export function stageChunks(path: string, chunks: Iterable<string>, option: stri
   let fd = -1;
   try {
     fd = openSync(tmp, 'wx', existing ? existing.mode & 0o777 : 0o644);
-    for (const c of chunks) writeSync(fd, c);
+    for (const c of chunks) (typeof c === 'string' ? writeSync(fd, c) : writeSync(fd, c));
     fsyncSync(fd);
     closeSync(fd);
     fd = -1;

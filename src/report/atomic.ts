@@ -118,7 +118,7 @@ export function removeStaleTemps(target: string): number {
 
 export interface FileWrite {
   readonly path: string;
-  readonly text: string;
+  readonly text: string | Uint8Array;
   /** the option that named the file, for messages */
   readonly option: string;
 }
@@ -193,6 +193,6 @@ export function writeFilesAtomic(writes: readonly FileWrite[]): void {
   }
 }
 
-export function writeFileAtomic(path: string, text: string, option = 'output'): void {
+export function writeFileAtomic(path: string, text: string | Uint8Array, option = 'output'): void {
   writeFilesAtomic([{ path, text, option }]);
 }

@@ -23,6 +23,7 @@
 import { closeNames, UsageError } from '../errors.js';
 import { csvField, csvRow, numberField } from '../io/csv-text.js';
 import type { Table } from '../data/types.js';
+import type { OutColumn } from '../io/write-columnar.js';
 import type { ReportFrame, TaskRecord } from './evaluate.js';
 
 /** The fixed columns, in order, before the probability and kept columns. */
@@ -114,4 +115,95 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
     }
     if (chunk.length) yield `${chunk.join('\n')}\n`;
   }
+}
+
+/**
+ * The same file as `predictionsCsv` as typed columns, for `--predictions FILE.parquet` and
+ * `FILE.arrow`: line, row, repeat, fold and train_rows as int32 (repeat and fold null for the
+ * holdout part), role, learner, classes, pick and kept columns as dictionary-coded strings,
+ * values and probabilities as doubles (null where a learner gives none).
+ */
+export function predictionsColumns(frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[] = []): { columns: OutColumn[]; length: number } {
+  const task = frame.data.task;
+  const classes = frame.data.classes ?? [];
+  const picks = records.some((r) => r.pick !== undefined);
+  const done = records.filter((r) => !r.failed);
+  let n = 0;
+  for (const r of done) {
+    if (!r.rows || !r.lines) throw new Error(`task ${r.id} carries no row numbers`);
+    n += r.rows.length;
+  }
+  const line = new Int32Array(n);
+  const row = new Int32Array(n);
+  const repeat = new Int32Array(n);
+  const fold = new Int32Array(n);
+  const noFold = new Uint8Array(n);
+  const role = new Int32Array(n);
+  const learner = new Int32Array(n);
+  const train = new Int32Array(n);
+  const actualCodes = new Int32Array(task === 'classification' ? n : 0);
+  const predictedCodes = new Int32Array(task === 'classification' ? n : 0);
+  const actualValues = new Float64Array(task === 'regression' ? n : 0);
+  const predictedValues = new Float64Array(task === 'regression' ? n : 0);
+  const probs = classes.map(() => new Float64Array(task === 'classification' ? n : 0));
+  const pickLevels: string[] = [];
+  const pickIndex = new Map<string, number>();
+  const pick = new Int32Array(picks ? n : 0);
+  const kept = keep.map(() => ({ codes: new Int32Array(n), levels: [] as string[], index: new Map<string, number>() }));
+  const codeOf = (levels: string[], index: Map<string, number>, text: string): number => {
+    let k = index.get(text);
+    if (k === undefined) {
+      k = levels.push(text) - 1;
+      index.set(text, k);
+    }
+    return k;
+  };
+  let at = 0;
+  for (const r of done) {
+    const rows = r.rows!;
+    const lines = r.lines!;
+    const c = classes.length;
+    const k = keep.length;
+    const p = codeOf(pickLevels, pickIndex, r.pick ?? '');
+    for (let i = 0; i < rows.length; i++, at++) {
+      line[at] = lines[i];
+      row[at] = rows[i];
+      if (r.foldIndex < 0) noFold[at] = 1;
+      else {
+        repeat[at] = r.repeat + 1;
+        fold[at] = r.fold + 1;
+      }
+      role[at] = r.foldIndex < 0 ? 1 : 0;
+      learner[at] = r.candidateIndex;
+      train[at] = r.trainRows;
+      if (r.actual.task === 'classification') {
+        actualCodes[at] = r.actual.codes[i];
+        predictedCodes[at] = (r.predicted as Int32Array)[i];
+        for (let j = 0; j < c; j++) probs[j][at] = r.probs ? r.probs[i * c + j] : NaN;
+      } else {
+        actualValues[at] = r.actual.values[i];
+        predictedValues[at] = r.predicted[i];
+      }
+      if (picks) pick[at] = p;
+      for (let j = 0; j < k; j++) kept[j].codes[at] = codeOf(kept[j].levels, kept[j].index, r.keep![i * k + j]);
+    }
+  }
+  const predictedName = fixedColumns(task)[7];
+  const columns: OutColumn[] = [
+    { kind: 'int', name: 'line', values: line },
+    { kind: 'int', name: 'row', values: row },
+    { kind: 'int', name: 'repeat', values: repeat, nulls: noFold },
+    { kind: 'int', name: 'fold', values: fold, nulls: noFold },
+    { kind: 'text', name: 'role', codes: role, levels: ['test', 'holdout'] },
+    { kind: 'text', name: 'learner', codes: learner, levels: frame.learners.map((l) => l.spec) },
+    task === 'classification' ? { kind: 'text', name: 'actual', codes: actualCodes, levels: classes } : { kind: 'float', name: 'actual', values: actualValues },
+    task === 'classification'
+      ? { kind: 'text', name: predictedName, codes: predictedCodes, levels: classes }
+      : { kind: 'float', name: predictedName, values: predictedValues },
+    { kind: 'int', name: 'train_rows', values: train },
+    ...(task === 'classification' ? classes.map((cls, j): OutColumn => ({ kind: 'float', name: `${PROB_PREFIX}${cls}`, values: probs[j] })) : []),
+    ...(picks ? [{ kind: 'text', name: 'pick', codes: pick, levels: pickLevels } as OutColumn] : []),
+    ...keep.map((name, j): OutColumn => ({ kind: 'text', name, codes: kept[j].codes, levels: kept[j].levels })),
+  ];
+  return { columns, length: n };
 }

@@ -12,6 +12,9 @@
 import { defineProblem, type ProblemOptions } from '../data/problem.js';
 import { csvLine, eachRecord } from '../data/records.js';
 import type { Table } from '../data/types.js';
+import { csvRow } from '../io/csv-text.js';
+import type { DataFormat } from '../data/load-table.js';
+import { arrowBytes, outColumn, parquetBytes } from '../io/write-columnar.js';
 import { UsageError } from '../errors.js';
 import { memberships } from '../plans/assign.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
@@ -25,20 +28,28 @@ export interface SplitOptions extends ProblemOptions {
   readonly delimiter: string;
   /** write part files */
   readonly parts: boolean;
+  /** the part files' format (default csv); parquet and arrow are written from the typed columns */
+  readonly format?: DataFormat;
 }
 
 export interface SplitResult {
   readonly planText: string;
-  /** file name -> CSV text, in a fixed order */
-  readonly files: ReadonlyMap<string, string>;
+  /** file name -> CSV text or Parquet/Arrow bytes, in a fixed order */
+  readonly files: ReadonlyMap<string, string | Uint8Array>;
   /** the assignment table as CSV text */
   readonly assignment: string;
 }
 
 const pad = (n: number): string => String(n).padStart(2, '0');
 
-/** Computes the part files and assignment of a plan over `table`, whose text is `text`. */
-export function splitTable(table: Table, text: string, options: SplitOptions): SplitResult {
+/**
+ * Computes the part files and assignment of a plan over `table`. A CSV part holds the rows'
+ * original text when `text` (the CSV's) is given, else the typed columns written as CSV (a
+ * Parquet or Arrow input); a Parquet or Arrow part holds the typed columns.
+ */
+export function splitTable(table: Table, text: string | undefined, options: SplitOptions): SplitResult {
+  const format = options.format ?? 'csv';
+  const ext = format === 'csv' ? '.csv' : format === 'parquet' ? '.parquet' : '.arrow';
   const seed = checkSeed(options.seed);
   const problem = defineProblem(table, options);
   const spec = parsePlan(options.plan);
@@ -48,7 +59,8 @@ export function splitTable(table: Table, text: string, options: SplitOptions): S
   // which part files each used row goes to
   const partsOf = new Map<number, string[]>(); // table row -> file names
   const order: string[] = [];
-  const add = (file: string, usedRows: Int32Array): void => {
+  const add = (name: string, usedRows: Int32Array): void => {
+    const file = name.replace(/\.csv$/, ext);
     if (!order.includes(file)) order.push(file);
     for (const i of usedRows) {
       const r = problem.rows[i];
@@ -73,7 +85,18 @@ export function splitTable(table: Table, text: string, options: SplitOptions): S
   if (plan.holdout) add('holdout.csv', plan.holdout);
 
   const chunks = new Map<string, string[]>(order.map((f) => [f, []]));
-  if (options.parts) {
+  if (options.parts && (format !== 'csv' || text === undefined)) {
+    const rowsOf = new Map<string, number[]>(order.map((f) => [f, []]));
+    for (let r = 0; r < table.rows; r++) for (const file of partsOf.get(r) ?? []) rowsOf.get(file)!.push(r);
+    const files = new Map<string, string | Uint8Array>();
+    for (const f of order) {
+      const rows = Int32Array.from(rowsOf.get(f)!);
+      const columns = table.columns.map((c) => outColumn(c, rows));
+      files.set(f, format === 'parquet' ? parquetBytes(columns, rows.length) : format === 'arrow' ? arrowBytes(columns, rows.length) : typedCsv(table, rows));
+    }
+    return { planText: formatPlan(spec), files, assignment: assignmentCsv(table, problem.rows, plan) };
+  }
+  if (options.parts && text !== undefined) {
     eachRecord(text, options.delimiter, (fields, row) => {
       const line = csvLine(fields, options.delimiter);
       if (row < 0) for (const c of chunks.values()) c.push(line);
@@ -81,10 +104,30 @@ export function splitTable(table: Table, text: string, options: SplitOptions): S
     });
   }
   const files = new Map(options.parts ? order.map((f) => [f, chunks.get(f)!.join('')] as const) : []);
+  return { planText: formatPlan(spec), files, assignment: assignmentCsv(table, problem.rows, plan) };
+}
+
+function assignmentCsv(table: Table, used: Int32Array, plan: Parameters<typeof memberships>[0]): string {
   const lines = ['row,line,repeat,fold,role'];
   for (const m of memberships(plan)) {
-    const r = problem.rows[m.row];
+    const r = used[m.row];
     lines.push(`${r + 1},${table.lines[r]},${m.repeat + 1},${m.fold + 1},${m.role}`);
   }
-  return { planText: formatPlan(spec), files, assignment: `${lines.join('\n')}\n` };
+  return `${lines.join('\n')}\n`;
+}
+
+const isoDay = (days: number): string => {
+  const text = new Date(days * 86_400_000).toISOString();
+  return text.endsWith('T00:00:00.000Z') ? text.slice(0, 10) : text;
+};
+
+/** Rows of a typed table as CSV: levels as they are, numbers as the shortest round-trip text, dates as ISO 8601, missing empty. */
+function typedCsv(table: Table, rows: Int32Array): string {
+  const out = [csvRow(table.columns.map((c) => c.name))];
+  for (const r of rows) {
+    out.push(
+      csvRow(table.columns.map((c) => (c.kind === 'categorical' ? (c.codes[r] < 0 ? '' : c.levels[c.codes[r]]) : c.values[r] !== c.values[r] ? '' : c.dates ? isoDay(c.values[r]) : String(c.values[r])))),
+    );
+  }
+  return out.join('');
 }

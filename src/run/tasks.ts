@@ -9,6 +9,7 @@ import { performance } from 'node:perf_hooks';
 import type { Problem } from '../data/problem.js';
 import { problemRowsCsv } from '../io/csv-text.js';
 import { FoldwiseError } from '../errors.js';
+import { formatBytes, problemColumns } from '../io/write-columnar.js';
 import { CommandFoldError } from '../learners/command/errors.js';
 import { foldLabel } from '../model/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learning.js';
@@ -116,6 +117,10 @@ export class SplitData {
       columns: this.prep.names,
       target: this.problem.targetName,
       rawCsv: (part) => problemRowsCsv(this.problem, part === 'train' ? this.train : this.test, part === 'train'),
+      rawBytes: (part, format) => {
+        const idx = part === 'train' ? this.train : this.test;
+        return formatBytes(format, problemColumns(this.problem, idx, part === 'train'), idx.length);
+      },
     };
   }
   matrix(part: 'train' | 'test', scale: boolean): Matrix {

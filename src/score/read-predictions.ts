@@ -14,6 +14,7 @@ import { InputError, UsageError, closeNames } from '../errors.js';
 import type { Task } from '../learning.js';
 import { MAX_INFERRED_CLASSES } from '../data/problem.js';
 import { PROB_PREFIX } from '../run/predictions-out.js';
+import type { Table } from '../data/types.js';
 
 export interface ScoreColumns {
   readonly actual?: string;
@@ -103,8 +104,32 @@ function parseCsv(text: string, name: string, delimiter: string): { header: stri
   return { header, records };
 }
 
-export function readPredictions(text: string, name: string, opts: ScoreColumns = {}): ReadPredictions {
-  const { header, records } = parseCsv(text, name, opts.delimiter ?? ',');
+/** A predictions file already split into fields (a Parquet or Arrow file read as text fields). */
+export interface PredictionFields {
+  readonly header: string[];
+  readonly records: { fields: string[]; line: number }[];
+  /** SHA-256 of the file's bytes */
+  readonly sha256: string;
+}
+
+/**
+ * The fields of a typed table, row by row: numbers as the shortest text that reads back as the
+ * same double, levels as they are, missing as empty; a row's line is its 1-based row number.
+ */
+export function fieldsOfTable(table: Table): PredictionFields {
+  const header = table.columns.map((c) => c.name);
+  const records: { fields: string[]; line: number }[] = new Array(table.rows);
+  for (let r = 0; r < table.rows; r++) {
+    records[r] = {
+      line: table.lines[r],
+      fields: table.columns.map((c) => (c.kind === 'categorical' ? (c.codes[r] < 0 ? '' : c.levels[c.codes[r]]) : c.values[r] !== c.values[r] ? '' : String(c.values[r]))),
+    };
+  }
+  return { header, records, sha256: table.fingerprint.sha256 };
+}
+
+export function readPredictions(input: string | PredictionFields, name: string, opts: ScoreColumns = {}): ReadPredictions {
+  const { header, records } = typeof input === 'string' ? parseCsv(input, name, opts.delimiter ?? ',') : input;
   const index = new Map<string, number>();
   header.forEach((h, i) => {
     if (index.has(h)) throw new InputError(`${name} line 1: the column ${JSON.stringify(h)} appears twice`);

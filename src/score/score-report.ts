@@ -17,7 +17,7 @@ import { defaultMetrics, getMetric } from '../metrics/index.js';
 import type { Report, ReportSource } from '../model/report.js';
 import { assignmentOf } from '../run/assignment.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from '../run/evaluate.js';
-import { classOrder, readPredictions, type ReadPredictions, type ScoreColumns } from './read-predictions.js';
+import { classOrder, readPredictions, type PredictionFields, type ReadPredictions, type ScoreColumns } from './read-predictions.js';
 import { binnedSlice, DEFAULT_SLICE_BINS, levelSlice, type SliceColumn } from '../slices/slice-columns.js';
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
@@ -60,7 +60,7 @@ function checkMetrics(read: ReadPredictions, names: readonly string[] | undefine
 }
 
 /** Builds the report of a predictions file's text. */
-export function scoreReport(text: string, file: string, opts: ScoreOptions = {}): Report {
+export function scoreReport(text: string | PredictionFields, file: string, opts: ScoreOptions = {}): Report {
   const read = readPredictions(text, file, opts);
   const metrics = checkMetrics(read, opts.metrics);
   const test = read.groups.filter((g) => !g.holdout);
@@ -97,7 +97,7 @@ export function scoreReport(text: string, file: string, opts: ScoreOptions = {})
   const frame: ReportFrame = {
     data: {
       path: file,
-      sha256: createHash('sha256').update(text).digest('hex'),
+      sha256: typeof text === 'string' ? createHash('sha256').update(text).digest('hex') : text.sha256,
       rows: read.lines,
       columns: read.columns,
       rowsUsed: first.filter((g) => g.repeat === 0).reduce((s, g) => s + g.actual.length, 0),

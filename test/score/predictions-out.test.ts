@@ -139,13 +139,13 @@ describe('eval --predictions: the same bytes however the run is made', () => {
     expect(resumed.stdout).toBe(one.stdout);
   });
 
-  it('is refused with --shard (the part carries the predictions) and for a Parquet name (not written yet)', async () => {
+  it('is refused with --shard (the part carries the predictions); a Parquet name writes Parquet (test/score/score-columnar.test.ts)', async () => {
     const s = await cli([...species, '--shard', '1/2', '--json', join(tmp.dir, 'x.json'), '--predictions', join(tmp.dir, 'x.csv')]);
     expect(s.code).toBe(2);
     expect(s.stderr).toMatch(/give --predictions to foldwise merge/);
     const p = await cli([...species, '--predictions', join(tmp.dir, 'x.parquet')]);
-    expect(p.code).toBe(2);
-    expect(p.stderr).toMatch(/CSV only/);
+    expect(p.code).toBe(0);
+    expect(readFileSync(join(tmp.dir, 'x.parquet')).subarray(0, 4).toString('latin1')).toBe('PAR1');
   });
 });
 

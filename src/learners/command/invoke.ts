@@ -16,7 +16,7 @@ import { fileURLToPath } from 'node:url';
 import { FoldwiseError, InputError } from '../../errors.js';
 import { CommandFoldError } from './errors.js';
 import type { SupervisedOutcome, SuperviseJob } from './supervise.js';
-import { COMMAND_PROTOCOL, JOB_FILE, optionVariable, PREDICTIONS_FILE, STDERR_FILE, STDOUT_FILE, TEST_FILE, TRAIN_FILE, type CommandJob } from './protocol.js';
+import { COMMAND_PROTOCOL, dataFiles, JOB_FILE, optionVariable, PREDICTIONS_FILE, STDERR_FILE, STDOUT_FILE, type CommandJob } from './protocol.js';
 
 export interface FoldRun {
   /** learner name, command:NAME */
@@ -27,8 +27,10 @@ export interface FoldRun {
   readonly keepTemp: boolean;
   readonly timeoutMs: number;
   readonly job: Omit<CommandJob, 'protocol' | 'train' | 'test' | 'predictions'>;
-  readonly trainCsv: string;
-  readonly testCsv: string;
+  /** the format of the two data files (their names follow it) */
+  readonly format?: 'csv' | 'parquet' | 'arrow';
+  readonly trainCsv: string | Uint8Array;
+  readonly testCsv: string | Uint8Array;
 }
 
 /** Milliseconds between SIGTERM and SIGKILL when a program's process group is ended. */
@@ -106,8 +108,9 @@ export function runFold<T>(run: FoldRun, read: (text: string, path: string) => T
   const kept = run.keepTemp ? ` (files kept in ${dir})` : ' (rerun with --keep-temp to keep its files)';
   try {
     chmodSync(dir, 0o700);
-    const train = join(dir, TRAIN_FILE);
-    const test = join(dir, TEST_FILE);
+    const names = dataFiles(run.format ?? 'csv');
+    const train = join(dir, names.train);
+    const test = join(dir, names.test);
     const predictions = join(dir, PREDICTIONS_FILE);
     const jobPath = join(dir, JOB_FILE);
     const job: CommandJob = { protocol: COMMAND_PROTOCOL, ...run.job, train, test, predictions };

@@ -12,6 +12,7 @@
  */
 import { InputError, UsageError } from '../../errors.js';
 import { matrixCsv } from '../../io/csv-text.js';
+import { formatBytes, matrixColumns, targetColumn } from '../../io/write-columnar.js';
 import type { Learner, Matrix, Model, Params, ParamSpec, Target } from '../../learning.js';
 import { runFold } from './invoke.js';
 import { readPredictions } from './predictions.js';
@@ -19,10 +20,12 @@ import type { CommandProgram, CommandSetup } from './program.js';
 import { DEFAULT_TIMEOUT_S } from './protocol.js';
 
 export const PREP_CHOICES = ['foldwise', 'raw'] as const;
+export const FORMAT_CHOICES = ['csv', 'parquet', 'arrow'] as const;
 
 const PARAMS: readonly ParamSpec[] = [
   { name: 'timeout', kind: 'number', min: 0, minExclusive: true, max: 604800, default: DEFAULT_TIMEOUT_S, doc: 'seconds the program may take per fold before it is stopped' },
   { name: 'prep', kind: 'choice', choices: PREP_CHOICES, default: 'foldwise', doc: 'foldwise: numeric, imputed and one-hot encoded per fold; raw: the columns as read' },
+  { name: 'format', kind: 'choice', choices: FORMAT_CHOICES, default: 'csv', doc: 'the format of the train and test files handed to the program: csv, parquet or arrow (Arrow IPC file)' },
 ];
 
 interface Saved {
@@ -72,6 +75,18 @@ export function commandLearner(program: CommandProgram, setup: CommandSetup): Le
       const options: Record<string, string> = Object.create(null);
       for (const key of Object.keys(params).sort()) if (!declared.has(key)) options[key] = String(params[key]);
       const classes = y.task === 'classification' ? y.classes : undefined;
+      const format = String(params.format) as (typeof FORMAT_CHOICES)[number];
+      const typed = (part: 'train' | 'test'): Uint8Array => {
+        if (format === 'csv') throw new Error('typed files for csv');
+        if (prep === 'raw') {
+          if (!fold.rawBytes) throw new UsageError(`${name}: format=${format} with prep=raw needs foldwise's own runner`);
+          return fold.rawBytes(part, format);
+        }
+        const M = part === 'train' ? X : fold.test;
+        const cols = matrixColumns(M, fold.columns);
+        if (part === 'train') cols.push(targetColumn(fold.target, y));
+        return formatBytes(format, cols, M.rows);
+      };
       const read = runFold(
         {
           learner: name,
@@ -87,13 +102,15 @@ export function commandLearner(program: CommandProgram, setup: CommandSetup): Le
             target: fold.target,
             ...(classes ? { classes } : {}),
             prep,
+            format,
             seed: ctx.seed,
             trainRows: X.rows,
             testRows: fold.test.rows,
             options,
           },
-          trainCsv: prep === 'raw' ? fold.rawCsv('train') : matrixCsv(X, fold.columns, { name: fold.target, y }),
-          testCsv: prep === 'raw' ? fold.rawCsv('test') : matrixCsv(fold.test, fold.columns),
+          format,
+          trainCsv: format !== 'csv' ? typed('train') : prep === 'raw' ? fold.rawCsv('train') : matrixCsv(X, fold.columns, { name: fold.target, y }),
+          testCsv: format !== 'csv' ? typed('test') : prep === 'raw' ? fold.rawCsv('test') : matrixCsv(fold.test, fold.columns),
         },
         (text, path) => readPredictions(text, path, fold.test.rows, classes),
       );

@@ -5,6 +5,9 @@
  *   train.csv   header line, then one line per training row: the features, the target last
  *   test.csv    header line, then one line per test row: the features only, same columns
  *   job.json    what the program may want to know (see CommandJob)
+ * With the option format=parquet or format=arrow the two data files are train.parquet and
+ * test.parquet (or train.arrow and test.arrow, Arrow IPC file format) with the same columns;
+ * job.json's `format` says which. The predictions file stays CSV.
  * then runs the program, without a shell, with that folder as its working directory:
  *   PROGRAM [ARGUMENT...] TRAIN_CSV TEST_CSV PREDICTIONS_CSV   (absolute paths)
  * and these environment variables added to the inherited environment:
@@ -25,6 +28,11 @@ export const COMMAND_PROTOCOL = 'foldwise-command/1';
 
 export const TRAIN_FILE = 'train.csv';
 export const TEST_FILE = 'test.csv';
+
+/** The train and test file names for a format. */
+export function dataFiles(format: 'csv' | 'parquet' | 'arrow'): { train: string; test: string } {
+  return { train: `train.${format}`, test: `test.${format}` };
+}
 export const JOB_FILE = 'job.json';
 export const PREDICTIONS_FILE = 'predictions.csv';
 export const STDOUT_FILE = 'stdout.txt';
@@ -46,6 +54,8 @@ export interface CommandJob {
   readonly classes?: readonly string[];
   /** "foldwise": numeric, imputed, one-hot encoded (standardised if scale); "raw": as read */
   readonly prep: 'foldwise' | 'raw';
+  /** the format of the train and test files: csv (the default), parquet or arrow (Arrow IPC file format) */
+  readonly format: 'csv' | 'parquet' | 'arrow';
   readonly seed: number;
   readonly train: string;
   readonly test: string;
