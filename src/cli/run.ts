@@ -147,6 +147,15 @@ interface EvalFlags extends DataFlags, CommandFlags {
   html?: string;
   predictions?: string;
   predictionsKeep?: string[];
+  importance?: boolean;
+  importanceRepeats?: string;
+  importanceClusters?: boolean;
+}
+
+/** --importance-repeats: a whole number (its range is checked with the run's options). */
+function parseImportanceRepeats(text: string): number {
+  if (!/^\d+$/.test(text)) throw new UsageError(`--importance-repeats ${text}: expected a whole number from 1 to 1000`);
+  return Number(text);
 }
 
 /** --jobs: a whole number from 1 to 256. */
@@ -212,6 +221,9 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     timing: flags.timing,
     audit: flags.audit,
     onFoldError: flags.onFoldError,
+    ...(flags.importance ? { importance: true } : {}),
+    ...(flags.importanceRepeats !== undefined ? { importanceRepeats: parseImportanceRepeats(flags.importanceRepeats) } : {}),
+    ...(flags.importanceClusters ? { importanceClusters: true } : {}),
   }, {
     commands,
     jobs,
@@ -305,6 +317,9 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--predictions <file>', 'write every out-of-fold prediction as CSV to a file, or - for standard output')
     .option('--predictions-keep <column>', 'copy an input column (an id, say) into each line of the predictions file (repeatable)', collect)
     .option('--no-audit', 'skip the quick data audit that runs before evaluating')
+    .option('--importance', "permutation importance: each feature's drop of the headline metric on each fold's test rows when its values are shuffled")
+    .option('--importance-repeats <n>', 'shuffles per feature and fold for --importance (default 5)')
+    .option('--importance-clusters', "with --importance, also shuffle each of the audit's correlated clusters as one input")
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 

@@ -28,6 +28,8 @@ import { assignmentOf } from './assignment.js';
 import { pooledSample } from './pooled-sample.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from './scoring.js';
+import { importanceFrameOf, type ImportanceFrame } from './importance.js';
+import { learnerImportance } from './importance-summary.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
 export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -49,6 +51,8 @@ export interface ReportFrame {
   /** the quick audit's findings (absent in parts of older versions) */
   readonly audit?: ReportAudit;
   readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
+  /** --importance: the metric, repeats and inputs (absent without it) */
+  readonly importance?: ImportanceFrame;
 }
 
 /** One task's outcome with what scoring needs: its place, sizes, actual and predicted values. */
@@ -77,6 +81,10 @@ export interface TaskRecord {
   readonly pick?: string;
   /** the model's notes about this fit (Model.notes) */
   readonly notes?: Readonly<Record<string, number>>;
+  /** --importance: mean drop of the headline metric per input of frame.importance (NaN: undefined) */
+  readonly drops?: Float64Array;
+  /** --importance: the model's own importance per feature (forest, boost) */
+  readonly own?: Float64Array;
 }
 
 export function frameOf(prepared: Prepared): ReportFrame {
@@ -100,6 +108,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     warnings: prepared.warnings,
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
+    ...(prepared.importance ? { importance: importanceFrameOf(prepared.importance, problem.features.map((f) => f.name)) } : {}),
   };
 }
 
@@ -142,6 +151,8 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       rows: where.rows,
       lines: where.lines,
       ...(r.notes ? { notes: r.notes } : {}),
+      ...(r.drops ? { drops: r.drops } : {}),
+      ...(r.own ? { own: r.own } : {}),
     };
   });
 }
@@ -167,6 +178,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     preds: [] as Prediction[],
     actual: [] as Target[],
     times: { fitMs: 0, predictMs: 0 },
+    fold: [] as TaskRecord[],
     final: undefined as
       | { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string; notes?: Readonly<Record<string, number>> }
       | undefined,
@@ -189,6 +201,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     }
     l.preds.push(r);
     l.actual.push(r.actual);
+    l.fold.push(r);
     l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores, ...(r.notes ? { notes: r.notes } : {}) });
   }
   const classes = frame.data.classes?.length ?? 0;
@@ -234,6 +247,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
         : {}),
       ...(final ? { final } : {}),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
+      ...(frame.importance ? { importance: learnerImportance(frame.importance, c.name, folds, perLearner[li].fold, { testRows: testMean, trainRows: trainMean }, warnings, c.spec) } : {}),
     };
     return report;
   });
@@ -249,6 +263,17 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     warnings: [...new Set(warnings)],
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
+    ...(frame.importance
+      ? {
+          importance: {
+            metric: frame.importance.metric,
+            higherIsBetter: frame.importance.higherIsBetter,
+            repeats: frame.importance.repeats,
+            clusters: frame.importance.clusters,
+            inputs: frame.importance.inputs,
+          },
+        }
+      : {}),
     ...(totalMs === undefined
       ? {}
       : {

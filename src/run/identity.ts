@@ -22,6 +22,8 @@ export interface RunIdentity {
   readonly metrics: readonly string[];
   /** the programs of command: learners (present only when the run has some) */
   readonly programs?: readonly string[];
+  /** --importance: repeats and inputs (present only with it) */
+  readonly importance?: string;
 }
 
 export function identityOf(p: Prepared): RunIdentity {
@@ -42,11 +44,13 @@ export function identityOf(p: Prepared): RunIdentity {
     learners: p.candidates.map((c) => c.spec),
     metrics: p.metrics.map((m) => m.name),
     ...(programs.length ? { programs } : {}),
+    ...(p.importance ? { importance: `${p.importance.metric.name} x${p.importance.repeats}: ${p.importance.inputs.map((i) => i.name).join(', ')}` } : {}),
   };
 }
 
 const short = (v: unknown): string => {
-  const t = JSON.stringify(v);
+  // an optional field absent on one side (programs, importance) reads as "none"
+  const t = JSON.stringify(v) ?? 'none';
   return t.length > 40 ? `${t.slice(0, 37)}...` : t;
 };
 

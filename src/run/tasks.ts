@@ -13,6 +13,7 @@ import { foldLabel } from '../report/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learners/types.js';
 import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
+import { importanceSeeds, ownImportance, permutationDrops, type ImportancePlan } from './importance.js';
 import { notesOf } from './result-json.js';
 import { createRng, deriveSeed } from './rng.js';
 
@@ -43,6 +44,10 @@ export interface TaskResult {
   readonly failed?: string;
   /** the model's notes about this fit (Model.notes), when it gave any */
   readonly notes?: Readonly<Record<string, number>>;
+  /** --importance: the mean drop of the headline metric per input (NaN where undefined), fold tasks only */
+  readonly drops?: Float64Array;
+  /** --importance: the model's own importance per feature (forest, boost), when it has one */
+  readonly own?: Float64Array;
 }
 
 /** What to do when a fold of a learner from outside fails: stop the run, or record it and go on. */
@@ -60,6 +65,8 @@ export interface TaskContext {
   readonly final: boolean;
   /** a failed fold of a command: learner stops the run (fail, the default) or is recorded (skip) */
   readonly onFoldError?: OnFoldError;
+  /** --importance: the inputs to shuffle and how often (absent: no importance) */
+  readonly importance?: ImportancePlan;
 }
 
 export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: number): string {
@@ -171,7 +178,13 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
     const proba = model.predictProba?.(Xtest);
     const t2 = performance.now();
     const notes = notesOf(model.notes?.());
-    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
+    let extra: { drops?: Float64Array; own?: Float64Array } = {};
+    if (ctx.importance && f) {
+      const drops = permutationDrops(model, Xtest, split.prep, subsetTarget(ctx.problem.target, split.test), ctx.importance, importanceSeeds(ctx.seed, f.repeat, f.fold));
+      const own = ownImportance(model, split.prep, ctx.problem.features.length);
+      extra = { drops, ...(own ? { own } : {}) };
+    }
+    return { id: t.id, predicted, ...(proba ? { proba } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}), ...extra };
   } catch (e) {
     if (!(e instanceof CommandFoldError) || ctx.onFoldError !== 'skip') throw e;
     const empty = ctx.problem.task === 'classification' ? new Int32Array(0) : new Float64Array(0);
