@@ -29,6 +29,7 @@ import { withWiderSamples } from '../run/pooled-sample.js';
 import { parseShard } from '../run/shard.js';
 import { registerMerge } from './merge.js';
 import { registerScore } from './score.js';
+import { registerGrowth } from './growth.js';
 import { registerPower } from './power.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
@@ -339,6 +340,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerMerge(prog, io, setCode);
   registerScore(prog, io, setCode);
   registerPower(prog, io, setCode);
+  registerGrowth(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
   prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));
