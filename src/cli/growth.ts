@@ -1,12 +1,13 @@
 /**
  * `foldwise growth DATA --target COL [--sizes 0.1,0.2,...,1] [eval's plan, learner, metric and
- * seed options] [--json FILE|-] [--markdown FILE|-]`: learning curves (src/growth/growth.ts).
+ * seed options] [--json FILE|-] [--markdown FILE|-] [--html FILE|-]`: learning curves (src/growth/growth.ts).
  * Runs in this thread (no --jobs, shards or journal yet). Exit codes: 0, 2 bad input.
  */
 import { Option, type Command } from 'commander';
 import { loadCsv } from '../data/load-csv.js';
 import { EXIT_OK, UsageError } from '../errors.js';
 import { growth } from '../growth/growth.js';
+import { renderGrowthHtml } from '../growth/html.js';
 import { renderGrowthMarkdown } from '../growth/markdown.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { checkWritable, writeFileAtomic } from '../report/atomic.js';
@@ -24,6 +25,7 @@ interface GrowthFlags extends DataFlags {
   sizes?: string;
   json?: string;
   markdown?: string;
+  html?: string;
 }
 
 const collect = (v: string, prev: string[] = []): string[] => [...prev, v];
@@ -48,9 +50,11 @@ export function registerGrowth(prog: Command, io: Io, setCode: (code: number) =>
     .addOption(new Option('--impute <how>', 'numeric imputation, fitted on each training subset').choices(IMPUTE_CHOICES).default('median'))
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')
     .option('--markdown <file>', 'write the Markdown report to a file, or - for standard output (the default)')
+    .option('--html <file>', 'write a self-contained HTML page with one chart per learner to a file, or - for standard output')
     .action(async (data: string, flags: GrowthFlags) => {
-      if (flags.json === '-' && flags.markdown === '-') throw new UsageError('--json - and --markdown -: only one of them can go to standard output');
-      checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown]]);
+      if ([flags.json, flags.markdown, flags.html].filter((f) => f === '-').length > 1) throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
+      checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html]]);
+      if (flags.html && flags.html !== '-') checkWritable(flags.html, '--html');
       if (flags.json && flags.json !== '-') checkWritable(flags.json, '--json');
       if (flags.markdown && flags.markdown !== '-') checkWritable(flags.markdown, '--markdown');
       const sizes = parseSizes(flags.sizes ?? '');
@@ -72,8 +76,10 @@ export function registerGrowth(prog: Command, io: Io, setCode: (code: number) =>
       const md = renderGrowthMarkdown(report);
       if (flags.json === '-') io.stdout.write(json);
       else if (flags.json) writeFileAtomic(flags.json, json, '--json');
+      if (flags.html === '-') io.stdout.write(renderGrowthHtml(report));
+      else if (flags.html) writeFileAtomic(flags.html, renderGrowthHtml(report), '--html');
       if (flags.markdown && flags.markdown !== '-') writeFileAtomic(flags.markdown, md, '--markdown');
-      else if (flags.markdown === '-' || flags.json !== '-') io.stdout.write(md);
+      else if (flags.markdown === '-' || (flags.json !== '-' && flags.html !== '-')) io.stdout.write(md);
       setCode(EXIT_OK);
     });
 }

@@ -56,15 +56,25 @@ describe('learning curve toward a known Bayes accuracy', () => {
     // doubling 1200 training rows gains little, and the training score sits above the test score at the smallest size
     expect(Math.abs(knn.doubling.gain)).toBeLessThan(0.02);
     expect(knn.points[4].rows).toBe(1200);
+    // common practice: the score on the rows a model saw is optimistic, most so with few rows
+    const gap = (p: { train: { mean: number }; test: { mean: number } }): number => p.train.mean - p.test.mean;
+    expect(gap(knn.points[0])).toBeGreaterThan(0.1);
+    expect(gap(knn.points[0])).toBeGreaterThan(gap(knn.points[4]));
     const base = report.learners.find((l: { name: string }) => l.name === 'baseline');
     expect(Math.abs(base.points[4].test.mean - 0.5)).toBeLessThan(0.06);
   });
 
-  it('Markdown lists every size and the fit; bad sizes are refused with exit 2', async () => {
+  it('Markdown lists every size and the fit, HTML draws both curves with bands; bad sizes are refused with exit 2', async () => {
     const md = await cli(['growth', data, '--target', 'class', '--learner', 'bayes', '--plan', 'kfold:3', '--sizes', '0.1,0.5,1']);
     expect(md.code).toBe(0);
     expect(md.stdout).toContain('## bayes');
     expect(md.stdout).toMatch(/Fitted: accuracy = /);
+    const html = await cli(['growth', data, '--target', 'class', '--learner', 'bayes', '--plan', 'kfold:3', '--sizes', '0.1,0.5,1', '--html', '-']);
+    expect(html.code).toBe(0);
+    expect(html.stdout).toContain('id="growth-2"');
+    // one test and one training curve with bands per learner (baseline and bayes)
+    expect((html.stdout.match(/class="curve"/g) ?? []).length).toBe(4);
+    expect((html.stdout.match(/class="band"/g) ?? []).length).toBe(4);
     const bad = await cli(['growth', data, '--target', 'class', '--sizes', '0.5,0.2']);
     expect(bad.code).toBe(2);
     expect(bad.stderr).toMatch(/^foldwise: --sizes: list the sizes once each, smallest first/);
