@@ -31,6 +31,7 @@ import { parseShard } from '../run/shard.js';
 import { DEFAULT_SLICE_BINS, parseSliceBins } from '../slices/slice-columns.js';
 import { registerMerge } from './merge.js';
 import { registerScore } from './score.js';
+import { registerGrowth } from './growth.js';
 import { registerPower } from './power.js';
 import { progressFor } from './progress.js';
 import { VERSION } from '../version.js';
@@ -89,6 +90,15 @@ interface EvalFlags extends DataFlags, CommandFlags {
   predictionsKeep?: string[];
   slice?: string[];
   sliceBins?: string;
+  importance?: boolean;
+  importanceRepeats?: string;
+  importanceClusters?: boolean;
+}
+
+/** --importance-repeats: a whole number (its range is checked with the run's options). */
+function parseImportanceRepeats(text: string): number {
+  if (!/^\d+$/.test(text)) throw new UsageError(`--importance-repeats ${text}: expected a whole number from 1 to 1000`);
+  return Number(text);
 }
 
 async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> {
@@ -131,6 +141,9 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     audit: flags.audit,
     onFoldError: flags.onFoldError,
     ...(flags.slice?.length ? { slice: flags.slice, sliceBins: parseSliceBins(flags.sliceBins) } : {}),
+    ...(flags.importance ? { importance: true } : {}),
+    ...(flags.importanceRepeats !== undefined ? { importanceRepeats: parseImportanceRepeats(flags.importanceRepeats) } : {}),
+    ...(flags.importanceClusters ? { importanceClusters: true } : {}),
   }, {
     commands,
     jobs,
@@ -240,6 +253,9 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--no-audit', 'skip the quick data audit that runs before evaluating')
     .option('--slice <column>', 'also score every metric per level of this column, which need not be a feature (repeatable; numeric columns are cut into quantile bins)', collect)
     .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all rows (default ${DEFAULT_SLICE_BINS})`)
+    .option('--importance', "permutation importance: each feature's drop of the headline metric on each fold's test rows when its values are shuffled")
+    .option('--importance-repeats <n>', 'shuffles per feature and fold for --importance (default 5)')
+    .option('--importance-clusters', "with --importance, also shuffle each of the audit's correlated clusters as one input")
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));
 
@@ -260,6 +276,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
   registerMerge(prog, io, setCode);
   registerScore(prog, io, setCode);
   registerPower(prog, io, setCode);
+  registerGrowth(prog, io, setCode);
 
   prog.command('learners').description('list the learners and their options').action(() => setCode(listLearners(io)));
   prog.command('metrics').description('list the metrics').action(() => setCode(listMetrics(io)));

@@ -31,4 +31,8 @@ export interface TaskRecord {
   readonly pick?: string;
   /** the model's notes about this fit (Model.notes) */
   readonly notes?: Readonly<Record<string, number>>;
+  /** --importance: mean drop of the headline metric per input of frame.importance (NaN: undefined) */
+  readonly drops?: Float64Array;
+  /** --importance: the model's own importance per feature (forest, boost) */
+  readonly own?: Float64Array;
 }

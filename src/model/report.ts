@@ -49,6 +49,33 @@ export interface LearnerReport {
   readonly curves?: LearnerCurves;
   /** regression only: an evenly spaced sample of the pooled out-of-fold predictions (src/run/pooled-sample.ts) */
   readonly pooledSample?: PooledSample;
+  /** --importance: permutation importance per input of report.importance, and the model's own */
+  readonly importance?: LearnerImportance;
+}
+
+/** eval --importance: what was shuffled and how (src/run/importance.ts). */
+export interface ReportImportance {
+  /** the headline metric; a drop is its loss when an input is shuffled (positive: the model uses it) */
+  readonly metric: string;
+  readonly higherIsBetter: boolean;
+  /** shuffles per input and fold; a fold's drop is their mean */
+  readonly repeats: number;
+  /** whether the audit's correlated clusters were shuffled as inputs too */
+  readonly clusters: boolean;
+  readonly inputs: readonly { readonly name: string; readonly kind: 'feature' | 'cluster'; readonly members: readonly string[] }[];
+}
+
+export interface LearnerImportance {
+  /** in report.importance.inputs order */
+  readonly inputs: readonly {
+    readonly name: string;
+    /** each fold's mean drop, in the order of the learner's folds (null: failed or undefined) */
+    readonly folds: readonly (number | null)[];
+    /** over the folds, with the corrected interval; null when no fold has a drop */
+    readonly summary: ScoreSummary | null;
+  }[];
+  /** the model's own importance (forest: impurity decrease, boost: split gain), mean over folds, summing to 1 */
+  readonly own?: { readonly kind: 'impurity' | 'gain'; readonly features: readonly { readonly name: string; readonly mean: number }[] };
 }
 
 /** At most 1,000 (actual, predicted) pairs taken at evenly spaced positions of the pooled out-of-fold predictions. */
@@ -113,6 +140,8 @@ export interface Report {
   readonly learners: readonly LearnerReport[];
   /** every metric per level of each --slice column (src/slices/slice-report.ts); absent without --slice */
   readonly slices?: readonly SliceReport[];
+  /** eval --importance: the inputs shuffled and the settings; each learner's drops are in its importance */
+  readonly importance?: ReportImportance;
   /** paired comparisons of the learners on the headline metric (src/compare/within-report.ts); absent with one learner */
   readonly comparisons?: ReportComparisons;
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */

@@ -21,6 +21,45 @@ function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: r
   return [line(header), line(align.map((a) => (a === 'l' ? ':--' : '--:'))), ...rows.map(line)].join('\n');
 }
 
+/**
+ * --importance: one table per learner (the baseline ignores its inputs and is left out), inputs by
+ * mean drop, largest first; forest and boost also show their own importance per feature.
+ */
+function importanceSection(report: Report): string[] {
+  const imp = report.importance;
+  if (!imp) return [];
+  const out: string[] = [
+    `## Permutation importance: drop of ${cell(imp.metric)} when an input is shuffled`,
+    '',
+    `Each fold's drop is the mean over ${imp.repeats} shuffle${imp.repeats === 1 ? '' : 's'} of that input among the fold's test rows; the model is not refitted. An interval that covers 0 means the data do not show that the model uses the input.${imp.clusters ? ' A cluster is shuffled as one input: copies of one signal hide each other when shuffled alone.' : ''}`,
+    '',
+  ];
+  for (const l of report.learners) {
+    if (!l.importance || l.name === 'baseline') continue;
+    const own = l.importance.own;
+    const ownOf = new Map(own?.features.map((f) => [f.name, f.mean]) ?? []);
+    const rows = l.importance.inputs
+      .map((x, k) => ({ x, k, kind: imp.inputs[k]?.kind ?? 'feature' }))
+      .sort((a, b) => (b.x.summary?.mean ?? -Infinity) - (a.x.summary?.mean ?? -Infinity) || a.k - b.k);
+    out.push(`### ${cell(l.spec)}`, '');
+    out.push(
+      table(
+        ['input', 'mean drop', 'sd', '95% interval (corrected)', ...(own ? [`own (${own.kind}, share)`] : [])],
+        ['l', 'r', 'r', 'r', ...(own ? ['r' as const] : [])],
+        rows.map(({ x, kind }) => [
+          cell(x.name),
+          num(x.summary?.mean),
+          num(x.summary?.sd),
+          interval(x.summary),
+          ...(own ? [kind === 'feature' ? num(ownOf.get(x.name)) : '–'] : []),
+        ]),
+      ),
+      '',
+    );
+  }
+  return out;
+}
+
 /** The learner with the best mean headline score (the first on a tie), or undefined. */
 export function bestLearner(report: Report, higherIsBetter: boolean): LearnerReport | undefined {
   const m = report.metrics[0];
@@ -216,6 +255,8 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
     ),
     '',
   );
+
+  out.push(...importanceSection(report));
 
   const best = bestLearner(report, higherIsBetter(head));
   if (best?.confusion && report.data.classes) {

@@ -33,6 +33,8 @@ import { sliceColumnsOf, type SliceColumn } from '../slices/slice-columns.js';
 import { sliceReports } from '../slices/slice-report.js';
 import { prepareRun, withAudit, type EvaluateOptions, type Prepared } from './prepare.js';
 import { concatPredictions, concatTargets, scoreOf, type Prediction } from '../metrics/scoring.js';
+import { importanceFrameOf, type ImportanceFrame } from './importance.js';
+import { learnerImportance } from './importance-summary.js';
 import { runTasks, splitRows, subsetTarget, taskList, type TaskResult } from './tasks.js';
 
 export { checkSeed, DEFAULT_PLAN, DEFAULT_SEED, prepareRun, type EvaluateOptions, type Prepared } from './prepare.js';
@@ -56,6 +58,8 @@ export interface ReportFrame {
   readonly learners: readonly { readonly name: string; readonly spec: string; readonly params: Report['learners'][number]['params'] }[];
   /** --slice: the level of every data row per slice column (absent without --slice, and in parts of older versions) */
   readonly slices?: readonly SliceColumn[];
+  /** --importance: the metric, repeats and inputs (absent without it) */
+  readonly importance?: ImportanceFrame;
 }
 
 export type { TaskRecord };
@@ -82,6 +86,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
     ...(prepared.slice ? { slices: sliceColumnsOf(prepared.table, prepared.slice.names, prepared.slice.bins) } : {}),
+    ...(prepared.importance ? { importance: importanceFrameOf(prepared.importance, problem.features.map((f) => f.name)) } : {}),
   };
 }
 
@@ -124,6 +129,8 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       rows: where.rows,
       lines: where.lines,
       ...(r.notes ? { notes: r.notes } : {}),
+      ...(r.drops ? { drops: r.drops } : {}),
+      ...(r.own ? { own: r.own } : {}),
     };
   });
 }
@@ -149,6 +156,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     preds: [] as Prediction[],
     actual: [] as Target[],
     times: { fitMs: 0, predictMs: 0 },
+    fold: [] as TaskRecord[],
     final: undefined as
       | { trainRows: number; testRows: number; scores: Record<string, number | null>; failed?: string; notes?: Readonly<Record<string, number>> }
       | undefined,
@@ -171,6 +179,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     }
     l.preds.push(r);
     l.actual.push(r.actual);
+    l.fold.push(r);
     l.folds.push({ repeat: r.repeat, fold: r.fold, trainRows: r.trainRows, testRows, scores, ...(r.notes ? { notes: r.notes } : {}) });
   }
   const classes = frame.data.classes?.length ?? 0;
@@ -219,6 +228,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
       ...(final ? { final } : {}),
       ...(curvesOf(preds, actual, frame.data.classes, { testRows: testMean, trainRows: trainMean })),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
+      ...(frame.importance ? { importance: learnerImportance(frame.importance, c.name, folds, perLearner[li].fold, { testRows: testMean, trainRows: trainMean }, warnings, c.spec) } : {}),
     };
     return report;
   });
@@ -235,6 +245,17 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
     ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, frame.metrics, frame.data.classes) } : {}),
+    ...(frame.importance
+      ? {
+          importance: {
+            metric: frame.importance.metric,
+            higherIsBetter: frame.importance.higherIsBetter,
+            repeats: frame.importance.repeats,
+            clusters: frame.importance.clusters,
+            inputs: frame.importance.inputs,
+          },
+        }
+      : {}),
     ...(totalMs === undefined
       ? {}
       : {

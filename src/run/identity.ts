@@ -55,6 +55,8 @@ export interface RunIdentity {
   readonly kinds: string;
   readonly onFoldError: string;
   readonly audit: boolean;
+  /** --importance: repeats and inputs (present only with it) */
+  readonly importance?: string;
 }
 
 export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
@@ -79,11 +81,13 @@ export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
     kinds: p.table.fingerprint.schema.map(([, k]) => (k === 'numeric' ? 'n' : 'c')).join(''),
     onFoldError: p.onFoldError ?? 'fail',
     audit: p.audit !== undefined,
+    ...(p.importance ? { importance: `${p.importance.metric.name} x${p.importance.repeats}: ${p.importance.inputs.map((i) => i.name).join(', ')}` } : {}),
   };
 }
 
 const short = (v: unknown): string => {
-  const t = JSON.stringify(v);
+  // an optional field absent on one side (programs, importance) reads as "none"
+  const t = JSON.stringify(v) ?? 'none';
   return t.length > 40 ? `${t.slice(0, 37)}...` : t;
 };
 

@@ -36,6 +36,8 @@ interface RecordJSON {
   /** --predictions-keep: the kept columns' text, row by row */
   readonly keep?: string[];
   readonly notes?: Readonly<Record<string, number>>;
+  readonly drops?: (number | null)[];
+  readonly own?: (number | null)[];
 }
 
 export interface PartialReport {
@@ -87,6 +89,8 @@ export function makePartial(
       ...(r.lines ? { lines: Array.from(r.lines) } : {}),
       ...(r.keep ? { keep: [...r.keep] } : {}),
       ...(r.notes ? { notes: r.notes } : {}),
+      ...(r.drops ? { drops: Array.from(r.drops) } : {}),
+      ...(r.own ? { own: Array.from(r.own) } : {}),
     })),
     ...(keep.length ? { keep: [...keep] } : {}),
   };
@@ -114,6 +118,8 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     ...(Array.isArray(j.lines) ? { lines: Int32Array.from(j.lines) } : {}),
     ...(Array.isArray(j.keep) ? { keep: j.keep.map(String) } : {}),
     ...(notesOf(j.notes) ? { notes: notesOf(j.notes) } : {}),
+    ...(Array.isArray(j.drops) ? { drops: Float64Array.from(fromJsonNumbers(j.drops)) } : {}),
+    ...(Array.isArray(j.own) ? { own: Float64Array.from(fromJsonNumbers(j.own)) } : {}),
   };
 }
 

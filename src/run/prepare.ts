@@ -18,6 +18,7 @@ import { quickSuspects } from '../audit/quick-audit.js';
 import type { ReportAudit } from '../model/report.js';
 import { planFor } from '../plans/plan-for.js';
 import { checkSliceBins, checkSliceNames, DEFAULT_SLICE_BINS } from '../slices/slice-columns.js';
+import { checkImportanceRepeats, DEFAULT_IMPORTANCE_REPEATS, importanceInputs, type ImportancePlan } from './importance.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
 
 import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../plans/defaults.js';
@@ -50,6 +51,12 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly slice?: readonly string[];
   /** --slice-bins: quantile bins of a numeric slice column (default 4) */
   readonly sliceBins?: number;
+  /** permutation importance of every feature on each fold's test rows (src/run/importance.ts) */
+  readonly importance?: boolean;
+  /** shuffles per input and fold (default 5) */
+  readonly importanceRepeats?: number;
+  /** also shuffle the audit's correlated clusters, each as one input */
+  readonly importanceClusters?: boolean;
 }
 
 export interface Prepared extends TaskContext {
@@ -120,6 +127,17 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   const impute = options.impute ?? 'median';
   if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
   const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);
+  if (!options.importance && (options.importanceRepeats !== undefined || options.importanceClusters)) {
+    throw new UsageError(`${options.importanceClusters ? '--importance-clusters' : '--importance-repeats'}: give --importance too`);
+  }
+  const importance: ImportancePlan | undefined = options.importance
+    ? {
+        metric: metrics[0],
+        repeats: checkImportanceRepeats(options.importanceRepeats ?? DEFAULT_IMPORTANCE_REPEATS),
+        clusters: Boolean(options.importanceClusters),
+        inputs: importanceInputs(problem, Boolean(options.importanceClusters)),
+      }
+    : undefined;
   const warnings: string[] = [...table.warnings, ...plan.warnings];
   if (problem.excludedRows > 0) {
     warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
@@ -152,6 +170,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     seed,
     final: Boolean(options.final && plan.holdout),
     onFoldError: options.onFoldError ?? 'fail',
+    ...(importance ? { importance } : {}),
     warnings,
     ...(sliceNames.length ? { slice: { names: sliceNames, bins: sliceBins } } : {}),
   };

@@ -13,6 +13,9 @@ export interface TaskResultJSON {
   readonly fitMs: number;
   readonly predictMs: number;
   readonly notes?: Readonly<Record<string, number>>;
+  /** --importance: drops per input (null for NaN) and the model's own importance per feature */
+  readonly drops?: (number | null)[];
+  readonly own?: number[];
 }
 
 export { notesOf };
@@ -25,6 +28,8 @@ export function resultToJSON(r: TaskResult): TaskResultJSON {
     fitMs: r.fitMs,
     predictMs: r.predictMs,
     ...(r.notes ? { notes: r.notes } : {}),
+    ...(r.drops ? { drops: Array.from(r.drops) } : {}),
+    ...(r.own ? { own: Array.from(r.own) } : {}),
   };
 }
 
@@ -35,7 +40,14 @@ const numbers = (v: unknown): v is (number | null)[] => Array.isArray(v) && v.ev
 
 export function resultFromJSON(j: unknown, classification: boolean, where: string): TaskResult {
   const o = j as Partial<TaskResultJSON> | null;
-  if (!o || typeof o.id !== 'string' || !numbers(o.predicted) || (o.probs !== undefined && !numbers(o.probs))) {
+  if (
+    !o ||
+    typeof o.id !== 'string' ||
+    !numbers(o.predicted) ||
+    (o.probs !== undefined && !numbers(o.probs)) ||
+    (o.drops !== undefined && !numbers(o.drops)) ||
+    (o.own !== undefined && !numbers(o.own))
+  ) {
     throw new InputError(`${where}: not a task result`);
   }
   const notes = notesOf(o.notes);
@@ -46,5 +58,7 @@ export function resultFromJSON(j: unknown, classification: boolean, where: strin
     ...(o.probs ? { probs: Float64Array.from(fromJsonNumbers(o.probs)) } : {}),
     fitMs: Number(o.fitMs) || 0,
     predictMs: Number(o.predictMs) || 0,
+    ...(o.drops ? { drops: Float64Array.from(fromJsonNumbers(o.drops)) } : {}),
+    ...(o.own ? { own: Float64Array.from(fromJsonNumbers(o.own)) } : {}),
   };
 }

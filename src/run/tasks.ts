@@ -17,6 +17,7 @@ import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
 import { notesOf } from './notes.js';
 import { createRng, deriveSeed } from '../rng.js';
+import { importanceSeeds, ownImportance, permutationDrops, type ImportancePlan } from './importance.js';
 
 export interface Candidate {
   readonly learner: Learner;
@@ -45,6 +46,10 @@ export interface TaskResult {
   readonly failed?: string;
   /** the model's notes about this fit (Model.notes), when it gave any */
   readonly notes?: Readonly<Record<string, number>>;
+  /** --importance: the mean drop of the headline metric per input (NaN where undefined), fold tasks only */
+  readonly drops?: Float64Array;
+  /** --importance: the model's own importance per feature (forest, boost), when it has one */
+  readonly own?: Float64Array;
 }
 
 /** What to do when a fold of a learner from outside fails: stop the run, or record it and go on. */
@@ -62,6 +67,8 @@ export interface TaskContext {
   readonly final: boolean;
   /** a failed fold of a command: learner stops the run (fail, the default) or is recorded (skip) */
   readonly onFoldError?: OnFoldError;
+  /** --importance: the inputs to shuffle and how often (absent: no importance) */
+  readonly importance?: ImportancePlan;
 }
 
 export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: number): string {
@@ -177,7 +184,13 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
     const probs = model.probabilities?.(Xtest);
     const t2 = performance.now();
     const notes = notesOf(model.notes?.());
-    return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}) };
+    let extra: { drops?: Float64Array; own?: Float64Array } = {};
+    if (ctx.importance && f) {
+      const drops = permutationDrops(model, Xtest, split.prep, subsetTarget(ctx.problem.target, split.test), ctx.importance, importanceSeeds(ctx.seed, f.repeat, f.fold));
+      const own = ownImportance(model, split.prep, ctx.problem.features.length);
+      extra = { drops, ...(own ? { own } : {}) };
+    }
+    return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}), ...extra };
   } catch (caught) {
     // a module: learner's own error is the user's code failing on this fold, not a bug of foldwise
     const e = c.learner.name.startsWith('module:') && !(caught instanceof FoldwiseError) ? moduleFoldError(c.learner.name, fold.label, caught) : caught;

@@ -17,7 +17,7 @@ export const FLOORS: readonly (readonly string[])[] = [
   ['learners'],
   ['audit', 'compare', 'slices', 'curves', 'threshold'],
   ['run'],
-  ['search', 'score', 'learncurve'],
+  ['search', 'score', 'growth'],
   ['report'],
   ['cli', 'api'],
 ];

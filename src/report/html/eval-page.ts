@@ -14,6 +14,7 @@
  *   predictions the report carries (regression-charts.ts); the other learners' charts folded
  *   away. A report of an older version, without the sample, gets no such charts;
  *
+ * then with --importance one permutation-importance chart per learner (importance-chart.ts),
  * and the footer with the run details, the quick audit's suspects and the warnings.
  */
 import { comparisonChart } from './comparison-chart.js';
@@ -23,6 +24,7 @@ import { chartContext, summaryOf } from './context.js';
 import { esc } from './escape.js';
 import { evalFooter } from './footer.js';
 import { intervalText, num } from './format.js';
+import { importanceChart } from './importance-chart.js';
 import { metricsTable } from './metrics-table.js';
 import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
@@ -107,6 +109,16 @@ export function renderEvalHtml(report: Report): string {
       }
       parts.push('</section>');
     }
+  }
+  if (report.importance) {
+    const imp = report.importance;
+    parts.push(`<section><h2>${esc(`Permutation importance (${imp.metric})`)}</h2>`);
+    report.learners.forEach((l, i) => {
+      if (l.name === 'baseline') return;
+      const chart = importanceChart(imp, l, i);
+      if (chart) parts.push(`<h3>${esc(l.spec)}</h3>`, chart);
+    });
+    parts.push('</section>');
   }
   parts.push(evalFooter(report));
   return page(`foldwise: ${d.target} in ${d.path}`, parts.join('\n'));

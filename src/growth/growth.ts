@@ -1,0 +1,218 @@
+/**
+ * `foldwise growth`: would more data help? For each outer fold of the plan, every learner (and
+ * the baseline) is trained on nested, stratified, seeded subsets of the fold's training part
+ * (subsets.ts) at each of the `--sizes`, and always scored on the same outer test rows, so the
+ * points of a curve differ only in how much the learner saw. Preprocessing is fitted on each
+ * subset alone. The score on the subset's own training rows is kept beside the test score: a
+ * wide gap that closes slowly says variance (more data helps), two low curves that meet say bias.
+ *
+ * Per size: the fold scores summarised with the corrected interval (Nadeau-Bengio, with the
+ * subset's rows as the training size). Per learner: the inverse power law a - b n^-c fitted to
+ * the mean test scores by profile least squares (power-law.ts), the gain it predicts from
+ * doubling the largest size with a 95% percentile interval from a bootstrap over folds (folds
+ * resampled with replacement, the fit redone; it ignores that folds share training rows, so it
+ * is narrower than the truth), and the size from which the curve is flat within noise: every
+ * later step's paired fold difference has a corrected interval that covers zero.
+ *
+ * Randomness: the order of a fold's training rows from deriveSeed(seed, "growth", repeat, fold);
+ * each fit from deriveSeed(seed, "growth-fit", spec, size, repeat, fold); the bootstrap from
+ * deriveSeed(seed, "growth-boot", spec).
+ */
+import type { Table } from '../data/types.js';
+import { dataSection } from '../data/problem.js';
+import { UsageError } from '../errors.js';
+import { applyPrep, fitPrep } from '../prep/fold-prep.js';
+import { prepareRun, type EvaluateOptions } from '../run/prepare.js';
+import { createRng, deriveSeed } from '../rng.js';
+import { scoreOf } from '../metrics/scoring.js';
+import { subsetTarget } from '../run/tasks.js';
+import { summarize, type Summary, type SummaryRules } from '../stats/index.js';
+import { VERSION } from '../version.js';
+import { C_GRID, doublingGain, fitPowerLaw, type PowerLawFit } from './power-law.js';
+import { nestedOrder, sizesInRows } from './subsets.js';
+
+export const GROWTH_SCHEMA = 'foldwise-growth/1';
+export const DEFAULT_SIZES = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9, 1];
+export const BOOTSTRAP_ROUNDS = 400;
+
+export interface GrowthOptions extends EvaluateOptions {
+  /** fractions in (0, 1] of each fold's training part, or whole counts of rows above 1 */
+  readonly sizes?: readonly number[];
+}
+
+export interface GrowthFold {
+  readonly repeat: number;
+  readonly fold: number;
+  readonly rows: number;
+  readonly test: number | null;
+  readonly train: number | null;
+}
+
+export interface GrowthPoint {
+  /** the --sizes entry */
+  readonly size: number;
+  /** mean training rows over the folds */
+  readonly rows: number;
+  readonly test: Summary | null;
+  readonly train: Summary | null;
+  readonly folds: readonly GrowthFold[];
+}
+
+export interface GrowthLearner {
+  readonly name: string;
+  readonly spec: string;
+  readonly points: readonly GrowthPoint[];
+  /** a - b n^-c on the mean test scores (negated for a lower-is-better metric); null when it cannot be fitted */
+  readonly fit: (PowerLawFit & { readonly method: string }) | null;
+  /** the fitted gain in the metric's units from doubling the largest size, and its bootstrap interval */
+  readonly doubling: { readonly rows: number; readonly gain: number; readonly ci95: readonly [number, number] | null } | null;
+  /** the first size from which every later step is flat within noise; null when the last step still moves */
+  readonly flatFrom: number | null;
+}
+
+export interface GrowthReport {
+  readonly schema: typeof GROWTH_SCHEMA;
+  readonly tool: { readonly name: 'foldwise'; readonly version: string };
+  readonly command: 'growth';
+  readonly data: ReturnType<typeof dataSection>;
+  readonly plan: { readonly text: string; readonly folds: number; readonly repeats: number; readonly stratified: boolean; readonly seed: number };
+  readonly metric: string;
+  readonly higherIsBetter: boolean;
+  readonly sizes: readonly number[];
+  readonly learners: readonly GrowthLearner[];
+  readonly warnings: readonly string[];
+}
+
+export function checkSizes(sizes: readonly number[]): number[] {
+  if (sizes.length === 0) throw new UsageError('--sizes: give at least one size');
+  for (const s of sizes) {
+    if (!Number.isFinite(s) || s <= 0 || (s > 1 && !Number.isInteger(s))) {
+      throw new UsageError(`--sizes ${s}: expected a fraction above 0 and at most 1, or a whole number of rows above 1`);
+    }
+  }
+  const sorted = [...sizes];
+  for (let i = 1; i < sorted.length; i++) {
+    const key = (v: number): number => (v <= 1 ? v : Infinity);
+    if (key(sorted[i]) === key(sorted[i - 1]) ? sorted[i] <= sorted[i - 1] : key(sorted[i]) < key(sorted[i - 1])) {
+      throw new UsageError('--sizes: list the sizes once each, smallest first (fractions before counts)');
+    }
+  }
+  return sorted;
+}
+
+const mean = (v: readonly number[]): number => v.reduce((s, x) => s + x, 0) / v.length;
+/** Fold scores summarised as eval summarises them, with the metric's rules (floor, range). */
+const summaryOf = (v: readonly (number | null)[], testRows: number, trainRows: number, rules: SummaryRules): Summary | null => {
+  const xs = v.filter((x): x is number => x !== null);
+  return xs.length ? summarize(xs, { testRows, trainRows }, 0.95, rules) : null;
+};
+
+function quantile(sorted: readonly number[], p: number): number {
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  return sorted[lo] + (h - lo) * ((sorted[Math.ceil(h)] ?? sorted[lo]) - sorted[lo]);
+}
+
+export function growth(table: Table, options: GrowthOptions): GrowthReport {
+  const sizes = checkSizes(options.sizes ?? DEFAULT_SIZES);
+  const prepared = prepareRun(table, options);
+  const { problem, plan, candidates, seed } = prepared;
+  if (plan.folds.length < 2) throw new UsageError(`--plan ${prepared.planText}: growth needs a plan with at least 2 folds, for the intervals`);
+  const metric = prepared.metrics[0];
+  const sign = metric.higherIsBetter ? 1 : -1;
+  const warnings: string[] = [...prepared.warnings];
+  const y = problem.target;
+  // per learner, per size, per fold
+  const scores = candidates.map(() => sizes.map(() => [] as GrowthFold[]));
+  let testMean = 0;
+  plan.folds.forEach((f) => {
+    testMean += f.test.length / plan.folds.length;
+    const order = nestedOrder(f.train, y, createRng(deriveSeed(seed, 'growth', f.repeat, f.fold)));
+    const rowsAt = sizesInRows(sizes, order.length);
+    const actualTest = subsetTarget(y, f.test);
+    rowsAt.forEach((rows, si) => {
+      const sub = order.slice(0, rows).sort();
+      const prep = fitPrep(problem, sub, prepared.impute);
+      const actualTrain = subsetTarget(y, sub);
+      const matrices = new Map<boolean, { train: ReturnType<typeof applyPrep>; test: ReturnType<typeof applyPrep> }>();
+      candidates.forEach((c, ci) => {
+        let m = matrices.get(c.learner.needsScaling);
+        if (!m) matrices.set(c.learner.needsScaling, (m = { train: applyPrep(problem, prep, sub, c.learner.needsScaling), test: applyPrep(problem, prep, f.test, c.learner.needsScaling) }));
+        const fitSeed = deriveSeed(seed, 'growth-fit', c.spec, sizes[si], f.repeat, f.fold);
+        const model = c.learner.fit(m.train, actualTrain, c.params, { rng: createRng(fitSeed), seed: fitSeed });
+        const predict = (X: typeof m.train) => {
+          const predicted = model.predict(X);
+          const proba = metric.needsProba ? model.probabilities?.(X) : undefined;
+          return proba ? { predicted, proba } : { predicted };
+        };
+        scores[ci][si].push({ repeat: f.repeat, fold: f.fold, rows, test: scoreOf(metric, actualTest, predict(m.test)), train: scoreOf(metric, actualTrain, predict(m.train)) });
+      });
+    });
+  });
+  const tooSmall = sizesInRows(sizes, Math.min(...plan.folds.map((f) => f.train.length))).filter((r, i, a) => i > 0 && r === a[i - 1]).length;
+  if (tooSmall) warnings.push(`${tooSmall} size${tooSmall === 1 ? '' : 's'} give the same number of rows as the size before on some fold; give sizes further apart`);
+
+  const learners: GrowthLearner[] = candidates.map((c, ci) => {
+    const points: GrowthPoint[] = sizes.map((size, si) => {
+      const folds = scores[ci][si];
+      const rows = mean(folds.map((f) => f.rows));
+      return { size, rows, test: summaryOf(folds.map((f) => f.test), testMean, rows, metric), train: summaryOf(folds.map((f) => f.train), testMean, rows, metric), folds };
+    });
+    const usable = points.filter((p) => p.test);
+    const fit = fitPowerLaw(usable.map((p) => p.rows), usable.map((p) => sign * p.test!.mean));
+    let doubling: GrowthLearner['doubling'] = null;
+    const last = points[points.length - 1];
+    if (fit) {
+      const n = last.rows;
+      const gains: number[] = [];
+      const rng = createRng(deriveSeed(seed, 'growth-boot', c.spec));
+      const F = plan.folds.length;
+      for (let b = 0; b < BOOTSTRAP_ROUNDS; b++) {
+        const pick = Array.from({ length: F }, () => rng.int(F));
+        const xs: number[] = [];
+        const ys: number[] = [];
+        points.forEach((p) => {
+          const v = pick.map((k) => p.folds[k].test).filter((x): x is number => x !== null);
+          if (v.length) (xs.push(mean(pick.map((k) => p.folds[k].rows))), ys.push(sign * mean(v)));
+        });
+        const bf = fitPowerLaw(xs, ys);
+        if (bf) gains.push(sign * doublingGain(bf, n));
+      }
+      gains.sort((a, b) => a - b);
+      doubling = { rows: 2 * n, gain: sign * doublingGain(fit, n), ci95: gains.length >= 20 ? [quantile(gains, 0.025), quantile(gains, 0.975)] : null };
+    }
+    // flat within noise: paired fold differences between consecutive sizes
+    let flatFrom: number | null = null;
+    for (let si = points.length - 2; si >= 0; si--) {
+      const a = points[si].folds;
+      const b = points[si + 1].folds;
+      const diffs = a.map((fa, k) => (fa.test === null || b[k].test === null ? null : b[k].test! - fa.test)).filter((d): d is number => d !== null);
+      const s = diffs.length >= 2 ? summarize(diffs, { testRows: testMean, trainRows: points[si + 1].rows }) : null;
+      if (!s?.ci95 || s.ci95[0] > 0 || s.ci95[1] < 0) break;
+      flatFrom = points[si].size;
+    }
+    if (fit && (fit.c === C_GRID[0] || fit.c === C_GRID[C_GRID.length - 1])) {
+      warnings.push(`${c.spec}: the fitted exponent c = ${fit.c} is at the edge of the searched range (${C_GRID[0]} to ${C_GRID[C_GRID.length - 1]}), so the curve's shape is not pinned down; read its doubling gain and interval as rough`);
+    }
+    return {
+      name: c.learner.name,
+      spec: c.spec,
+      points,
+      fit: fit ? { ...fit, a: sign * fit.a, b: sign * fit.b, method: 'profile least squares over c = 0.02..3 step 0.02, a and b by ordinary least squares on the mean test scores' } : null,
+      doubling,
+      flatFrom,
+    };
+  });
+  return {
+    schema: GROWTH_SCHEMA,
+    tool: { name: 'foldwise', version: VERSION },
+    command: 'growth',
+    data: dataSection(problem),
+    plan: { text: prepared.planText, folds: plan.foldsPerRepeat, repeats: plan.repeats, stratified: prepared.stratified, seed },
+    metric: metric.name,
+    higherIsBetter: metric.higherIsBetter,
+    sizes,
+    learners,
+    warnings,
+  };
+}
