@@ -51,8 +51,8 @@
  * against 1,863 ms here (1.01, within the noise); values 2,668 ms against 2,267 ms (1.18
  * slower: the channel array is moved and read for nothing), and the regression trees changed
  * (381,572 nodes against 381,656), because the running sums of squares round differently from
- * sL * sL, so reports would no longer be byte for byte the same. Kept apart; a change to one
- * side must be made to the other (the tests of both tasks run the same tie and weight cases).
+ * sL * sL, so reports would no longer be byte for byte the same. Kept apart: a change to one
+ * side must be made to the other.
  *
  * Mean decrease in impurity (Breiman 2001 sec. 10; Louppe, Wehenkel, Sutera & Geurts 2013,
  * "Understanding variable importances in forests of randomized trees", NIPS, free:
