@@ -42,6 +42,18 @@
  * Splitting a node is a stable partition of its rows, so rows stay in ascending order and
  * the code lookups walk memory forwards.
  *
+ * Why classes and values have a fill, a walk and a partition each (near-copies on purpose):
+ * one generic search was tried (2026-12-02), treating a value target as one channel whose
+ * histogram holds w * y, so one fill, one walk (sum_k L_k^2 / W_L + sum_k R_k^2 / W_R, which is
+ * the variance score when there is one channel) and one partition served both. Measured on
+ * 200,000 x 20 random features, 6 bootstrap trees, the same binned matrix and draws, 7
+ * alternating runs of each in one process (medians): classes (3, gini) 1,888 ms generic
+ * against 1,863 ms here (1.01, within the noise); values 2,668 ms against 2,267 ms (1.18
+ * slower: the channel array is moved and read for nothing), and the regression trees changed
+ * (381,572 nodes against 381,656), because the running sums of squares round differently from
+ * sL * sL, so reports would no longer be byte for byte the same. Kept apart: a change to one
+ * side must be made to the other.
+ *
  * Mean decrease in impurity (Breiman 2001 sec. 10; Louppe, Wehenkel, Sutera & Geurts 2013,
  * "Understanding variable importances in forests of randomized trees", NIPS, free:
  * https://papers.nips.cc/paper/4928): each split adds its impurity decrease divided by the
