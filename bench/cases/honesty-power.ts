@@ -76,7 +76,7 @@ export const cases: BenchCase[] = [
           rows,
           notes: [
             'stated power: src/stats/power.ts (noncentral t, Nadeau-Bengio standard error) at the process variance; MDD stated = the mean of the MDD the gate reports from each run\'s observed variance.',
-            'Fold differences on the Nadeau-Bengio correlation model (src/compare/power-simulate.ts); the real-learner figure is the honesty case, row (b).',
+            'Fold differences on the Nadeau-Bengio correlation model (src/compare/power-simulate.ts), not real fits; the honesty case (real fits) measures false alarms and a fixed 3-point drop, not this curve.',
           ],
         },
         {
