@@ -12,11 +12,12 @@ const CASES: readonly BenchCase[] = [
   ...(await import('./cases/knn.js')).cases,
   ...(await import('./cases/eval.js')).cases,
   ...(await import('./cases/honesty.js')).cases,
+  ...(await import('./cases/honesty-power.js')).cases,
   ...(await import('./cases/tune.js')).cases,
   ...(await import('./cases/scale.js')).cases,
   ...(await import('./cases/audit.js')).cases,
   ...(await import('./cases/audit-scale.js')).cases,
-  ...(await import('./cases/slices.js')).cases,
+  ...(await import('./cases/honesty-slices.js')).cases,
 ];
 
 function selected(names: readonly string[]): BenchCase[] {

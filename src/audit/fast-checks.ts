@@ -7,8 +7,8 @@
  */
 import type { AuditContext } from './audit-context.js';
 import { constantSuspects } from './constant.js';
-import { dateLikeSuspects } from './date-like.js';
-import { duplicateSuspects, findDuplicates } from './duplicates.js';
+import { DATE_WORDS, dateLikeSuspects } from './date-like.js';
+import { duplicateSuspects, findDuplicates, timeStamps } from './duplicates.js';
 import { groupLikeSuspects } from './group-like.js';
 import { highCardinalitySuspects, idLikeSuspects } from './id-like.js';
 import { leakageSuspects } from './leakage.js';
@@ -72,7 +72,7 @@ export function fastChecks(ctx: AuditContext): FastFindings {
   const constant = constantSuspects(features, n);
   const idNames = new Set(idLike.map((s) => s.columns[0]));
   const unusable = new Set([...idNames, ...constant.filter((s) => s.kind === 'constant').map((s) => s.columns[0])]);
-  const dups = findDuplicates(features, y, ctx.planned.plan.folds);
+  const dups = findDuplicates(features, y, ctx.planned.plan.folds, timeStamps(problem, DATE_WORDS));
   const missing = missingnessTests(ctx.scoreFeatures, sy);
   const leaking = new Set(leakage.map((s) => s.columns[0]));
   const targetColumn = ctx.table.byName.get(problem.targetName)!;

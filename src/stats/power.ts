@@ -55,6 +55,19 @@ export function powerAt(deltaOverSe: number, df: number, alpha: number): number 
  */
 export function mddInSe(df: number, s: PowerSetting): number {
   checkPowerSetting(s);
+  // a pure function of three numbers, asked for again and again by repeatsFor and the simulations
+  const key = `${df} ${s.alpha} ${s.power}`;
+  const known = mddCache.get(key);
+  if (known !== undefined) return known;
+  const value = mddBisect(df, s);
+  if (mddCache.size > 10_000) mddCache.clear();
+  mddCache.set(key, value);
+  return value;
+}
+
+const mddCache = new Map<string, number>();
+
+function mddBisect(df: number, s: PowerSetting): number {
   // the approximation brackets the answer from below; power grows with the noncentrality
   let lo = 0;
   let hi = tQuantile(1 - s.alpha, df) + tQuantile(s.power, df) + 1;

@@ -259,6 +259,51 @@ describe('duplicates and the plan', () => {
   });
 });
 
+describe('duplicates and time stamps (issue 20)', () => {
+  // invented rows (mechanics): 60 copied records; a copy either repeats its record's date or
+  // carries another date. Rows equal on every feature and the target but stamped at different
+  // times are separate measurements, not copies (src/audit/duplicates.ts, timeStamps).
+  async function withCopies(sameDate: boolean, dateName: string): Promise<AuditReport> {
+    const base = cleanColumns(600, 21);
+    const names = [...base.keys()];
+    const n = base.get('y')!.length;
+    const day = (i: number): string => new Date(Date.UTC(2020, 0, 1) + i * 86_400_000).toISOString().slice(0, 10);
+    const cols = new Map<string, Cell[]>(names.map((c) => [c, [...base.get(c)!]]));
+    cols.set(dateName, Array.from({ length: n }, (_, i) => day(i)));
+    for (let k = 0; k < 60; k++) {
+      const i = (k * 7) % n;
+      for (const c of names) cols.get(c)!.push(base.get(c)![i]);
+      cols.get(dateName)!.push(sameDate ? day(i) : day(n + k));
+    }
+    return audit(await tableOf(cols), { target: 'y', drop: [dateName], plan: 'kfold:5', seed: 1 });
+  }
+
+  it('copies that repeat their date are found and printed (warn); the same rows at other dates are not copies', async () => {
+    const copied = await withCopies(true, 'date');
+    expect(copied.duplicates.exactRows).toBe(120);
+    expect(of(copied, 'duplicate-rows')[0]?.severity).toBe('warn');
+    const remeasured = await withCopies(false, 'date');
+    expect(remeasured.duplicates.exactRows).toBe(0);
+    expect(of(remeasured, 'duplicate-rows').length).toBe(0);
+  });
+
+  it('a dropped column that is not a time stamp does not split copies', async () => {
+    // ISO dates under a name without a date word are still read as dates by the loader, so use text codes
+    const base = cleanColumns(600, 21);
+    const names = [...base.keys()];
+    const n = base.get('y')!.length;
+    const cols = new Map<string, Cell[]>(names.map((c) => [c, [...base.get(c)!]]));
+    cols.set('clerk', Array.from({ length: n }, (_, i) => `c${i}`));
+    for (let k = 0; k < 60; k++) {
+      const i = (k * 7) % n;
+      for (const c of names) cols.get(c)!.push(base.get(c)![i]);
+      cols.get('clerk')!.push(`c${n + k}`);
+    }
+    const r = audit(await tableOf(cols), { target: 'y', drop: ['clerk'], plan: 'kfold:5', seed: 1 });
+    expect(r.duplicates.exactRows).toBe(120);
+  });
+});
+
 describe('constant, group-like, date-like, rare classes, markers', () => {
   it('flags a constant and a near-constant column', async () => {
     const cols = cleanColumns(300, 10);

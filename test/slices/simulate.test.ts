@@ -2,7 +2,7 @@
  * The slice gate by simulation (issue 17), seeded, on the correlation model the Nadeau-Bengio
  * correction assumes (src/slices/simulate.ts). Limits are binomial: a rate estimated from n runs
  * has standard error sqrt(p (1 - p) / n); 3 standard errors is the margin (common practice).
- * `npm run bench -- slices` runs the same with more runs and prints the figures.
+ * `npm run bench -- honesty-slices` runs the same with more runs and prints the figures.
  */
 import { describe, expect, it } from 'vitest';
 import { createRng } from '../../src/rng.js';

@@ -1,5 +1,5 @@
 /**
- * `npm run bench -- slices`: the slice gate by simulation (src/slices/simulate.ts): 8 slices of
+ * `npm run bench -- honesty-slices (also part of npm run bench -- honesty)`: the slice gate by simulation (src/slices/simulate.ts): 8 slices of
  * kfold:10 (and kfold:10x3), fold differences on the Nadeau-Bengio correlation model. Rows:
  * family-wise false alarms with no true change (Holm and uncorrected), and the detection rate
  * of a drop planted in one slice at the minimal detectable difference that power.ts gives at
@@ -17,7 +17,7 @@ const pct = (n: number): string => `${((100 * n) / RUNS).toFixed(1)}%`;
 
 export const cases: BenchCase[] = [
   {
-    name: 'slices',
+    name: 'honesty-slices',
     doc: 'gate --slices by simulation: family-wise false alarms over 8 slices (Holm vs uncorrected) and power at the stated minimal detectable difference',
     run: ({ log }) => {
       const rows: (string | number)[][] = [];
