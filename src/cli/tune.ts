@@ -5,8 +5,11 @@
  * report goes to standard output as Markdown (default) and/or as JSON, and with --html as a
  * self-contained HTML page with charts (src/report/html/tune-page.ts).
  *
- * Loader options, --seed, --impute, --no-stratify, --json, --markdown, --html and --no-timing
- * are those of eval; exit codes too: 0 done, 2 bad input or usage.
+ * Loader options, --seed, --impute, --no-stratify, --json, --markdown, --html, --no-timing,
+ * --quiet, --jobs and --over-cores are those of eval; exit codes too: 0 done, 2 bad input or
+ * usage, 130/143/129 stopped by a signal while the search runs on worker threads (--jobs > 1,
+ * src/search/tune-threads.ts; with --jobs 1 it runs in this thread and signals keep their
+ * default action).
  */
 import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';

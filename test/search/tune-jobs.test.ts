@@ -30,12 +30,12 @@ const SMALL = ['--plan', 'kfold:3', '--inner', 'kfold:2', '--no-timing', '--quie
 const CLASS = ['tune', penguins, '--target', 'Species', '--drop', 'Island', ...SMALL];
 const NUMERIC = ['tune', penguins, '--target', 'Body Mass (g)', '--drop', 'Island', ...SMALL];
 
-/** The JSON report, the Markdown and the predictions file of one run with --jobs `jobs`. */
+/** The JSON report, the Markdown, the HTML page and the predictions file of one run with --jobs `jobs`. */
 async function outputs(args: readonly string[], jobs: string, tag: string): Promise<string[]> {
   const dir = join(tmp.dir, `${tag}-j${jobs}`);
   mkdirSync(dir, { recursive: true });
-  const files = ['tune.json', 'tune.md', 'preds.csv'].map((f) => join(dir, f));
-  const r = await cli([...args, '--jobs', jobs, '--json', files[0], '--markdown', files[1], '--predictions', files[2]]);
+  const files = ['tune.json', 'tune.md', 'tune.html', 'preds.csv'].map((f) => join(dir, f));
+  const r = await cli([...args, '--jobs', jobs, '--json', files[0], '--markdown', files[1], '--html', files[2], '--predictions', files[3]]);
   expect(r.stderr.split('\n').filter((l) => l && !l.includes('warning'))).toEqual([]);
   expect(r.code).toBe(0);
   return files.map((f) => readFileSync(f, 'utf8'));
@@ -48,6 +48,7 @@ async function expectSameAcrossJobs(args: readonly string[], tag: string): Promi
   expect(two[0]).toBe(one[0]);
   expect(two[1]).toBe(one[1]);
   expect(two[2]).toBe(one[2]);
+  expect(two[3]).toBe(one[3]);
 }
 
 describe('tune --jobs gives the report of --jobs 1, byte for byte', () => {
