@@ -14,6 +14,7 @@
 import { spawn } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { availableParallelism } from 'node:os';
 import { Readable } from 'node:stream';
 import { describe, expect, it } from 'vitest';
 import { run } from '../../src/cli/run.js';
@@ -91,6 +92,20 @@ describe('tune --jobs runs on worker threads', () => {
     expect(one.stderr).toMatch(/undefined in every inner fold of outer fold 1/);
     expect(two.code).toBe(one.code);
     expect(two.stderr).toBe(one.stderr);
+  });
+});
+
+describe('tune --jobs is read as eval reads it', () => {
+  it('caps N at the cores unless --over-cores, with one warning line, and refuses 0', async () => {
+    const args = [...CLASS, '--learner', 'knn:k=1|5', '--json', '-'];
+    const many = await cli([...args, '--jobs', '256']);
+    expect(many.code).toBe(0);
+    expect(many.stderr.split('\n')[0]).toBe(`foldwise: warning: --jobs 256: capped at the ${availableParallelism()} cores of this machine (add --over-cores to run 256 workers anyway)`);
+    expect(many.stderr.match(/capped at/g)?.length).toBe(1);
+    expect(many.stdout).toBe((await cli([...args, '--jobs', '1'])).stdout);
+    const zero = await cli([...args, '--jobs', '0']);
+    expect(zero.code).toBe(2);
+    expect(zero.stderr).toMatch(/--jobs 0: expected a whole number from 1 to 256/);
   });
 });
 
