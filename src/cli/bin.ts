@@ -7,7 +7,8 @@
  * gate's verdict). Any other write failure (a full disk behind `> verdict.md`) is one line on
  * standard error and exit 2.
  *
- * Signals: while eval runs its tasks (the only long phase with a journal) SIGINT, SIGTERM and
+ * Signals: while eval runs its tasks (and while tune --jobs N > 1 runs its search, without a
+ * journal) SIGINT, SIGTERM and
  * SIGHUP stop the run within moments: workers are terminated, the programs of command: learners
  * and their process groups are ended, finished tasks stay in the journal, and the exit code is
  * 128 + the signal's number (130, 143, 129). A second signal exits at once. Outside that phase

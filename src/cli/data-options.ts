@@ -3,6 +3,7 @@
  * and how to read it, the target and the problem flags, the seed, --jobs, and the output check.
  */
 import { Option, type Command } from 'commander';
+import { availableParallelism } from 'node:os';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING } from '../data/load-csv.js';
 import { DATE_ORDERS, parseDateOrder } from '../data/dates.js';
@@ -88,6 +89,19 @@ export function loadOptionsOf(flags: DataFlags): LoadOptions {
 export function parseJobs(text: string): number {
   if (!/^\d+$/.test(text) || Number(text) < 1 || Number(text) > 256) throw new UsageError(`--jobs ${text}: expected a whole number from 1 to 256`);
   return Number(text);
+}
+
+/**
+ * --jobs and --over-cores as eval and tune read them: the workers to run, capped at the cores of
+ * this machine unless --over-cores is given (each worker holds its own copy of the fold
+ * matrices: more workers than cores only cost memory), with a warning when capped.
+ */
+export function jobsOf(text: string, overCores: boolean | undefined, io: Io): number {
+  const asked = parseJobs(text);
+  const cores = availableParallelism();
+  const jobs = overCores ? asked : Math.min(asked, cores);
+  if (jobs < asked) io.stderr.write(`foldwise: warning: --jobs ${asked}: capped at the ${cores} cores of this machine (add --over-cores to run ${asked} workers anyway)\n`);
+  return jobs;
 }
 
 /** Refuses outputs that would overwrite the data file or each other (see guard.ts). */

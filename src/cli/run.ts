@@ -52,7 +52,7 @@ import {
   checkOutputs,
   loadOptionsOf,
   parseDelimiter,
-  parseJobs,
+  jobsOf,
   parseMissing,
   parseSeed,
   problemOptionsOf,
@@ -112,11 +112,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]]);
   if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const seed = parseSeed(flags.seed);
-  const asked = parseJobs(flags.jobs);
-  // each worker holds its own copy of the fold matrices: more workers than cores only costs memory
-  const cores = availableParallelism();
-  const jobs = flags.overCores ? asked : Math.min(asked, cores);
-  if (jobs < asked) io.stderr.write(`foldwise: warning: --jobs ${asked}: capped at the ${cores} cores of this machine (add --over-cores to run ${asked} workers anyway)\n`);
+  const jobs = jobsOf(flags.jobs, flags.overCores, io);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');

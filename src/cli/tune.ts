@@ -5,8 +5,11 @@
  * report goes to standard output as Markdown (default) and/or as JSON, and with --html as a
  * self-contained HTML page with charts (src/report/html/tune-page.ts).
  *
- * Loader options, --seed, --impute, --no-stratify, --json, --markdown, --html and --no-timing
- * are those of eval; exit codes too: 0 done, 2 bad input or usage.
+ * Loader options, --seed, --impute, --no-stratify, --json, --markdown, --html, --no-timing,
+ * --quiet, --jobs and --over-cores are those of eval; exit codes too: 0 done, 2 bad input or
+ * usage, 130/143/129 stopped by a signal while the search runs on worker threads (--jobs > 1,
+ * src/search/tune-threads.ts; with --jobs 1 it runs in this thread and signals keep their
+ * default action).
  */
 import { writeOutputs } from './output.js';
 import { type Command, Option } from 'commander';
@@ -23,11 +26,14 @@ import { renderTuneMarkdown } from '../report/tune-markdown.js';
 import { DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
-import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, tuneWithPredictions } from '../search/tune.js';
+import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, type TuneOptions, tuneWithPredictions } from '../search/tune.js';
+import { tuneOnThreads } from '../search/tune-threads.js';
+import { InterruptedError } from '../run/execute.js';
+import { availableParallelism } from 'node:os';
 import { tuneRecords } from '../search/tune-predictions.js';
 import { checkKeep, keptText } from '../run/predictions-out.js';
 import { checkPredictionsPath, withPredictions } from './predictions-output.js';
-import { addDataOptions, checkOutputs, type DataFlags, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './data-options.js';
+import { addDataOptions, checkOutputs, type DataFlags, jobsOf, loadOptionsOf, parseSeed, sourceOf, problemOptionsOf } from './data-options.js';
 import type { Io } from './io.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
@@ -52,6 +58,8 @@ interface TuneFlags extends DataFlags, CommandFlags {
   timing: boolean;
   audit: boolean;
   quiet?: boolean;
+  jobs: string;
+  overCores?: boolean;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -81,13 +89,15 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   checkPredictionsPath(flags.predictions);
   checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--predictions', flags.predictions]]);
   const seed = parseSeed(flags.seed);
+  const jobs = jobsOf(flags.jobs, flags.overCores, io);
   const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
   const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
   const holdout = flags.holdout === undefined ? undefined : parseHoldout(flags.holdout);
   const specs = flags.learner?.length ? flags.learner : DEFAULT_SEARCH;
 
   // module: and command: learners must be registered before the search space is read
-  await loadExternalLearners(specs.map((s) => s.split(';')[0]), io.cwd ?? resolve('.'), commandSetupOf(flags, io));
+  const commands = commandSetupOf(flags, io);
+  await loadExternalLearners(specs.map((s) => s.split(';')[0]), io.cwd ?? resolve('.'), commands);
   // count the candidates before reading any data
   const counted = planSearch(parseSearchSpace(specs), { sample, maxCandidates });
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
@@ -106,7 +116,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   }
   if (!flags.quiet) io.stderr.write(note);
   const keep = flags.predictionsKeep ?? [];
-  const { report, predictions } = tuneWithPredictions(table, {
+  const options: TuneOptions = {
     ...problemOptionsOf(flags),
     plan: flags.plan,
     inner: flags.inner,
@@ -121,7 +131,27 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     impute: flags.impute,
     timing: flags.timing,
     audit: flags.audit,
-  });
+  };
+  let result: ReturnType<typeof tuneWithPredictions>;
+  if (jobs > 1) {
+    // the search runs on worker threads, so this thread sees a stop signal: the workers (and
+    // the programs of command: learners) are ended and the exit code is 128 + the signal's number
+    const disarm = io.armStops?.();
+    try {
+      result = await tuneOnThreads(table, options, {
+        jobs,
+        baseDir: io.cwd ?? resolve('.'),
+        commands,
+        stop: io.stop,
+        stopError: (reason) => new InterruptedError(`tune: stopped (${String(reason)}); nothing was written`, reason),
+      });
+    } finally {
+      disarm?.();
+    }
+  } else {
+    result = tuneWithPredictions(table, options);
+  }
+  const { report, predictions } = result;
   printAuditSuspects(io, report.audit);
   for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);
   const y = predictions.problem.target;
@@ -164,5 +194,7 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--no-timing', 'leave timings out, so the same inputs and seed give a byte-identical report')
     .option('--no-audit', 'skip the quick data audit that runs before the search')
     .option('--quiet', 'no notes on standard error (warnings still print), as for eval')
+    .option('--jobs <n>', 'worker threads, one outer fold at a time each (default and most: the available cores; see --over-cores); the report is the same for every n', String(availableParallelism()))
+    .option('--over-cores', 'let --jobs exceed the number of cores (each worker costs memory, and more workers than cores gain no speed)')
     .action(async (data: string, flags: TuneFlags) => setCode(await runTune(data, flags, io)));
 }

@@ -170,9 +170,51 @@ export function tune(table: Table, options: TuneOptions): TuneReport {
   return tuneWithPredictions(table, options).report;
 }
 
-/** The nested search, also giving the outer (and holdout) predictions of the tuned procedure and the baseline. */
-export function tuneWithPredictions(table: Table, options: TuneOptions): { report: TuneReport; predictions: TunePredictions } {
-  const started = performance.now();
+/** Everything the search's pieces of work need, the same in every thread (it follows from the table and the options). */
+export interface TuneSetup {
+  readonly started: number;
+  readonly options: TuneOptions;
+  readonly seed: number;
+  readonly rule: PickRule;
+  readonly problem: Problem;
+  readonly outerSpec: PlanSpec;
+  readonly innerSpec: PlanSpec;
+  readonly metrics: readonly Metric[];
+  readonly head: Metric;
+  readonly specs: readonly string[];
+  readonly candidates: readonly SearchCandidate[];
+  readonly search: ReturnType<typeof searchCandidates>['plan'];
+  readonly impute: Impute;
+  readonly warnings: readonly string[];
+  readonly searchRows: Int32Array;
+  readonly holdoutRows?: Int32Array;
+  readonly holdoutFrom?: 'option' | 'plan';
+  readonly outer: SubsetPlan;
+}
+
+/** One outer fold's work: the inner search on its training rows, the pick, its refit and the baseline on the outer test rows. */
+export interface OuterWork {
+  readonly stats: InnerStat[];
+  readonly innerWarnings: readonly string[];
+  readonly innerFolds: number;
+  readonly pick: Pick;
+  readonly tuned: Prediction;
+  readonly baseline: Prediction;
+  readonly work: WorkCount;
+}
+
+/** The recommendation's work: the inner search on all search rows. */
+export interface AllWork {
+  readonly stats: InnerStat[];
+  readonly innerWarnings: readonly string[];
+  readonly foldsPerRepeat: number;
+  readonly repeats: number;
+  readonly stratified: boolean;
+  readonly work: WorkCount;
+}
+
+/** Checks the options and builds the holdout, the outer plan and the candidates (steps before any fit). */
+export function setupTune(table: Table, options: TuneOptions, started = performance.now()): TuneSetup {
   const seed = checkSeed(options.seed ?? DEFAULT_SEED);
   const rule = options.pick ?? 'best';
   if (!PICK_RULES.includes(rule)) throw new UsageError(`--pick ${rule}: expected one of ${PICK_RULES.join(', ')}`);
@@ -185,7 +227,6 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
   const space = parseSearchSpace(specs);
   const { candidates, plan: search } = searchCandidates(space, problem.task, { sample: options.sample, maxCandidates: options.maxCandidates }, seed);
   const impute = options.impute ?? 'median';
-  const y = problem.target;
   const n = problem.rows.length;
   const warnings: string[] = [...table.warnings, ...search.warnings];
   if (problem.excludedRows > 0) {
@@ -217,11 +258,65 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     }
   }
   warnings.push(...outer.plan.warnings);
-  const suspects = options.audit === false ? [] : quickSuspects(problem, { plan: outerSpec, stratify: options.stratify, seed });
   if (outerSpec.kind === 'forward' && innerSpec.kind !== 'forward') {
     warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
   }
   if (outerSpec.kind === 'loo') warnings.push('leave-one-out outer plan: each outer fold scores one row, so per-fold spread is degenerate; read the pooled scores');
+  return { started, options, seed, rule, problem, outerSpec, innerSpec, metrics, head, specs, candidates, search, impute, warnings, searchRows, holdoutRows, holdoutFrom, outer };
+}
+
+/** Step 2 for outer fold `index` (in plan order). Its seeds depend on the fold only, so folds can run in any order or thread. */
+export function outerFoldWork(s: TuneSetup, index: number): OuterWork {
+  const { problem, seed, candidates, head, impute } = s;
+  const y = problem.target;
+  const f = s.outer.plan.folds[index];
+  const where = label(f, s.outer.plan.repeats);
+  const work = newWorkCount();
+  const inner = innerPlan(problem, s.innerSpec, f.train, s.options.stratify, deriveSeed(seed, 'inner', f.repeat, f.fold), `the training rows of ${where}`);
+  const stats = innerSearch(problem, inner.plan, candidates, head, impute, (r, k) => deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold, 'inner', r, k), work);
+  const p = pickCandidate(candidates, stats, s.rule, head.higherIsBetter);
+  checkPick(p, head, where);
+  const chosen = candidates[p.pick];
+  const split = new SplitData(problem, f.train, f.test, impute);
+  const tuned = predictAll(split, y, [chosen], deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold), work)[0];
+  // the baseline on the same outer split, for the paired comparison of the tuned estimate
+  const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), { constant: baselineConstantFor(head.name) }, { rng: createRng(0), seed: 0 });
+  const bTest = split.matrix('test', false);
+  const bPred: Prediction = { predicted: bModel.predict(bTest), probs: bModel.probabilities?.(bTest) };
+  return { stats, innerWarnings: inner.plan.warnings, innerFolds: inner.plan.folds.length, pick: p, tuned, baseline: bPred, work };
+}
+
+/** Step 3's search: the inner plan on all search rows. */
+export function allSearchWork(s: TuneSetup): AllWork {
+  const work = newWorkCount();
+  const allInner = innerPlan(s.problem, s.innerSpec, s.searchRows, s.options.stratify, deriveSeed(s.seed, 'inner', 'all'), 'all search rows');
+  const stats = innerSearch(s.problem, allInner.plan, s.candidates, s.head, s.impute, (r, k) => deriveSeed(s.seed, 'fit', 'all', 'inner', r, k), work);
+  return { stats, innerWarnings: allInner.plan.warnings, foldsPerRepeat: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified, work };
+}
+
+function addWork(to: WorkCount, from: WorkCount): void {
+  to.fits += from.fits;
+  to.plainFits += from.plainFits;
+  to.fitMs += from.fitMs;
+  to.predictMs += from.predictMs;
+}
+
+/** The nested search, also giving the outer (and holdout) predictions of the tuned procedure and the baseline. */
+export function tuneWithPredictions(table: Table, options: TuneOptions): { report: TuneReport; predictions: TunePredictions } {
+  const s = setupTune(table, options);
+  const folds = s.outer.plan.folds.map((_, i) => outerFoldWork(s, i));
+  return finishTune(s, folds, allSearchWork(s));
+}
+
+/**
+ * Steps 3 (the pick on all search rows) and 4 and the report, from the outer folds' work in plan
+ * order and the recommendation's search: the same whichever thread did each piece.
+ */
+export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: AllWork): { report: TuneReport; predictions: TunePredictions } {
+  const { problem, options, seed, rule, outerSpec, innerSpec, metrics, head, specs, candidates, search, impute, searchRows, holdoutRows, holdoutFrom, outer, started } = s;
+  const y = problem.target;
+  const warnings = [...s.warnings];
+  const suspects = options.audit === false ? [] : quickSuspects(problem, { plan: outerSpec, stratify: options.stratify, seed });
 
   // 2. nested selection, outer fold by outer fold
   const work = newWorkCount();
@@ -233,25 +328,17 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
   const predictions: TunePredictions = { problem, outer: [] };
   const repeats = outer.plan.repeats;
   let fellBack = false;
-  for (const f of outer.plan.folds) {
+  outer.plan.folds.forEach((f, i) => {
     const where = label(f, repeats);
-    const inner = innerPlan(problem, innerSpec, f.train, options.stratify, deriveSeed(seed, 'inner', f.repeat, f.fold), `the training rows of ${where}`);
-    for (const w of inner.plan.warnings) warnings.push(`inner plan on ${where}: ${w}`);
-    const stats = innerSearch(problem, inner.plan, candidates, head, impute, (r, k) => deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold, 'inner', r, k), work);
-    const p = pickCandidate(candidates, stats, rule, head.higherIsBetter);
-    checkPick(p, head, where);
+    const { stats, pick: p, tuned: pred, baseline: bPred } = outerWork[i];
+    for (const w of outerWork[i].innerWarnings) warnings.push(`inner plan on ${where}: ${w}`);
+    addWork(work, outerWork[i].work);
     fellBack ||= p.fellBack;
     perFold.push(stats);
     const chosen = candidates[p.pick];
-    const split = new SplitData(problem, f.train, f.test, impute);
-    const pred = predictAll(split, y, [chosen], deriveSeed(seed, 'fit', 'outer', f.repeat, f.fold), work)[0];
     const yTest = subsetTarget(y, f.test);
     outerPreds.push(pred);
     outerActual.push(yTest);
-    // the baseline on the same outer split, for the paired comparison of the tuned estimate
-    const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), { constant: baselineConstantFor(head.name) }, { rng: createRng(0), seed: 0 });
-    const bTest = split.matrix('test', false);
-    const bPred: Prediction = { predicted: bModel.predict(bTest), probs: bModel.probabilities?.(bTest) };
     baselineScores.push(scoreOf(head, yTest, bPred));
     predictions.outer.push({ repeat: f.repeat, fold: f.fold, test: f.test, trainRows: f.train.length, pick: chosen.spec, tuned: pred, baseline: bPred, actual: yTest });
     outerFolds.push({
@@ -259,7 +346,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
       fold: f.fold,
       trainRows: f.train.length,
       testRows: f.test.length,
-      innerFolds: inner.plan.folds.length,
+      innerFolds: outerWork[i].innerFolds,
       pick: chosen.id,
       pickSpec: chosen.spec,
       best: candidates[p.best].id,
@@ -268,19 +355,19 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
       scores: scoresOf(metrics, yTest, pred),
       ...(pred.notes ? { notes: pred.notes } : {}),
     });
-  }
+  });
 
   // 3. the recommendation: the same search on all search rows
-  const allInner = innerPlan(problem, innerSpec, searchRows, options.stratify, deriveSeed(seed, 'inner', 'all'), 'all search rows');
-  for (const w of allInner.plan.warnings) warnings.push(`inner plan on all search rows: ${w}`);
-  const allStats = innerSearch(problem, allInner.plan, candidates, head, impute, (r, k) => deriveSeed(seed, 'fit', 'all', 'inner', r, k), work);
+  for (const w of all.innerWarnings) warnings.push(`inner plan on all search rows: ${w}`);
+  addWork(work, all.work);
+  const allStats = all.stats;
   const final = pickCandidate(candidates, allStats, rule, head.higherIsBetter);
   checkPick(final, head, 'all search rows');
   fellBack ||= final.fellBack;
   if (fellBack) warnings.push('--pick one-se: an inner plan gave fewer than two scores, so there was no standard error and the best candidate was taken');
   const rec = candidates[final.pick];
   warnings.push(...edgeWarnings(rec, candidates, 'the recommended'));
-  const undefinedFor = allStats.filter((s) => s.mean === null).length;
+  const undefinedFor = allStats.filter((st) => st.mean === null).length;
   if (undefinedFor > 0) warnings.push(`${head.name} is undefined in every inner fold for ${undefinedFor} of ${candidates.length} candidates; they were never picked`);
 
   // 4. the holdout, scored once
@@ -354,7 +441,7 @@ export function tuneWithPredictions(table: Table, options: TuneOptions): { repor
     data: dataSection(problem),
     plan: {
       outer: { kind: outerSpec.kind, text: formatPlan(outerSpec), folds: outer.plan.foldsPerRepeat, repeats: outer.plan.repeats, stratified: outer.stratified },
-      inner: { kind: innerSpec.kind, text: formatPlan(innerSpec), folds: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified },
+      inner: { kind: innerSpec.kind, text: formatPlan(innerSpec), folds: all.foldsPerRepeat, repeats: all.repeats, stratified: all.stratified },
       ...(problem.groupName !== undefined ? { group: problem.groupName } : {}),
       ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
       seed,
