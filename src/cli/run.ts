@@ -227,7 +227,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .showSuggestionAfterError(true);
 
   addCommandOptions(addDataOptions(prog.command('eval').description('cross-validate learners on a CSV and report per-fold scores with summaries')))
-    .option('--plan <plan>', 'resampling plan: kfold:K, kfold:KxR, loo, resplit:N@F, holdout:A/B/C, forward:K', DEFAULT_PLAN)
+    .option('--plan <plan>', 'resampling plan: kfold:K, kfold:KxR, loo, resplit:N@F, holdout:A/B/C, holdout:A/B, forward:K', DEFAULT_PLAN)
     .option('--no-stratify', 'do not stratify classification plans by class')
     .option('--learner <spec>', 'learner NAME or NAME:key=value,... (repeatable; see foldwise learners)', collect)
     .option('--no-baseline', 'do not evaluate the baseline beside the learners')

@@ -1,5 +1,5 @@
 /** `foldwise split`: argv flags to splitTable, then the files written atomically. */
-import { mkdirSync, readFileSync } from 'node:fs';
+import { mkdirSync, readdirSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Readable } from 'node:stream';
 import { loadCsv } from '../data/load-csv.js';
@@ -7,9 +7,12 @@ import { DATA_FORMATS, loadTable, sniffFormat, type DataFormat } from '../data/l
 import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
-import { splitTable } from '../run/split.js';
+import { leftoverParts, splitTable } from '../run/split.js';
 import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, problemOptionsOf } from './data-options.js';
 import type { Io } from './io.js';
+
+/** Leftover part files named in the warning; more are counted. */
+const LEFTOVERS_SHOWN = 10;
 
 interface SplitFlags extends DataFlags {
   plan: string;
@@ -69,6 +72,14 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     }
   }
   writeFilesAtomic(writes);
-  if (flags.out) io.stderr.write(`foldwise: wrote ${result.files.size} part files for ${result.planText} to ${flags.out}\n`);
+  if (flags.out) {
+    io.stderr.write(`foldwise: wrote ${result.files.size} part files for ${result.planText} to ${flags.out}\n`);
+    // part files of an earlier split into the same folder are left alone (never deleted), but named
+    const left = leftoverParts(readdirSync(flags.out), result.files.keys());
+    if (left.length) {
+      const shown = left.slice(0, LEFTOVERS_SHOWN).join(', ') + (left.length > LEFTOVERS_SHOWN ? ` and ${left.length - LEFTOVERS_SHOWN} more` : '');
+      io.stderr.write(`foldwise: warning: --out ${flags.out} also holds ${left.length} part ${left.length === 1 ? 'file' : 'files'} this split did not write, from an earlier split: ${shown}; remove ${left.length === 1 ? 'it' : 'them'}, or split into an empty folder\n`);
+    }
+  }
   return EXIT_OK;
 }

@@ -8,6 +8,8 @@
  *   resplit:N@F      N random splits, each testing on a fraction F of the rows (0 < F < 1)
  *   holdout:A/B/C    one split: train share A > 0, validation share B > 0, holdout share C >= 0,
  *                    A + B + C = 1 within 1e-9
+ *   holdout:A/B      the same as holdout:A/B/0: train A, test (validation) B, no holdout part;
+ *                    A + B = 1 within 1e-9 (two parts read as train/test)
  *   forward:K        K time-ordered folds over K + 1 blocks (K >= 1)
  *
  * Counts are plain decimal digits; fractions are decimal numbers (an exponent is allowed, as
@@ -78,8 +80,9 @@ export function parsePlan(text: string): PlanSpec {
     case 'holdout': {
       if (rest === undefined) throw bad();
       const parts = rest.split('/');
-      if (parts.length !== 3) throw bad();
-      spec = { kind: 'holdout', train: fraction(parts[0]), validation: fraction(parts[1]), holdout: fraction(parts[2]) };
+      if (parts.length !== 2 && parts.length !== 3) throw bad();
+      // two parts are train/test: the validation part is the one eval scores, and nothing is held out
+      spec = { kind: 'holdout', train: fraction(parts[0]), validation: fraction(parts[1]), holdout: parts.length === 2 ? 0 : fraction(parts[2]) };
       break;
     }
     case 'forward':

@@ -22,7 +22,7 @@ export const PLAN_FORMS: ReadonlyMap<PlanKind, string> = new Map<PlanKind, strin
   ['kfold', 'kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1'],
   ['loo', 'loo with nothing after it'],
   ['resplit', 'resplit:N@F with a whole number N >= 1 and a fraction 0 < F < 1'],
-  ['holdout', 'holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1'],
+  ['holdout', 'holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1 (or holdout:A/B, the same as holdout:A/B/0)'],
   ['forward', 'forward:K with a whole number K >= 1'],
 ]);
 

@@ -42,6 +42,19 @@ export interface SplitResult {
 
 const pad = (n: number): string => String(n).padStart(2, '0');
 
+/** Every name `splitTable` can give a part file, in any of its formats (the naming rules above). */
+const PART_NAME = /^(?:train|validation|holdout|(?:r[0-9]+-)?fold-[0-9]+|split-[0-9]+-(?:train|test))\.(?:csv|parquet|arrow)$/;
+
+/**
+ * The names in `existing` (a folder's entries) that look like part files of some split but are
+ * not among `written`: the leftovers of an earlier split into the same folder (another plan,
+ * more folds, another format), sorted.
+ */
+export function leftoverParts(existing: readonly string[], written: Iterable<string>): string[] {
+  const ours = new Set(written);
+  return existing.filter((n) => PART_NAME.test(n) && !ours.has(n)).sort();
+}
+
 /**
  * Computes the part files and assignment of a plan over `table`. A CSV part holds the rows'
  * original text when `text` (the CSV's) is given, else the typed columns written as CSV (a

@@ -122,6 +122,25 @@ describe('foldwise eval on the Palmer penguins file (vega-datasets; Gorman, Will
     expect(fin.learners[1].final!.trainRows + fin.plan.holdoutRows!).toBe(344);
   });
 
+  it('holdout:A/B is train/test: byte for byte the report of holdout:A/B/0 (issue 25, item 19)', async () => {
+    const run = async (plan: string) => cli(['eval', penguins, '--target', 'Species', ...FEATURES, '--learner', 'knn', '--plan', plan, '--json', '-', '--markdown', join(tmp.dir, `${plan.replace(/[:/]/g, '-')}.md`), '--no-timing']);
+    const two = await run('holdout:0.8/0.2');
+    const three = await run('holdout:0.8/0.2/0');
+    expect(two.stderr).toBe(three.stderr);
+    expect(two.code).toBe(0);
+    expect(three.code).toBe(0);
+    expect(two.stdout).toBe(three.stdout);
+    expect(readFileSync(join(tmp.dir, 'holdout-0.8-0.2.md'), 'utf8')).toBe(readFileSync(join(tmp.dir, 'holdout-0.8-0.2-0.md'), 'utf8'));
+    const report = JSON.parse(two.stdout) as Report;
+    expectValid(report);
+    expect(report.plan.text).toBe('holdout:0.8/0.2/0');
+    // 344 rows: 20% scored (rounded per stratum), no holdout part
+    expect(report.learners[1].folds.length).toBe(1);
+    expect(report.plan.holdoutRows ?? 0).toBe(0);
+    expect(report.learners[1].folds[0].trainRows + report.learners[1].folds[0].testRows).toBe(344);
+    expect(Math.abs(report.learners[1].folds[0].testRows - 0.2 * 344)).toBeLessThan(3);
+  });
+
   it('groups and forward plans run end to end', async () => {
     const g = await cli(['eval', penguins, '--target', 'Species', '--drop', 'Sex', '--group', 'Island', '--plan', 'kfold:3', '--learner', 'knn', '--json', '-', '--no-timing']);
     expect(g.code).toBe(0);

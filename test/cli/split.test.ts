@@ -49,4 +49,41 @@ describe('foldwise split', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/give --out DIR/);
   });
+
+  it('names the part files of an earlier split left in the folder, in one warning line, and keeps them (issue 25, item 19)', async () => {
+    const out = join(tmp.dir, 'again');
+    const split = (plan: string, ...more: string[]) => cli(['split', data, '--target', 'y', '--plan', plan, '--out', out, ...more]);
+    const first = await split('kfold:5');
+    expect(first.code).toBe(0);
+    expect(first.stderr).not.toMatch(/warning/);
+    tmp.file('again/notes.txt', 'not a part file');
+    // the same plan again: every part is rewritten, nothing is left over
+    const same = await split('kfold:5');
+    expect(same.stderr).toBe(`foldwise: wrote 5 part files for kfold:5 to ${out}\n`);
+    // fewer folds: fold-04 and fold-05 stay from the first split
+    const fewer = await split('kfold:3');
+    expect(fewer.code).toBe(0);
+    const lines = fewer.stderr.split('\n').filter(Boolean);
+    expect(lines).toEqual([
+      `foldwise: wrote 3 part files for kfold:3 to ${out}`,
+      `foldwise: warning: --out ${out} also holds 2 part files this split did not write, from an earlier split: fold-04.csv, fold-05.csv; remove them, or split into an empty folder`,
+    ]);
+    expect(readdirSync(out).sort()).toEqual(['fold-01.csv', 'fold-02.csv', 'fold-03.csv', 'fold-04.csv', 'fold-05.csv', 'notes.txt']);
+    // other names: a holdout split beside the five fold files, and a format change
+    const other = await split('holdout:0.5/0.5', '--format', 'arrow');
+    expect(other.stderr.split('\n').filter(Boolean)[1]).toBe(
+      `foldwise: warning: --out ${out} also holds 5 part files this split did not write, from an earlier split: fold-01.csv, fold-02.csv, fold-03.csv, fold-04.csv, fold-05.csv; remove them, or split into an empty folder`,
+    );
+    const csvAgain = await split('holdout:0.5/0.5');
+    expect(csvAgain.stderr).toMatch(/holds 7 part files this split did not write, from an earlier split: fold-01\.csv, .*, fold-05\.csv, train\.arrow, validation\.arrow; remove them/);
+  });
+
+  it('counts leftovers beyond the first ten instead of naming them', async () => {
+    const out = join(tmp.dir, 'many');
+    expect((await cli(['split', data, '--target', 'y', '--plan', 'kfold:4x3', '--out', out])).code).toBe(0);
+    const r = await cli(['split', data, '--target', 'y', '--plan', 'kfold:4', '--out', out]);
+    expect(r.stderr).toContain(': r1-fold-01.csv, r1-fold-02.csv, r1-fold-03.csv, r1-fold-04.csv, r2-fold-01.csv, r2-fold-02.csv, r2-fold-03.csv, r2-fold-04.csv, r3-fold-01.csv, r3-fold-02.csv and 2 more; remove them');
+    expect(r.stderr).toContain('also holds 12 part files');
+    expect(r.stderr.split('\n').filter(Boolean).length).toBe(2);
+  });
 });

@@ -19,6 +19,9 @@ describe('parsePlan', () => {
     expect(parsePlan('resplit:1@.5')).toEqual({ kind: 'resplit', splits: 1, testFraction: 0.5 });
     expect(parsePlan('holdout:0.6/0.2/0.2')).toEqual({ kind: 'holdout', train: 0.6, validation: 0.2, holdout: 0.2 });
     expect(parsePlan('holdout:0.7/0.3/0')).toEqual({ kind: 'holdout', train: 0.7, validation: 0.3, holdout: 0 });
+    // issue 25 item 19: two parts are train/test, the same spec as A/B/0
+    expect(parsePlan('holdout:0.8/0.2')).toEqual({ kind: 'holdout', train: 0.8, validation: 0.2, holdout: 0 });
+    expect(parsePlan('holdout:0.8/0.2')).toEqual(parsePlan('holdout:0.8/0.2/0'));
     expect(parsePlan('forward:5')).toEqual({ kind: 'forward', k: 5 });
     expect(parsePlan('forward:1')).toEqual({ kind: 'forward', k: 1 });
     expect(parsePlan('  kfold:3  ')).toEqual({ kind: 'kfold', k: 3, repeats: 1 });
@@ -30,6 +33,7 @@ describe('parsePlan', () => {
     expect(formatPlan(parsePlan('kfold:5x3'))).toBe('kfold:5x3');
     expect(formatPlan(parsePlan('resplit:20@.250'))).toBe('resplit:20@0.25');
     expect(formatPlan(parsePlan('holdout:0.6/0.2/0.20'))).toBe('holdout:0.6/0.2/0.2');
+    expect(formatPlan(parsePlan('holdout:0.8/0.2'))).toBe('holdout:0.8/0.2/0');
     expect(formatPlan(parsePlan('loo'))).toBe('loo');
     expect(formatPlan(parsePlan('forward:4'))).toBe('forward:4');
   });
@@ -63,7 +67,7 @@ describe('parsePlan', () => {
 
   const KFOLD = 'expected kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1';
   const RESPLIT = 'expected resplit:N@F with a whole number N >= 1 and a fraction 0 < F < 1';
-  const HOLDOUT = 'expected holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1';
+  const HOLDOUT = 'expected holdout:A/B/C with fractions A > 0, B > 0, C >= 0 that sum to 1 (or holdout:A/B, the same as holdout:A/B/0)';
   const FORWARD = 'expected forward:K with a whole number K >= 1';
   const cases: [string, string][] = [
     ['kfold:x', `--plan "kfold:x": ${KFOLD}`],
@@ -83,7 +87,10 @@ describe('parsePlan', () => {
     ['resplit:5@1', `--plan "resplit:5@1": ${RESPLIT}`],
     ['resplit:5@-0.2', `--plan "resplit:5@-0.2": ${RESPLIT}`],
     ['resplit:5@20%', `--plan "resplit:5@20%": ${RESPLIT}`],
-    ['holdout:0.5/0.5', `--plan "holdout:0.5/0.5": ${HOLDOUT}`],
+    ['holdout:0.5/0.4', `--plan "holdout:0.5/0.4": ${HOLDOUT}`],
+    ['holdout:0.5', `--plan "holdout:0.5": ${HOLDOUT}`],
+    ['holdout:1/0', `--plan "holdout:1/0": ${HOLDOUT}`],
+    ['holdout:0.5/0.5/0/0', `--plan "holdout:0.5/0.5/0/0": ${HOLDOUT}`],
     ['holdout:0.5/0.3/0.3', `--plan "holdout:0.5/0.3/0.3": ${HOLDOUT}`],
     ['holdout:0/0.5/0.5', `--plan "holdout:0/0.5/0.5": ${HOLDOUT}`],
     ['holdout:0.5/0/0.5', `--plan "holdout:0.5/0/0.5": ${HOLDOUT}`],
