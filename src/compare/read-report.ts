@@ -14,6 +14,7 @@ import { fileURLToPath } from 'node:url';
 import { InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
 import type { Report } from '../model/report.js';
+import { checkScoreRanges } from './score-ranges.js';
 import { REPORT_SCHEMA } from '../version.js';
 
 export interface LoadedReport {
@@ -78,5 +79,6 @@ export function readReport(path: string, label: string): LoadedReport {
     const at = err?.instancePath || '/';
     throw new InputError(`${where}: not a valid ${REPORT_SCHEMA} report (at ${oneLine(at, 60)}: ${oneLine(err?.message ?? 'invalid', 80)})`);
   }
+  checkScoreRanges(where, value as Report);
   return { path, text, report: value as Report };
 }

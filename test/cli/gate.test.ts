@@ -300,3 +300,28 @@ describe('foldwise gate: GITHUB_STEP_SUMMARY and --accept', () => {
     expect(existsSync(baseline)).toBe(true);
   });
 });
+
+describe('gate refuses scores a metric cannot take (issue 26)', () => {
+  // Ranges of the metrics by their definitions: accuracy is a share of rows, in [0, 1];
+  // log loss is a mean of -ln p, never below 0 (a plain fact of the formulas, not a table).
+  it('refuses a hand-edited fold score of 5 for accuracy, or -1 for log-loss, naming report, learner and fold, exit 2', async () => {
+    const { good } = await reports();
+    const original = JSON.parse(readFileSync(good, 'utf8')) as Report;
+    const edit = (metric: string, value: number): string => {
+      const r = structuredClone(original) as unknown as { learners: { folds: { scores: Record<string, number | null> }[] }[] };
+      r.learners[0].folds[2].scores[metric] = value;
+      return tmp.file(`edited-${metric}.json`, JSON.stringify(r));
+    };
+    const high = edit('accuracy', 5);
+    const r = await gate(good, high);
+    expect(r.code).toBe(2);
+    expect(r.stdout).toBe('');
+    expect(r.stderr).toContain(`--current ${high}: baseline fold r1.f3 has accuracy = 5, outside the range [0, 1]`);
+    const low = edit('log-loss', -1);
+    const r2 = await gate(low, good);
+    expect(r2.code).toBe(2);
+    expect(r2.stderr).toContain(`${low}: baseline fold r1.f3 has log-loss = -1, outside the range [0, `);
+    // the untouched report still passes against itself
+    expect((await gate(good, good)).code).toBe(0);
+  });
+});
