@@ -20,12 +20,15 @@
  */
 import type { Table } from '../data/types.js';
 import { dataSection } from '../data/problem.js';
-import { UsageError } from '../errors.js';
-import { applyPrep, fitPrep } from '../prep/fold-prep.js';
-import { prepareRun, type EvaluateOptions } from '../run/prepare.js';
+import { FoldwiseError, InputError, UsageError } from '../errors.js';
+import { CommandFoldError } from '../learners/command/errors.js';
+import { getMetric } from '../metrics/index.js';
+import type { Metric } from '../metrics/types.js';
+import { foldLabel } from '../model/fold-label.js';
+import { prepareRun, type EvaluateOptions, type Prepared } from '../run/prepare.js';
 import { createRng, deriveSeed } from '../rng.js';
-import { scoreOf } from '../metrics/scoring.js';
-import { subsetTarget } from '../run/tasks.js';
+import { scoreOf, type Prediction } from '../metrics/scoring.js';
+import { moduleFoldError, SplitData, subsetTarget, type Candidate, type TaskSpec } from '../run/tasks.js';
 import { summarize, type Summary, type SummaryRules } from '../stats/index.js';
 import { VERSION } from '../version.js';
 import { C_GRID, doublingGain, fitPowerLaw, type PowerLawFit } from './power-law.js';
@@ -113,45 +116,167 @@ function quantile(sorted: readonly number[], p: number): number {
   return sorted[lo] + (h - lo) * ((sorted[Math.ceil(h)] ?? sorted[lo]) - sorted[lo]);
 }
 
-export function growth(table: Table, options: GrowthOptions): GrowthReport {
+/** What assembling the report needs besides the task results: everything known before fitting (shard parts carry it). */
+export interface GrowthFrame {
+  readonly data: ReturnType<typeof dataSection>;
+  readonly plan: GrowthReport['plan'];
+  readonly metric: string;
+  readonly sizes: readonly number[];
+  readonly learners: readonly { readonly name: string; readonly spec: string }[];
+  /** the plan's folds, in order */
+  readonly folds: readonly { readonly repeat: number; readonly fold: number }[];
+  /** the mean number of test rows of a fold (the corrected interval's test size) */
+  readonly testMean: number;
+  readonly warnings: readonly string[];
+}
+
+/** One task of growth: one learner fitted on one size's subset of one fold's training rows. */
+export interface GrowthTaskSpec extends TaskSpec {
+  readonly sizeIndex: number;
+}
+
+/** A growth task's outcome: the rows it trained on and its two scores (no predictions: growth keeps scores only). */
+export interface GrowthResult {
+  /** {fold}@{size}:{spec}, such as r1.f3@0.1:knn:k=15 */
+  readonly id: string;
+  readonly rows: number;
+  readonly test: number | null;
+  /** null for a command: learner (its program predicts the test rows only) */
+  readonly train: number | null;
+  /** why the task failed (a command: learner's fold under --on-fold-error skip) */
+  readonly failed?: string;
+}
+
+/** A growth run prepared: the runner's preparation, the sizes, the task list and the report frame. */
+export interface GrowthPrepared {
+  readonly prepared: Prepared;
+  readonly sizes: readonly number[];
+  readonly tasks: readonly GrowthTaskSpec[];
+  readonly frame: GrowthFrame;
+}
+
+/** A command: learner's model holds its test rows' predictions only, so it has no training score. */
+const testOnly = (c: Candidate): boolean => c.learner.name.startsWith('command:');
+
+/** Validates the options and lists the tasks, fold by fold, size by size, learner by learner; fits nothing. */
+export function prepareGrowth(table: Table, options: GrowthOptions): GrowthPrepared {
   const sizes = checkSizes(options.sizes ?? DEFAULT_SIZES);
   const prepared = prepareRun(table, options);
   const { problem, plan, candidates, seed } = prepared;
   if (plan.folds.length < 2) throw new UsageError(`--plan ${prepared.planText}: growth needs a plan with at least 2 folds, for the intervals`);
   const metric = prepared.metrics[0];
-  const sign = metric.higherIsBetter ? 1 : -1;
   const warnings: string[] = [...prepared.warnings];
-  const y = problem.target;
-  // per learner, per size, per fold
-  const scores = candidates.map(() => sizes.map(() => [] as GrowthFold[]));
   let testMean = 0;
-  plan.folds.forEach((f) => {
+  const tasks: GrowthTaskSpec[] = [];
+  plan.folds.forEach((f, fi) => {
     testMean += f.test.length / plan.folds.length;
-    const order = nestedOrder(f.train, y, createRng(deriveSeed(seed, 'growth', f.repeat, f.fold)));
-    const rowsAt = sizesInRows(sizes, order.length);
-    const actualTest = subsetTarget(y, f.test);
+    const rowsAt = sizesInRows(sizes, f.train.length);
     rowsAt.forEach((rows, si) => {
-      const sub = order.slice(0, rows).sort();
-      const prep = fitPrep(problem, sub, prepared.impute);
-      const actualTrain = subsetTarget(y, sub);
-      const matrices = new Map<boolean, { train: ReturnType<typeof applyPrep>; test: ReturnType<typeof applyPrep> }>();
-      candidates.forEach((c, ci) => {
-        let m = matrices.get(c.learner.needsScaling);
-        if (!m) matrices.set(c.learner.needsScaling, (m = { train: applyPrep(problem, prep, sub, c.learner.needsScaling), test: applyPrep(problem, prep, f.test, c.learner.needsScaling) }));
-        const fitSeed = deriveSeed(seed, 'growth-fit', c.spec, sizes[si], f.repeat, f.fold);
-        const model = c.learner.fit(m.train, actualTrain, c.params, { rng: createRng(fitSeed), seed: fitSeed });
-        const predict = (X: typeof m.train) => {
-          const predicted = model.predict(X);
-          const proba = metric.needsProba ? model.probabilities?.(X) : undefined;
-          return proba ? { predicted, proba } : { predicted };
-        };
-        scores[ci][si].push({ repeat: f.repeat, fold: f.fold, rows, test: scoreOf(metric, actualTest, predict(m.test)), train: scoreOf(metric, actualTrain, predict(m.train)) });
-      });
+      candidates.forEach((c, ci) => tasks.push({ id: growthTaskId(f, sizes[si], c.spec), foldIndex: fi, candidateIndex: ci, sizeIndex: si, cost: rows }));
     });
   });
   const tooSmall = sizesInRows(sizes, Math.min(...plan.folds.map((f) => f.train.length))).filter((r, i, a) => i > 0 && r === a[i - 1]).length;
   if (tooSmall) warnings.push(`${tooSmall} size${tooSmall === 1 ? '' : 's'} give the same number of rows as the size before on some fold; give sizes further apart`);
+  for (const c of candidates.filter(testOnly)) warnings.push(`${c.spec}: no training scores (its program predicts the test rows only), so its curve has no training line`);
+  const frame: GrowthFrame = {
+    data: dataSection(problem),
+    plan: { text: prepared.planText, folds: plan.foldsPerRepeat, repeats: plan.repeats, stratified: prepared.stratified, seed },
+    metric: metric.name,
+    sizes,
+    learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec })),
+    folds: plan.folds.map((f) => ({ repeat: f.repeat, fold: f.fold })),
+    testMean,
+    warnings,
+  };
+  return { prepared, sizes, tasks, frame };
+}
 
+export function growthTaskId(f: { readonly repeat: number; readonly fold: number }, size: number, spec: string): string {
+  return `${foldLabel(f)}@${size}:${spec}`;
+}
+
+/**
+ * Runs growth tasks in the given order: a fold's nested order is drawn once, and a subset's
+ * preprocessing is fitted once for consecutive tasks of the same fold and size. Each task's
+ * outcome depends on its fold, size and learner only (seeds from deriveSeed), so any grouping,
+ * thread or shard gives the same results.
+ */
+export function runGrowthTasks(g: GrowthPrepared, tasks: readonly TaskSpec[], done?: (r: GrowthResult) => void, stopRequested?: () => boolean): GrowthResult[] {
+  const { problem, plan, candidates, seed } = g.prepared;
+  const metric = g.prepared.metrics[0];
+  const y = problem.target;
+  const out: GrowthResult[] = [];
+  const orders = new Map<number, Int32Array>();
+  let split: SplitData | undefined;
+  let splitOf = '';
+  for (const spec of tasks) {
+    if (stopRequested?.()) break;
+    const t = spec as GrowthTaskSpec;
+    const f = plan.folds[t.foldIndex];
+    let order = orders.get(t.foldIndex);
+    if (!order) orders.set(t.foldIndex, (order = nestedOrder(f.train, y, createRng(deriveSeed(seed, 'growth', f.repeat, f.fold)))));
+    const rows = sizesInRows(g.sizes, order.length)[t.sizeIndex];
+    if (splitOf !== `${t.foldIndex}:${t.sizeIndex}`) {
+      split = new SplitData(problem, order.slice(0, rows).sort(), f.test, g.prepared.impute);
+      splitOf = `${t.foldIndex}:${t.sizeIndex}`;
+    }
+    const r = runGrowthTask(g, t, split!, rows, metric);
+    out.push(r);
+    done?.(r);
+  }
+  return out;
+
+  function runGrowthTask(g: GrowthPrepared, t: GrowthTaskSpec, split: SplitData, rows: number, metric: Metric): GrowthResult {
+    const c = candidates[t.candidateIndex];
+    const f = plan.folds[t.foldIndex];
+    const size = g.sizes[t.sizeIndex];
+    const scale = c.learner.needsScaling;
+    const Xtrain = split.matrix('train', scale);
+    const Xtest = split.matrix('test', scale);
+    const actualTrain = subsetTarget(y, split.train);
+    const fitSeed = deriveSeed(seed, 'growth-fit', c.spec, size, f.repeat, f.fold);
+    const fold = split.view(`${foldLabel(f)}@${size}`, scale);
+    try {
+      const model = c.learner.fit(Xtrain, actualTrain, c.params, { rng: createRng(fitSeed), seed: fitSeed, fold });
+      const predict = (X: typeof Xtrain): Prediction => {
+        const predicted = model.predict(X);
+        const probs = metric.needsProba ? model.probabilities?.(X) : undefined;
+        return probs ? { predicted, probs } : { predicted };
+      };
+      const test = scoreOf(metric, subsetTarget(y, split.test), predict(Xtest));
+      const train = testOnly(c) ? null : scoreOf(metric, actualTrain, predict(Xtrain));
+      return { id: t.id, rows, test, train };
+    } catch (caught) {
+      const e = c.learner.name.startsWith('module:') && !(caught instanceof FoldwiseError) ? moduleFoldError(c.learner.name, fold.label, caught) : caught;
+      if (!(e instanceof CommandFoldError) || g.prepared.onFoldError !== 'skip') throw e;
+      return { id: t.id, rows, test: null, train: null, failed: e.message };
+    }
+  }
+}
+
+/** The report from the frame and every task's result in the run's order (the same from every way of running). */
+export function assembleGrowth(frame: GrowthFrame, results: readonly GrowthResult[]): GrowthReport {
+  const { sizes, seed } = { sizes: frame.sizes, seed: frame.plan.seed };
+  const metric = getMetric(frame.metric);
+  const sign = metric.higherIsBetter ? 1 : -1;
+  const warnings: string[] = [...frame.warnings];
+  const testMean = frame.testMean;
+  const F = frame.folds.length;
+  const L = frame.learners.length;
+  const S = sizes.length;
+  if (results.length !== F * S * L) throw new InputError(`growth: ${results.length} task results for ${F * S * L} tasks`);
+  // results come fold by fold, size by size, learner by learner
+  const scores = frame.learners.map(() => sizes.map(() => [] as GrowthFold[]));
+  results.forEach((r, k) => {
+    const ci = k % L;
+    const si = Math.floor(k / L) % S;
+    const fo = frame.folds[Math.floor(k / (L * S))];
+    scores[ci][si].push({ repeat: fo.repeat, fold: fo.fold, rows: r.rows, test: r.test, train: r.train });
+  });
+  const failed = results.filter((r) => r.failed);
+  if (failed.length) warnings.push(`${failed.length} task${failed.length === 1 ? '' : 's'} failed and ${failed.length === 1 ? 'is' : 'are'} left out of the curves: ${failed.slice(0, 3).map((r) => r.failed).join('; ')}${failed.length > 3 ? '; ...' : ''}`);
+  const candidates = frame.learners;
+  const plan = { folds: frame.folds };
   const learners: GrowthLearner[] = candidates.map((c, ci) => {
     const points: GrowthPoint[] = sizes.map((size, si) => {
       const folds = scores[ci][si];
@@ -195,7 +320,7 @@ export function growth(table: Table, options: GrowthOptions): GrowthReport {
       warnings.push(`${c.spec}: the fitted exponent c = ${fit.c} is at the edge of the searched range (${C_GRID[0]} to ${C_GRID[C_GRID.length - 1]}), so the curve's shape is not pinned down; read its doubling gain and interval as rough`);
     }
     return {
-      name: c.learner.name,
+      name: c.name,
       spec: c.spec,
       points,
       fit: fit ? { ...fit, a: sign * fit.a, b: sign * fit.b, method: 'profile least squares over c = 0.02..3 step 0.02, a and b by ordinary least squares on the mean test scores' } : null,
@@ -207,12 +332,18 @@ export function growth(table: Table, options: GrowthOptions): GrowthReport {
     schema: GROWTH_SCHEMA,
     tool: { name: 'foldwise', version: VERSION },
     command: 'growth',
-    data: dataSection(problem),
-    plan: { text: prepared.planText, folds: plan.foldsPerRepeat, repeats: plan.repeats, stratified: prepared.stratified, seed },
+    data: frame.data,
+    plan: frame.plan,
     metric: metric.name,
     higherIsBetter: metric.higherIsBetter,
     sizes,
     learners,
     warnings,
   };
+}
+
+/** The whole growth run in this thread (the CLI runs it through executeGrowth, for --jobs, shards and journals). */
+export function growth(table: Table, options: GrowthOptions): GrowthReport {
+  const g = prepareGrowth(table, options);
+  return assembleGrowth(g.frame, runGrowthTasks(g, g.tasks));
 }

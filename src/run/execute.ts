@@ -11,13 +11,13 @@ import { loadExternalLearners, type CommandSetup } from '../learners/index.js';
 import type { Report } from '../model/report.js';
 import { assembleReport, frameOf, recordsOf, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { checkKeep, keptText } from './predictions-out.js';
-import { identityOf, withReadSettings, type ReadSettings } from './identity.js';
-import { openJournal } from './journal.js';
+import { identityOf, withReadSettings, type ReadSettings, type RunIdentity } from './identity.js';
+import { openJournal, type Journal, type ResultCodec } from './journal.js';
 import { makePartial, type PartialReport } from './partial.js';
 import { runPool } from './pool.js';
 import { prepareRun, withAudit, type EvaluateOptions } from './prepare.js';
 import { shardTasks, type ShardSpec } from './shard.js';
-import { runTasks, taskList, type TaskResult } from './tasks.js';
+import { runTasks, taskList, type TaskResult, type TaskSpec } from './tasks.js';
 
 /**
  * A run stopped on request: exit code 128 + the signal's number, as shells report a process
@@ -71,11 +71,59 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   const keep = exec.keep ?? [];
   checkKeep(table, keep, prepared.problem.task, prepared.problem.target.task === 'classification' ? prepared.problem.target.classes : []);
   const all = taskList(prepared);
-  const mine = exec.shard ? shardTasks(all, exec.shard) : all;
   const identity = identityOf(prepared, exec.read);
-  const journal = exec.journal ? openJournal(exec.journal, identity, prepared.problem.target.task === 'classification') : undefined;
+  const { mine, ordered } = await runTaskSet<TaskResult>(table, options, {
+    all,
+    identity,
+    classification: prepared.problem.target.task === 'classification',
+    runHere: (tasks, done, stop) => runTasks(prepared, tasks, done, stop),
+  }, exec);
+  const frame = withReadSettings(frameOf(prepared), exec.read);
+  const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
+  if (exec.shard) {
+    const records = withKeep(recordsOf(prepared, ordered, new Set(mine.map((t) => t.id))));
+    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, options.timing !== false, keep) };
+  }
+  const totalMs = options.timing === false ? undefined : performance.now() - started;
+  const records = withKeep(recordsOf(prepared, ordered));
+  return { kind: 'report', report: assembleReport(frame, records, totalMs), frame, records };
+}
+
+/** A run's tasks and how to run them, for `runTaskSet`. */
+export interface TaskSet<R extends { readonly id: string; readonly failed?: string }> {
+  /** every task of the whole run, in the order a single run performs them */
+  readonly all: readonly TaskSpec[];
+  readonly identity: RunIdentity;
+  readonly classification: boolean;
+  /** runs tasks in this thread in the given order, calling `done` after each */
+  runHere(tasks: readonly TaskSpec[], done: (r: R) => void, stopRequested?: () => boolean): void;
+  /** journal lines of the results (default: eval's task results) */
+  readonly codec?: ResultCodec<R>;
+  /** the worker module for --jobs (default: the runner's, which runs eval's tasks) */
+  readonly worker?: URL;
+}
+
+/**
+ * The part of a run every command built on the runner shares: this shard's tasks (`exec.shard`),
+ * the ones the journal already holds, the rest run in this thread or on worker threads, each
+ * result journaled as it comes, with progress and stops. Returns this shard's tasks and their
+ * results in the run's order; throws InterruptedError when the run was stopped before the end.
+ */
+export async function runTaskSet<R extends { readonly id: string; readonly failed?: string }>(
+  table: Table,
+  options: EvaluateOptions,
+  set: TaskSet<R>,
+  exec: ExecOptions,
+): Promise<{ mine: TaskSpec[]; ordered: R[] }> {
+  const { all, identity } = set;
+  const mine = exec.shard ? shardTasks(all, exec.shard) : [...all];
+  const journal = exec.journal
+    ? set.codec
+      ? openJournal(exec.journal, identity, set.classification, set.codec)
+      : (openJournal(exec.journal, identity, set.classification) as unknown as Journal<R>)
+    : undefined;
   if (journal?.cutAt) exec.notice?.(`--journal ${journal.path}: from line ${journal.cutAt} on, the lines fail their checksum (a write cut short); cut off there, those tasks run again`);
-  const results = new Map<string, TaskResult>();
+  const results = new Map<string, R>();
   try {
     for (const t of mine) {
       const r = journal?.done.get(t.id);
@@ -84,7 +132,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
     const resumed = results.size;
     const todo = mine.filter((t) => !results.has(t.id));
     exec.progress?.(results.size, mine.length, resumed);
-    const done = (r: TaskResult): void => {
+    const done = (r: R): void => {
       journal?.append(r);
       results.set(r.id, r);
       exec.progress?.(results.size, mine.length, resumed);
@@ -95,7 +143,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
       `${journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : ''}${reason ? ` (${String(reason)})` : ''}`;
     if ((jobs > 1 || exec.isolate) && todo.length > 0) {
       const stopped = (reason: unknown): Error => new InterruptedError(`interrupted${where(reason)}`, reason);
-      await runPool(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands, exec.stop, stopped);
+      await runPool<R>(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands, exec.stop, stopped, set.worker);
     } else {
       // one split at a time, yielding to the event loop in between so that a SIGINT handler
       // (which only runs when the loop gets control) can ask the run to stop
@@ -103,7 +151,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
         let j = i;
         while (j < todo.length && todo[j].foldIndex === todo[i].foldIndex) j++;
         if (exec.stopRequested?.() || exec.stop?.aborted) break;
-        runTasks(prepared, todo.slice(i, j), done, exec.stopRequested);
+        set.runHere(todo.slice(i, j), done, exec.stopRequested);
         await new Promise<void>((resolve) => setImmediate(resolve));
         i = j;
       }
@@ -112,14 +160,5 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
   } finally {
     journal?.close();
   }
-  const ordered = mine.map((t) => results.get(t.id)!);
-  const frame = withReadSettings(frameOf(prepared), exec.read);
-  const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
-  if (exec.shard) {
-    const records = withKeep(recordsOf(prepared, ordered, new Set(mine.map((t) => t.id))));
-    return { kind: 'partial', partial: makePartial(identity, frame, exec.shard, all.map((t) => t.id), records, options.timing !== false, keep) };
-  }
-  const totalMs = options.timing === false ? undefined : performance.now() - started;
-  const records = withKeep(recordsOf(prepared, ordered));
-  return { kind: 'report', report: assembleReport(frame, records, totalMs), frame, records };
+  return { mine, ordered: mine.map((t) => results.get(t.id)!) };
 }

@@ -1,7 +1,8 @@
 /**
  * What makes two runs the same run: data fingerprint, how the data was read (missing tokens,
  * forced categorical columns, delimiter, the resulting column kinds), problem, plan, seed,
- * settings (imputation, --final, --on-fold-error, the quick audit), learners and metrics.
+ * settings (imputation, --final, --on-fold-error, the quick audit), learners and metrics, and for
+ * `foldwise growth` its sizes (so an eval journal or part is never taken for a growth one).
  * Journals and shard parts carry it; resuming or merging refuses a mismatch and says exactly
  * what differs. What only changes how a run is carried out (jobs, shards, timings, progress,
  * temporary folders) is left out.
@@ -57,6 +58,8 @@ export interface RunIdentity {
   readonly audit: boolean;
   /** --importance: repeats and inputs (present only with it) */
   readonly importance?: string;
+  /** `foldwise growth`: the sizes of its training subsets (present only in growth runs) */
+  readonly growth?: string;
 }
 
 export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {

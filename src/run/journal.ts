@@ -28,22 +28,40 @@ export function journalLimit(): number {
   return Math.floor(totalmem() / 4);
 }
 
-export interface Journal {
+export interface Journal<R = TaskResult> {
   readonly path: string;
   /** results already in the journal when it was opened */
-  readonly done: ReadonlyMap<string, TaskResult>;
+  readonly done: ReadonlyMap<string, R>;
   /** set when lines failing their checksum were cut off the end: the first such line */
   readonly cutAt?: number;
-  append(r: TaskResult): void;
+  append(r: R): void;
   close(): void;
 }
+
+/** A result as the JSON object of its journal line, and back (throwing InputError when it is not one). */
+export interface ResultCodec<R> {
+  toJSON(r: R): object;
+  fromJSON(j: unknown, where: string): R;
+}
+
+/** The kind of result a journal holds: eval's task results unless a command built on the runner gives its own. */
+type Journaled = { readonly id: string; readonly failed?: string };
+
+const taskCodec = (classification: boolean): ResultCodec<TaskResult> => ({
+  toJSON: resultToJSON,
+  fromJSON: (j, where) => resultFromJSON(j, classification, where),
+});
 
 const sha16 = (text: string): string => createHash('sha256').update(text).digest('hex').slice(0, 16);
 const TASK_LINE = /^(\{.*),"sha":"([0-9a-f]{16})"\}$/;
 
 /** The journal line of a result, with its checksum. */
 export function journalLine(r: TaskResult): string {
-  const payload = JSON.stringify(resultToJSON(r));
+  return lineOf(resultToJSON(r));
+}
+
+function lineOf(json: object): string {
+  const payload = JSON.stringify(json);
   return `${payload.slice(0, -1)},"sha":"${sha16(payload)}"}`;
 }
 
@@ -53,13 +71,13 @@ function writeFailure(path: string, e: unknown): InputError {
   return new InputError(`--journal ${path}: cannot be written (${code}); ${hint}`);
 }
 
-interface Read {
-  readonly done: Map<string, TaskResult>;
+interface Read<R> {
+  readonly done: Map<string, R>;
   /** byte length of the good part, and the 1-based line where a failing tail starts */
   readonly cut?: { readonly bytes: number; readonly line: number };
 }
 
-function readJournal(path: string, text: string, identity: RunIdentity, classification: boolean): Read {
+function readJournal<R extends Journaled>(path: string, text: string, identity: RunIdentity, codec: ResultCodec<R>): Read<R> {
   const lines = text.split('\n');
   let head: { journal?: string; identity?: RunIdentity };
   try {
@@ -71,7 +89,7 @@ function readJournal(path: string, text: string, identity: RunIdentity, classifi
   if (head.journal !== JOURNAL_FORMAT || !head.identity) throw new InputError(`--journal ${path}: not a foldwise journal (${JOURNAL_FORMAT})`);
   const diff = identityDiff(head.identity, identity);
   if (diff.length) throw new UsageError(`--journal ${path}: it belongs to another run, which differs in ${diff.join(', ')}; use a new journal file`);
-  const done = new Map<string, TaskResult>();
+  const done = new Map<string, R>();
   let bytes = Buffer.byteLength(lines[0]) + 1;
   let firstBad: { line: number; bytes: number } | undefined;
   for (let i = 1; i < lines.length; i++) {
@@ -79,10 +97,10 @@ function readJournal(path: string, text: string, identity: RunIdentity, classifi
     const end = bytes + Buffer.byteLength(line) + (i < lines.length - 1 ? 1 : 0);
     if (line === '' && i === lines.length - 1) break;
     const m = TASK_LINE.exec(line);
-    let r: TaskResult | undefined;
+    let r: R | undefined;
     if (m && sha16(`${m[1]}}`) === m[2]) {
       try {
-        r = resultFromJSON(JSON.parse(`${m[1]}}`), classification, `--journal ${path}: line ${i + 1}`);
+        r = codec.fromJSON(JSON.parse(`${m[1]}}`), `--journal ${path}: line ${i + 1}`);
       } catch (e) {
         if (e instanceof InputError) throw e;
         r = undefined;
@@ -103,7 +121,15 @@ function readJournal(path: string, text: string, identity: RunIdentity, classifi
   return { done, ...(firstBad ? { cut: { bytes: firstBad.bytes, line: firstBad.line } } : {}) };
 }
 
-export function openJournal(path: string, identity: RunIdentity, classification: boolean): Journal {
+/**
+ * Opens (or starts) the journal at `path` for the run `identity`. `codec` turns the results into
+ * journal lines and back: eval's task results by default (`classification` says how to read
+ * predictions), another kind for a command built on the runner (growth's scores).
+ */
+export function openJournal(path: string, identity: RunIdentity, classification: boolean): Journal;
+export function openJournal<R extends Journaled>(path: string, identity: RunIdentity, classification: boolean, codec: ResultCodec<R>): Journal<R>;
+export function openJournal<R extends Journaled>(path: string, identity: RunIdentity, classification: boolean, given?: ResultCodec<R>): Journal<R> {
+  const codec = given ?? (taskCodec(classification) as unknown as ResultCodec<R>);
   let size = -1;
   try {
     const st = statSync(path);
@@ -116,7 +142,7 @@ export function openJournal(path: string, identity: RunIdentity, classification:
   const limit = journalLimit();
   if (size > limit) throw new InputError(`--journal ${path}: has ${size} bytes, more than the ${limit} (a quarter of this machine's memory) a journal may have; use a new journal file`);
   const exists = size > 0;
-  const read: Read = exists ? readJournal(path, readFileSync(path, 'utf8'), identity, classification) : { done: new Map() };
+  const read: Read<R> = exists ? readJournal(path, readFileSync(path, 'utf8'), identity, codec) : { done: new Map() };
   let fd: number;
   try {
     fd = openSync(path, exists ? 'r+' : 'w');
@@ -158,7 +184,7 @@ export function openJournal(path: string, identity: RunIdentity, classification:
     ...(read.cut ? { cutAt: read.cut.line } : {}),
     // a failed task is not journaled: a resumed run tries it again
     append: (r) => {
-      if (!r.failed) write(`${journalLine(r)}\n`);
+      if (!r.failed) write(`${lineOf(codec.toJSON(r))}\n`);
     },
     close: () => closeSync(fd),
   };

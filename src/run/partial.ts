@@ -149,12 +149,41 @@ export function mergePartsWithRecords(
   names: readonly string[],
   timing: boolean,
 ): { report: Report; frame: ReportFrame; records: TaskRecord[]; keep: readonly string[] } {
+  const records = checkParts(parts, names);
+  const first = parts[0];
+  const keep = first.keep ?? [];
+  parts.forEach((p, i) => {
+    if (JSON.stringify(p.keep ?? []) !== JSON.stringify(keep)) {
+      throw new InputError(`merge: ${names[i]} keeps the columns ${JSON.stringify(p.keep ?? [])} and ${names[0]} ${JSON.stringify(keep)}; make every part with the same --predictions-keep`);
+    }
+  });
+  const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
+  // the parts carry the --no-timing choice of their runs; merge --no-timing also leaves it out
+  const total = timing && parts.every((p) => p.timing !== false) ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
+  return { report: assembleReport(first.frame, ordered, total), frame: first.frame, records: ordered, keep };
+}
+
+/** What every kind of part has: the run's identity, the shard, every task id of the run, and its own records. */
+export interface PartLike<Rec extends { readonly id: string }> {
+  readonly tool?: { readonly version: string };
+  readonly shard: ShardSpec;
+  readonly identity: RunIdentity;
+  readonly tasks: readonly string[];
+  readonly records: readonly Rec[];
+}
+
+/**
+ * The checks of merge for every kind of part: all parts of one run (identity and foldwise
+ * version), of one shard count, each shard once, and every task of the run exactly once.
+ * Returns the records by task id.
+ */
+export function checkParts<Rec extends { readonly id: string }>(parts: readonly PartLike<Rec>[], names: readonly string[]): Map<string, Rec> {
   if (parts.length === 0) throw new InputError('merge: give the part files to merge');
   const first = parts[0];
   parts.forEach((p, i) => {
     const diff = identityDiff(p.identity, first.identity, [names[i], names[0]]);
     // parts of another foldwise version may differ in ways the identity does not show
-    const version = (q: PartialReport): string => JSON.stringify(q.tool?.version ?? null);
+    const version = (q: PartLike<Rec>): string => JSON.stringify(q.tool?.version ?? null);
     if (version(p) !== version(first)) diff.unshift(`foldwise version (${names[i]}: ${version(p)}, ${names[0]}: ${version(first)})`);
     if (diff.length) throw new InputError(`merge: ${names[i]} belongs to another run than ${names[0]}: it differs in ${diff.join(', ')}`);
     if (p.shard.count !== first.shard.count) throw new InputError(`merge: ${names[i]} is shard ${p.shard.index}/${p.shard.count}, ${names[0]} is of ${first.shard.count}`);
@@ -170,7 +199,7 @@ export function mergePartsWithRecords(
   });
   const seen = new Map<string, string>();
   const doubled: string[] = [];
-  const records = new Map<string, RecordJSON>();
+  const records = new Map<string, Rec>();
   parts.forEach((p, i) => {
     for (const r of p.records) {
       if (seen.has(r.id)) doubled.push(`${r.id} (in ${seen.get(r.id)} and ${names[i]})`);
@@ -186,14 +215,5 @@ export function mergePartsWithRecords(
     ...(unknown.length ? [`${unknown.length} not of this run: ${unknown.slice(0, 5).join(', ')}`] : []),
   ];
   if (problems.length) throw new InputError(`merge: ${problems.join('; ')}; run or add the missing shards`);
-  const keep = first.keep ?? [];
-  parts.forEach((p, i) => {
-    if (JSON.stringify(p.keep ?? []) !== JSON.stringify(keep)) {
-      throw new InputError(`merge: ${names[i]} keeps the columns ${JSON.stringify(p.keep ?? [])} and ${names[0]} ${JSON.stringify(keep)}; make every part with the same --predictions-keep`);
-    }
-  });
-  const ordered = first.tasks.map((id) => recordFromJSON(records.get(id)!, first.frame));
-  // the parts carry the --no-timing choice of their runs; merge --no-timing also leaves it out
-  const total = timing && parts.every((p) => p.timing !== false) ? ordered.reduce((s, r) => s + r.fitMs + r.predictMs, 0) : undefined;
-  return { report: assembleReport(first.frame, ordered, total), frame: first.frame, records: ordered, keep };
+  return records;
 }

@@ -18,15 +18,13 @@ import { shareTable } from './share.js';
 import type { TaskResult, TaskSpec } from './tasks.js';
 
 /**
- * The worker script next to this module. Under the test runner this module is TypeScript
- * source; the worker then runs from the built copy in dist/ (npm test builds first).
+ * The worker script: the runner's own (worker.js next to this module) or the one a command built
+ * on the runner gives (growth's). Under the test runner the modules are TypeScript source; the
+ * worker then runs from the built copy in dist/ (npm test builds first).
  */
-function workerUrl(): URL {
-  const here = new URL('./worker.js', import.meta.url);
-  if (import.meta.url.endsWith('.ts')) {
-    return new URL(here.href.replace(/\/src\/run\/worker\.js$/, '/dist/src/run/worker.js'));
-  }
-  return here;
+function workerUrl(script: URL = new URL('./worker.js', import.meta.url)): URL {
+  if (import.meta.url.endsWith('.ts')) return new URL(script.href.replace(/\/src\/(.+)\.js$/, '/dist/src/$1.js'));
+  return script;
 }
 
 /** Groups tasks into batches by split, keeping the given order within and across batches. */
@@ -44,22 +42,24 @@ function batches(tasks: readonly TaskSpec[]): string[][] {
 /** A stop request (the abort reason, such as "SIGINT") as the error the pool rejects with. */
 export type StopError = (reason: unknown) => Error;
 
-type WorkerMessage = { result?: TaskResult; batchDone?: true; error?: string; exitCode?: number };
+type WorkerMessage<R> = { result?: R; batchDone?: true; error?: string; exitCode?: number };
 
-export async function runPool(
+export async function runPool<R = TaskResult>(
   table: Table,
   options: EvaluateOptions,
   tasks: readonly TaskSpec[],
   jobs: number,
-  done?: (r: TaskResult) => void,
+  done?: (r: R) => void,
   stopRequested?: () => boolean,
   baseDir = '/',
   commands?: CommandSetup,
   stop?: AbortSignal,
   stopError: StopError = (reason) => new FoldwiseError(`stopped (${String(reason)})`, 130),
-): Promise<TaskResult[]> {
+  /** the worker module (default: the runner's worker.js, which runs eval's tasks) */
+  script?: URL,
+): Promise<R[]> {
   const queue = batches(tasks);
-  const results: TaskResult[] = [];
+  const results: R[] = [];
   if (queue.length === 0) return results;
   const shared = shareTable(table);
   const count = Math.max(1, Math.min(jobs, queue.length));
@@ -90,10 +90,10 @@ export async function runPool(
         w.postMessage(batch);
       };
       for (let i = 0; i < count; i++) {
-        const w = new Worker(workerUrl(), { workerData: { table: shared, options, baseDir, commands } });
+        const w = new Worker(workerUrl(script), { workerData: { table: shared, options, baseDir, commands } });
         workers.push(w);
         running++;
-        w.on('message', (msg: WorkerMessage) => {
+        w.on('message', (msg: WorkerMessage<R>) => {
           if (ended) return;
           if (msg.error !== undefined) return fail(msg.exitCode === undefined ? new Error(msg.error) : new FoldwiseError(msg.error, msg.exitCode));
           if (msg.result) {

@@ -201,7 +201,7 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
 }
 
 /** The error of a module: learner's fit or predict on one fold, naming the module and the fold. */
-function moduleFoldError(learner: string, fold: string, e: unknown): CommandFoldError {
+export function moduleFoldError(learner: string, fold: string, e: unknown): CommandFoldError {
   const message = e instanceof Error ? e.message : String(e);
   return new CommandFoldError(`${learner} fold ${fold}: the learner threw: ${message.replace(/\s+/g, ' ').slice(0, 300)} (--on-fold-error skip records the fold as failed and goes on)`);
 }
