@@ -15,7 +15,9 @@ import { EXIT_OK, InputError } from '../errors.js';
 import { refuseOldFormat } from '../renamed.js';
 import { writeFileAtomic } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
-import { renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
+import { renderAuditHtml, renderEvalHtml, renderGateHtml, renderTuneHtml } from '../report/html/index.js';
+import { AUDIT_SCHEMA } from '../audit/index.js';
+import type { AuditReport } from '../audit/types.js';
 import type { TuneReport } from '../model/tune.js';
 import { TUNE_SCHEMA } from '../search/tune.js';
 import { REPORT_SCHEMA } from '../version.js';
@@ -77,8 +79,12 @@ export function renderFile(path: string): string {
     check('tune.schema.json', `${TUNE_SCHEMA} report`);
     return renderTuneHtml(value as TuneReport);
   }
+  if (schema === AUDIT_SCHEMA) {
+    check('audit.schema.json', `${AUDIT_SCHEMA} report`);
+    return renderAuditHtml(value as AuditReport);
+  }
   throw new InputError(
-    `render ${path}: not a file foldwise can render (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}; expected "${REPORT_SCHEMA}" from eval --json, "${GATE_SCHEMA}" from gate --json or "${TUNE_SCHEMA}" from tune --json)`,
+    `render ${path}: not a file foldwise can render (its "schema" field is ${oneLine(JSON.stringify(schema) ?? 'missing', 60)}; expected "${REPORT_SCHEMA}" from eval --json, "${GATE_SCHEMA}" from gate --json or "${TUNE_SCHEMA}" from tune --json or "${AUDIT_SCHEMA}" from audit --json)`,
   );
 }
 

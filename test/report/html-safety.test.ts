@@ -124,3 +124,30 @@ describe('hostile column names, class labels and option values on the tune page'
     expect(report!.candidates.length).toBe(8);
   });
 });
+
+describe('the audit page (render of an audit --json report, issue 25 item 19)', async () => {
+  const tmp = tempFolder();
+  const data = tmp.file('audit<b>&"x.csv', hostileCsv());
+  const json = join(tmp.dir, 'audit.json');
+  const html = join(tmp.dir, 'audit.html');
+  const a = await cli(['audit', data, '--target', HOSTILE_TARGET, '--group', HOSTILE_GROUP, '--plan', 'kfold:4', '--json', json]);
+  const r = await cli(['render', json, '--html', html]);
+  const page = r.code === 0 ? readFileSync(html, 'utf8') : '';
+  const report = a.code === 0 ? (JSON.parse(readFileSync(json, 'utf8')) as { schema: string; data: { features: string[] }; columns: { name: string }[] }) : undefined;
+
+  it('renders the audit report to one page, like the other reports', () => {
+    expect(a.code).toBe(0);
+    expect(report!.schema).toMatch(/^foldwise-audit\//);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    expect(page.startsWith('<!DOCTYPE html>')).toBe(true);
+    for (const h of ['Suspects', 'Each feature alone', 'Columns', 'Duplicates', 'Run details']) expect(page).toContain(`<h2>${h}</h2>`);
+  });
+
+  it('writes no executable markup, and shows every hostile column name and the file name escaped', () => {
+    expectNoExecutableMarkup(page);
+    expect(report!.columns.length).toBeGreaterThan(4);
+    for (const c of report!.columns) expect(page).toContain(esc(c.name));
+    for (const t of [HOSTILE_TARGET, HOSTILE_GROUP, 'audit<b>&"x.csv']) expect(page).toContain(esc(t));
+  });
+});

@@ -34,7 +34,7 @@ export function auditBlock(audit: ReportAudit | undefined): string {
 }
 
 /** The data fingerprint: path, SHA-256, rows and columns, target and task, features, dropped columns. */
-function dataItems(d: DataSection): string[] {
+export function dataItems(d: DataSection): string[] {
   const task = d.task === 'classification' ? `classification, ${d.classes?.length ?? 0} classes: ${(d.classes ?? []).join(', ')}` : 'regression';
   return [
     item('data', `<code>${esc(d.path)}</code>`),
