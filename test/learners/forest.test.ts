@@ -6,6 +6,7 @@
  * generating process; the published definitions (Breiman 2001; Liaw & Wiener 2002).
  */
 import { readFileSync } from 'node:fs';
+import { totalmem } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { RandomForestClassifier } from 'ml-random-forest';
@@ -389,5 +390,32 @@ describe('forest: bootstrap sample size (sample, issue 14)', () => {
     const a = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
     const b = forest.fit(X, y, { trees: 30, sample: '0.5' }, ctx(9));
     expect(Array.from(a.probabilities!(Q))).toEqual(Array.from(b.probabilities!(Q)));
+  });
+});
+
+describe('forest sizes beyond memory (issue 26)', () => {
+  // Mechanics on seeded random rows; the budget is half of os.totalmem() (src/learners/memory-budget.ts).
+  const rng = createRng(3);
+  const rows = Array.from({ length: 300 }, () => [gauss(rng), gauss(rng), gauss(rng)]);
+  const y = classes(rows.map((r) => (r[0] + 0.3 * gauss(rng) > 0 ? 1 : 0)), 2);
+  const budget = Math.floor(totalmem() * 0.5);
+
+  it('refuses before any tree when one leaf per tree would already exceed the budget', () => {
+    const trees = 1e12; // 24 bytes a node + 2 x 8 bytes a leaf = 40 bytes a tree at least: 40 TB
+    expect(() => forest.fit(matrix(rows), y, { trees }, ctx(1))).toThrow(InputError);
+    expect(() => forest.fit(matrix(rows), y, { trees }, ctx(1))).toThrow(/^forest: trees=1000000000000 would need at least 40 TB \(one leaf per tree\) for the trees alone, more than the .* one model may use/);
+  });
+
+  it('refuses after the first tree when trees of its size would exceed the budget', () => {
+    // large enough that trees of the first one's size (tens of nodes, 24 bytes each) exceed the
+    // budget, small enough that one leaf per tree does not
+    const trees = Math.ceil(budget / 40 / 2);
+    expect(trees * 40).toBeLessThan(budget);
+    expect(() => forest.fit(matrix(rows), y, { trees }, ctx(1))).toThrow(new RegExp(`^forest: trees=${trees} would need about .* \\(${trees} trees the size of the first, \\d+ nodes\\)`));
+  });
+
+  it('still fits a forest whose estimate is inside the budget', () => {
+    const m = forest.fit(matrix(rows), y, { trees: 5 }, ctx(1));
+    expect(m.predict(matrix(rows.slice(0, 3))).length).toBe(3);
   });
 });

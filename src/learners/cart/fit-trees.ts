@@ -26,6 +26,7 @@ import { classWeights } from '../class-balance.js';
 import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
 import { type Impurity, type GrowTarget, TreeGrower } from './grow.js';
 import { NodeStore } from './node-store.js';
+import { formatBytes, memoryBudget } from '../memory-budget.js';
 
 export interface CartSettings {
   readonly trees: number;
@@ -66,6 +67,13 @@ export function checkTrainingData(kind: CartKind, X: Matrix, y: Target): number 
   return 1;
 }
 
+/** Bytes of one node in the NodeStore: feature, left, right, offset (Int32) and threshold (Float64). */
+const NODE_BYTES = 4 * 4 + 8;
+
+function tooLarge(kind: CartKind, trees: number, need: string, budget: number): InputError {
+  return new InputError(`${kind}: trees=${trees} would need ${need} for the trees alone, more than the ${formatBytes(budget)} one model may use (half of this machine's memory); ask for fewer trees`);
+}
+
 export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext): FlatForestParts {
   const classCount = checkTrainingData(kind, X, y);
   const n = X.rows;
@@ -90,6 +98,12 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   const rebalance = s.rebalance ?? 'none';
   const cw = classWeights(kind, rebalance, y.task === 'classification' ? y.codes : null, classCount);
   const draws = s.bootstrap ? resolveSampleSize(s.sample ?? '1', n) : n;
+  // memory: every tree holds at least its root leaf; after the first tree the forest's arrays are
+  // sized from it (NodeStore.expect), so both estimates are checked before that memory is taken
+  const budget = memoryBudget();
+  const leafBytes = classCount * 8;
+  const atLeast = s.trees * (NODE_BYTES + leafBytes);
+  if (atLeast > budget) throw tooLarge(kind, s.trees, `at least ${formatBytes(atLeast)} (one leaf per tree)`, budget);
   const store = new NodeStore(p);
   const weights = new Float64Array(n);
   const rows = new Int32Array(n);
@@ -108,7 +122,11 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     }
     if (cw && y.task === 'classification') for (let k = 0; k < m; k++) weights[rows[k]] *= cw[y.codes[rows[k]]];
     grower.grow(rows.subarray(0, m), weights, rng, store);
-    if (t === 0 && s.trees > 1) store.expect(s.trees - 1);
+    if (t === 0 && s.trees > 1) {
+      const estimate = s.trees * (store.count * NODE_BYTES + store.valueCount * 8);
+      if (estimate > budget) throw tooLarge(kind, s.trees, `about ${formatBytes(estimate)} (${s.trees} trees the size of the first, ${store.count} nodes)`, budget);
+      store.expect(s.trees - 1);
+    }
   }
 
   const settings = new Map<string, number | string>([
