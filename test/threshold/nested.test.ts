@@ -100,3 +100,15 @@ describe('eval --threshold', () => {
     expect(mean(peeked) - mean(nested)).toBeGreaterThan(0.1);
   });
 });
+
+describe('eval --threshold report', () => {
+  it('validates against the report schema and carries one threshold per outer fold', async () => {
+    // invented noise data (mechanics of the report only)
+    const { schemaCheck } = await import('../helpers/schema.js');
+    const table = await loadCsv({ text: noSignalCsv(200, 5), name: 'noise.csv' });
+    const report = evaluate(table, { target: 'label', learners: ['logistic'], plan: 'kfold:5', threshold: 'youden', seed: 3, timing: false, audit: false });
+    schemaCheck('report.schema.json')(JSON.parse(JSON.stringify(report)));
+    expect(report.threshold?.rule).toBe('youden');
+    expect(report.learners[1].threshold?.folds.length).toBe(5);
+  });
+});
