@@ -35,4 +35,6 @@ export interface TaskRecord {
   readonly drops?: Float64Array;
   /** --importance: the model's own importance per feature (forest, boost) */
   readonly own?: Float64Array;
+  /** --threshold: the threshold the inner split of this fold's training rows chose (+Infinity: nothing positive) */
+  readonly threshold?: { readonly value: number; readonly met: boolean };
 }

@@ -8,6 +8,7 @@ import type { ScoreSummary } from './summary.js';
 import type { Params } from '../learning.js';
 import type { ReportComparisons } from './compare.js';
 import type { LearnerCurves } from './curves.js';
+import type { LearnerThreshold, ReportThreshold } from './threshold.js';
 
 export type { DataSection };
 export type { ScoreSummary };
@@ -51,6 +52,8 @@ export interface LearnerReport {
   readonly pooledSample?: PooledSample;
   /** --importance: permutation importance per input of report.importance, and the model's own */
   readonly importance?: LearnerImportance;
+  /** eval --threshold: the threshold chosen inside each outer training fold and the scores at it (learners with probabilities) */
+  readonly threshold?: LearnerThreshold;
 }
 
 /** eval --importance: what was shuffled and how (src/run/importance.ts). */
@@ -142,6 +145,8 @@ export interface Report {
   readonly slices?: readonly SliceReport[];
   /** eval --importance: the inputs shuffled and the settings; each learner's drops are in its importance */
   readonly importance?: ReportImportance;
+  /** eval --threshold: the rule, the positive class and the inner folds; each learner's results are in its threshold */
+  readonly threshold?: ReportThreshold;
   /** paired comparisons of the learners on the headline metric (src/compare/within-report.ts); absent with one learner */
   readonly comparisons?: ReportComparisons;
   /** wall-clock figures; left out with --no-timing so that reports compare byte for byte */

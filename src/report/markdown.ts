@@ -5,6 +5,7 @@
  * right-aligned with four decimals.
  */
 import { curvesSection } from '../curves/markdown.js';
+import { thresholdSection } from './threshold-markdown.js';
 import { foldCount, foldLabel } from '../model/fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 
@@ -273,6 +274,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
   }
 
   out.push(...curvesSection(report, cell, num, table));
+  out.push(...thresholdSection(report, table));
   out.push(...auditSection(report.audit));
   if (report.warnings.length) {
     out.push('## Warnings', '', ...report.warnings.map((w) => `- ${cell(w)}`), '');

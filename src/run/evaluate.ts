@@ -20,6 +20,8 @@ import { InputError } from '../errors.js';
 import type { Target } from '../learning.js';
 import { confusionMatrix, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
+import type { ReportThreshold } from '../model/threshold.js';
+import { learnerThreshold, type CutFold } from '../threshold/scores.js';
 import type { FoldScores, LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 import { withComparisons } from '../compare/within-report.js';
 import { summarize } from '../stats/index.js';
@@ -60,6 +62,8 @@ export interface ReportFrame {
   readonly slices?: readonly SliceColumn[];
   /** --importance: the metric, repeats and inputs (absent without it) */
   readonly importance?: ImportanceFrame;
+  /** --threshold: the rule, the positive class and the inner folds (absent without it) */
+  readonly threshold?: ReportThreshold;
 }
 
 export type { TaskRecord };
@@ -86,6 +90,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
     ...(prepared.slice ? { slices: sliceColumnsOf(prepared.table, prepared.slice.names, prepared.slice.bins) } : {}),
+    ...(prepared.threshold ? { threshold: { rule: prepared.threshold.text, positive: problem.target.task === 'classification' ? problem.target.classes[1] : '', innerFolds: prepared.threshold.innerFolds } } : {}),
     ...(prepared.importance ? { importance: importanceFrameOf(prepared.importance, problem.features.map((f) => f.name)) } : {}),
   };
 }
@@ -131,6 +136,7 @@ export function recordsOf(prepared: Prepared, results: readonly TaskResult[], on
       ...(r.notes ? { notes: r.notes } : {}),
       ...(r.drops ? { drops: r.drops } : {}),
       ...(r.own ? { own: r.own } : {}),
+      ...(r.threshold ? { threshold: r.threshold } : {}),
     };
   });
 }
@@ -228,6 +234,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
       ...(final ? { final } : {}),
       ...(curvesOf(preds, actual, frame.data.classes, { testRows: testMean, trainRows: trainMean })),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
+      ...(frame.threshold ? thresholdOf(perLearner[li].fold, metrics, { testRows: testMean, trainRows: trainMean }, warnings, c.spec) : {}),
       ...(frame.importance ? { importance: learnerImportance(frame.importance, c.name, folds, perLearner[li].fold, { testRows: testMean, trainRows: trainMean }, warnings, c.spec) } : {}),
     };
     return report;
@@ -245,6 +252,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
     ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, frame.metrics, frame.data.classes) } : {}),
+    ...(frame.threshold ? { threshold: frame.threshold } : {}),
     ...(frame.importance
       ? {
           importance: {
@@ -284,4 +292,30 @@ function curvesOf(
     folds.push({ actual: a.codes, proba });
   }
   return { curves: learnerCurves(folds, classNames, sizes) };
+}
+
+/** --threshold: a learner's section when every scored fold has probabilities and a threshold; a warning otherwise. */
+function thresholdOf(
+  records: readonly TaskRecord[],
+  metrics: readonly Metric[],
+  sizes: { testRows: number; trainRows: number },
+  warnings: string[],
+  spec: string,
+): Pick<LearnerReport, 'threshold'> {
+  const folds: CutFold[] = [];
+  for (const r of records) {
+    if (!r.probs || !r.threshold || r.actual.task !== 'classification') {
+      warnings.push(
+        r.probs
+          ? `${spec}: --threshold: the inner split of fold ${foldLabel(r)} held one class only, so no threshold is reported for this learner`
+          : `${spec} gives no class probabilities, so --threshold is not applied to it`,
+      );
+      return {};
+    }
+    folds.push({ repeat: r.repeat, fold: r.fold, actual: r.actual.codes, probs: r.probs, threshold: r.threshold.value, met: r.threshold.met });
+  }
+  if (!folds.length) return {};
+  const unmet = folds.filter((f) => !f.met).length;
+  if (unmet) warnings.push(`${spec}: --threshold: the rule was not met inside ${unmet} of ${folds.length} folds; those folds use the threshold closest to meeting it`);
+  return { threshold: learnerThreshold(folds, metrics, sizes) };
 }

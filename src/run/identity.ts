@@ -60,6 +60,8 @@ export interface RunIdentity {
   readonly importance?: string;
   /** `foldwise growth`: the sizes of its training subsets (present only in growth runs) */
   readonly growth?: string;
+  /** --threshold: the rule and inner folds (present only with it) */
+  readonly threshold?: string;
 }
 
 export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
@@ -84,6 +86,7 @@ export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
     kinds: p.table.fingerprint.schema.map(([, k]) => (k === 'numeric' ? 'n' : 'c')).join(''),
     onFoldError: p.onFoldError ?? 'fail',
     audit: p.audit !== undefined,
+    ...(p.threshold ? { threshold: `${p.threshold.text} (${p.threshold.innerFolds} inner folds)` } : {}),
     ...(p.importance ? { importance: `${p.importance.metric.name} x${p.importance.repeats}: ${p.importance.inputs.map((i) => i.name).join(', ')}` } : {}),
   };
 }

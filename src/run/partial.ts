@@ -12,7 +12,7 @@ import type { Report } from '../model/report.js';
 import { VERSION } from '../version.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from './evaluate.js';
 import { identityDiff, type RunIdentity } from './identity.js';
-import { fromJsonNumbers, notesOf } from './result-json.js';
+import { fromJsonNumbers, notesOf, thresholdFromJSON, thresholdToJSON, type ThresholdJSON } from './result-json.js';
 import type { ShardSpec } from './shard.js';
 
 export const PARTIAL_FORMAT = 'foldwise-partial/2';
@@ -38,6 +38,7 @@ interface RecordJSON {
   readonly notes?: Readonly<Record<string, number>>;
   readonly drops?: (number | null)[];
   readonly own?: (number | null)[];
+  readonly threshold?: ThresholdJSON;
 }
 
 export interface PartialReport {
@@ -91,6 +92,7 @@ export function makePartial(
       ...(r.notes ? { notes: r.notes } : {}),
       ...(r.drops ? { drops: Array.from(r.drops) } : {}),
       ...(r.own ? { own: Array.from(r.own) } : {}),
+      ...(r.threshold ? { threshold: thresholdToJSON(r.threshold) } : {}),
     })),
     ...(keep.length ? { keep: [...keep] } : {}),
   };
@@ -120,6 +122,7 @@ function recordFromJSON(j: RecordJSON, frame: ReportFrame): TaskRecord {
     ...(notesOf(j.notes) ? { notes: notesOf(j.notes) } : {}),
     ...(Array.isArray(j.drops) ? { drops: Float64Array.from(fromJsonNumbers(j.drops)) } : {}),
     ...(Array.isArray(j.own) ? { own: Float64Array.from(fromJsonNumbers(j.own)) } : {}),
+    ...(j.threshold !== undefined ? { threshold: thresholdFromJSON(j.threshold, `task ${j.id}`)! } : {}),
   };
 }
 

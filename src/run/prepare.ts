@@ -20,6 +20,9 @@ import { planFor } from '../plans/plan-for.js';
 import { checkSliceBins, checkSliceNames, DEFAULT_SLICE_BINS } from '../slices/slice-columns.js';
 import { checkImportanceRepeats, DEFAULT_IMPORTANCE_REPEATS, importanceInputs, type ImportancePlan } from './importance.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
+import type { ThresholdPlan } from './threshold-inner.js';
+import { parseThresholdRule } from '../threshold/rule.js';
+import { DEFAULT_INNER_FOLDS, MAX_INNER_FOLDS } from '../threshold/inner-folds.js';
 
 import { checkSeed, DEFAULT_PLAN, DEFAULT_SEED } from '../plans/defaults.js';
 
@@ -57,6 +60,10 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly importanceRepeats?: number;
   /** also shuffle the audit's correlated clusters, each as one input */
   readonly importanceClusters?: boolean;
+  /** --threshold RULE (two-class targets): choose a threshold on an inner split of each outer training fold (src/threshold/) */
+  readonly threshold?: string;
+  /** --threshold-folds: inner folds of that split (default 5) */
+  readonly thresholdFolds?: number;
 }
 
 export interface Prepared extends TaskContext {
@@ -138,6 +145,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
         inputs: importanceInputs(problem, Boolean(options.importanceClusters)),
       }
     : undefined;
+  const threshold = thresholdPlanOf(problem, options);
   const warnings: string[] = [...table.warnings, ...plan.warnings];
   if (problem.excludedRows > 0) {
     warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
@@ -171,7 +179,25 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     final: Boolean(options.final && plan.holdout),
     onFoldError: options.onFoldError ?? 'fail',
     ...(importance ? { importance } : {}),
+    ...(threshold ? { threshold } : {}),
     warnings,
     ...(sliceNames.length ? { slice: { names: sliceNames, bins: sliceBins } } : {}),
   };
+}
+
+/** --threshold and --threshold-folds, checked: two classes only, 2 to 20 inner folds. */
+function thresholdPlanOf(problem: Problem, options: EvaluateOptions): ThresholdPlan | undefined {
+  if (options.threshold === undefined) {
+    if (options.thresholdFolds !== undefined) throw new UsageError('--threshold-folds: give --threshold too');
+    return undefined;
+  }
+  const rule = parseThresholdRule(options.threshold);
+  const y = problem.target;
+  if (y.task !== 'classification' || y.classes.length !== 2) {
+    const what = y.task === 'classification' ? `has ${y.classes.length} classes` : 'is numeric (a regression target)';
+    throw new UsageError(`--threshold ${options.threshold}: a threshold needs a two-class target, but ${quoted(problem.targetName)} ${what}; use it on a two-class target or leave it out`);
+  }
+  const k = options.thresholdFolds ?? DEFAULT_INNER_FOLDS;
+  if (!Number.isInteger(k) || k < 2 || k > MAX_INNER_FOLDS) throw new UsageError(`--threshold-folds ${k}: expected a whole number from 2 to ${MAX_INNER_FOLDS}`);
+  return { rule, text: options.threshold.trim(), innerFolds: k };
 }

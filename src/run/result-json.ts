@@ -5,6 +5,7 @@
 import { InputError } from '../errors.js';
 import { notesOf } from './notes.js';
 import type { TaskResult } from './tasks.js';
+import type { InnerThreshold } from './threshold-inner.js';
 
 export interface TaskResultJSON {
   readonly id: string;
@@ -16,6 +17,25 @@ export interface TaskResultJSON {
   /** --importance: drops per input (null for NaN) and the model's own importance per feature */
   readonly drops?: (number | null)[];
   readonly own?: number[];
+  /** --threshold: the inner split's threshold (value null: +Infinity, nothing positive) */
+  readonly threshold?: ThresholdJSON;
+}
+
+export interface ThresholdJSON {
+  readonly value: number | null;
+  readonly met: boolean;
+}
+
+export function thresholdToJSON(t: InnerThreshold): ThresholdJSON {
+  return { value: Number.isFinite(t.value) ? t.value : null, met: t.met };
+}
+
+/** The threshold back from JSON; undefined when absent, InputError naming `where` when malformed. */
+export function thresholdFromJSON(j: unknown, where: string): InnerThreshold | undefined {
+  if (j === undefined) return undefined;
+  const o = j as Partial<ThresholdJSON> | null;
+  if (!o || typeof o !== 'object' || !(o.value === null || typeof o.value === 'number') || typeof o.met !== 'boolean') throw new InputError(`${where}: a malformed threshold`);
+  return { value: o.value === null ? Infinity : o.value, met: o.met };
 }
 
 export { notesOf };
@@ -30,6 +50,7 @@ export function resultToJSON(r: TaskResult): TaskResultJSON {
     ...(r.notes ? { notes: r.notes } : {}),
     ...(r.drops ? { drops: Array.from(r.drops) } : {}),
     ...(r.own ? { own: Array.from(r.own) } : {}),
+    ...(r.threshold ? { threshold: thresholdToJSON(r.threshold) } : {}),
   };
 }
 
@@ -51,7 +72,9 @@ export function resultFromJSON(j: unknown, classification: boolean, where: strin
     throw new InputError(`${where}: not a task result`);
   }
   const notes = notesOf(o.notes);
+  const threshold = thresholdFromJSON(o.threshold, where);
   return {
+    ...(threshold ? { threshold } : {}),
     ...(notes ? { notes } : {}),
     id: o.id,
     predicted: classification ? Int32Array.from(o.predicted) : Float64Array.from(fromJsonNumbers(o.predicted)),

@@ -17,6 +17,7 @@ import type { BuiltPlan } from '../plans/types.js';
 import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
 import { notesOf } from './notes.js';
 import { createRng, deriveSeed } from '../rng.js';
+import { innerThreshold, type InnerThreshold, type ThresholdPlan } from './threshold-inner.js';
 import { importanceSeeds, ownImportance, permutationDrops, type ImportancePlan } from './importance.js';
 
 export interface Candidate {
@@ -50,6 +51,8 @@ export interface TaskResult {
   readonly drops?: Float64Array;
   /** --importance: the model's own importance per feature (forest, boost), when it has one */
   readonly own?: Float64Array;
+  /** --threshold: the threshold chosen on this fold's inner split (fold tasks of learners with probabilities only) */
+  readonly threshold?: InnerThreshold;
 }
 
 /** What to do when a fold of a learner from outside fails: stop the run, or record it and go on. */
@@ -69,6 +72,8 @@ export interface TaskContext {
   readonly onFoldError?: OnFoldError;
   /** --importance: the inputs to shuffle and how often (absent: no importance) */
   readonly importance?: ImportancePlan;
+  /** --threshold: the rule and the inner folds (absent: no threshold is chosen) */
+  readonly threshold?: ThresholdPlan;
 }
 
 export function taskId(ctx: TaskContext, foldIndex: number, candidateIndex: number): string {
@@ -190,7 +195,12 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
       const own = ownImportance(model, split.prep, ctx.problem.features.length);
       extra = { drops, ...(own ? { own } : {}) };
     }
-    return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}), ...extra };
+    let cut: { threshold?: InnerThreshold } = {};
+    if (ctx.threshold && f && probs) {
+      const chosen = innerThreshold(ctx.problem, ctx.seed, c, f, split.train, ctx.threshold, (train, test) => new SplitData(ctx.problem, train, test, ctx.impute));
+      if (chosen) cut = { threshold: chosen };
+    }
+    return { id: t.id, predicted, ...(probs ? { probs } : {}), fitMs: t1 - t0, predictMs: t2 - t1, ...(notes ? { notes } : {}), ...extra, ...cut };
   } catch (caught) {
     // a module: learner's own error is the user's code failing on this fold, not a bug of foldwise
     const e = c.learner.name.startsWith('module:') && !(caught instanceof FoldwiseError) ? moduleFoldError(c.learner.name, fold.label, caught) : caught;

@@ -25,6 +25,7 @@ import { esc } from './escape.js';
 import { evalFooter } from './footer.js';
 import { intervalText, num } from './format.js';
 import { importanceChart } from './importance-chart.js';
+import { thresholdSection } from './threshold-table.js';
 import { metricsTable } from './metrics-table.js';
 import { page } from './page.js';
 import { recallChart } from './recall-chart.js';
@@ -110,6 +111,7 @@ export function renderEvalHtml(report: Report): string {
       parts.push('</section>');
     }
   }
+  if (report.threshold) parts.push(thresholdSection(report));
   if (report.importance) {
     const imp = report.importance;
     parts.push(`<section><h2>${esc(`Permutation importance (${imp.metric})`)}</h2>`);

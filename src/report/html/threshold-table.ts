@@ -1,0 +1,34 @@
+/**
+ * eval --threshold on the HTML page: per learner, the thresholds chosen inside the outer
+ * training folds (per fold and their spread) and each figure at the chosen threshold beside
+ * 0.5, with the corrected intervals.
+ */
+import type { Report } from '../../model/report.js';
+import { esc } from './escape.js';
+import { intervalText, num } from './format.js';
+
+export function thresholdSection(report: Report): string {
+  const t = report.threshold;
+  if (!t) return '';
+  const parts: string[] = [
+    `<section><h2>${esc(`Threshold chosen inside the training folds (${t.rule})`)}</h2>`,
+    `<p>${esc(`A row is called ${t.positive} when its probability of ${t.positive} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of its training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${t.positive}.`)}</p>`,
+  ];
+  for (const l of report.learners) {
+    const lt = l.threshold;
+    if (!lt) continue;
+    const s = lt.spread;
+    parts.push(
+      `<h3>${esc(l.spec)}</h3>`,
+      `<p>${esc(`Threshold across ${lt.folds.length} folds: mean ${num(s?.mean)}, sd ${num(s?.sd)}, range ${num(s?.min)} to ${num(s?.max)}; per fold: ${lt.folds.map((f) => (f.threshold === null ? 'none' : num(f.threshold))).join(', ')}.`)}</p>`,
+      '<table class="metrics"><thead><tr><th>figure</th><th>at the chosen threshold</th><th>95% interval (corrected)</th><th>at 0.5</th><th>interval at 0.5</th></tr></thead><tbody>',
+      ...Object.keys(lt.summary).map(
+        (k) =>
+          `<tr><td>${esc(k)}</td><td>${num(lt.summary[k]?.mean)}</td><td>${esc(intervalText(lt.summary[k]?.ci95))}</td><td>${num(lt.atDefault[k]?.mean)}</td><td>${esc(intervalText(lt.atDefault[k]?.ci95))}</td></tr>`,
+      ),
+      '</tbody></table>',
+    );
+  }
+  parts.push('</section>');
+  return parts.join('\n');
+}

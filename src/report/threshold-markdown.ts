@@ -1,0 +1,43 @@
+/**
+ * The Markdown section of eval --threshold: per learner, the thresholds the inner splits chose
+ * (their spread across outer folds) and each figure at the chosen threshold beside 0.5, with
+ * the corrected intervals.
+ */
+import type { Report, ScoreSummary } from '../model/report.js';
+import { cell, num } from '../markdown-text.js';
+
+type Table = (header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]) => string;
+
+const interval = (s: ScoreSummary | null | undefined): string => (s?.ci95 ? `${num(s.ci95[0])} to ${num(s.ci95[1])}` : '–');
+
+export function thresholdSection(report: Report, table: Table): string[] {
+  const t = report.threshold;
+  if (!t) return [];
+  const out: string[] = [
+    `## Threshold chosen inside the training folds: ${cell(t.rule)}`,
+    '',
+    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of that fold's training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${cell(t.positive)}.`,
+    '',
+  ];
+  for (const l of report.learners) {
+    const lt = l.threshold;
+    if (!lt) continue;
+    const s = lt.spread;
+    const nothing = lt.folds.filter((f) => f.threshold === null).length;
+    out.push(`### ${cell(l.spec)}`, '');
+    out.push(
+      `Threshold across ${lt.folds.length} folds: mean ${num(s?.mean)}, sd ${num(s?.sd)}, range ${num(s?.min)} to ${num(s?.max)}${nothing ? ` (${nothing} fold${nothing === 1 ? '' : 's'} called nothing positive, counted as 1)` : ''}; per fold: ${lt.folds.map((f) => (f.threshold === null ? 'none' : num(f.threshold))).join(', ')}.`,
+      '',
+    );
+    const names = Object.keys(lt.summary);
+    out.push(
+      table(
+        ['figure', 'at the chosen threshold', '95% interval (corrected)', 'at 0.5', 'interval at 0.5'],
+        ['l', 'r', 'r', 'r', 'r'],
+        names.map((k) => [cell(k), num(lt.summary[k]?.mean), interval(lt.summary[k]), num(lt.atDefault[k]?.mean), interval(lt.atDefault[k])]),
+      ),
+      '',
+    );
+  }
+  return out;
+}
