@@ -421,7 +421,8 @@ const cases: Case[] = [
   { name: 'the same learner twice', input: smallCsv, args: [...RUN, '--learner', 'knn:k=1'], expect: /^--learner knn:k=1: the same learner and options are given twice/ },
   { name: 'malformed plan: unknown kind', input: smallCsv, args: [...RUN, '--plan', 'kfld:3'], expect: /^--plan "kfld:3": unknown plan "kfld"; expected one of kfold, loo, resplit, holdout, forward; did you mean "kfold"\?$/ },
   { name: 'malformed plan: kfold:1', input: smallCsv, args: [...RUN, '--plan', 'kfold:1'], expect: /^--plan "kfold:1": expected kfold:K or kfold:KxR with whole numbers K >= 2, R >= 1$/ },
-  { name: 'malformed plan: holdout with two shares', input: smallCsv, args: [...RUN, '--plan', 'holdout:0.5/0.5'], expect: /^--plan "holdout:0.5\/0.5": expected holdout:A\/B\/C/ },
+  // two shares are train/test since issue 25 item 19 (holdout:A/B = holdout:A/B/0); two that do not sum to 1 stay malformed
+  { name: 'malformed plan: holdout with two shares that do not sum to 1', input: smallCsv, args: [...RUN, '--plan', 'holdout:0.5/0.6'], expect: /^--plan "holdout:0.5\/0.6": expected holdout:A\/B\/C .*\(or holdout:A\/B, the same as holdout:A\/B\/0\)$/ },
   { name: 'malformed plan: shuffle fraction 1.5', input: smallCsv, args: [...RUN, '--plan', 'resplit:5@1.5'], expect: /^--plan "resplit:5@1.5": expected resplit:N@F/ },
   { name: 'plan with more folds than rows', input: smallCsv, args: [...RUN, '--plan', 'kfold:31'], expect: /^--plan kfold:31 needs at least 31 rows; the data has 30 usable rows$/ },
   { name: 'plan with a billion splits', input: smallCsv, args: [...RUN, '--plan', 'resplit:1000000000@0.5'], expect: /^--plan resplit:1000000000@0\.5 would make 1000000000 folds; at most 100000 are allowed; use fewer splits$/ },
