@@ -5,6 +5,8 @@
 export default {
   mutate: ['src/stats/**/*.ts', 'src/metrics/**/*.ts', 'src/compare/**/*.ts', '!src/**/*.d.ts', '!src/**/index.ts'],
   testRunner: 'vitest',
+  // tests that run the CLI start worker threads from dist/: build it inside the sandbox first
+  buildCommand: 'npx tsc -p tsconfig.json',
   vitest: { configFile: 'vitest.mutate.config.ts', related: false },
   coverageAnalysis: 'perTest',
   concurrency: 2,

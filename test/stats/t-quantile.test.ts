@@ -89,4 +89,10 @@ describe('tCdf', () => {
     expect(() => tCdf(Number.NaN, 4)).toThrow('tCdf: x must be a number, got NaN');
     expect(() => tCdf(1, -1)).toThrow('tCdf: df must be a finite number > 0, got -1');
   });
+
+  it('refuses a number written as text (from a JSON or CLI caller), which comparisons would coerce', () => {
+    // mechanics check (no outside value): '0.5' > 0 and '1' is not NaN, so only the typeof test refuses them
+    expect(() => tQuantile('0.5' as unknown as number, 5)).toThrow(UsageError);
+    expect(() => tCdf('1' as unknown as number, 4)).toThrow(UsageError);
+  });
 });
