@@ -8,11 +8,38 @@ import type { Rng } from './rng.js';
 export type Task = 'classification' | 'regression';
 export const TASKS = ['classification', 'regression'] as const;
 
-/** A dense row-major matrix: element (i, j) is data[i * cols + j]. */
+/**
+ * A dense row-major matrix: element (i, j) is data[i * cols + j].
+ *
+ * The runner's matrices are made on demand from the table's columns: `data` is built the first
+ * time it is read (and kept), while `column` and `block` give a fresh copy of one column or of a
+ * run of rows without building `data`. A learner that reads columns (the trees) or rows in
+ * blocks (their prediction) uses those when present and so never holds the whole row-major copy;
+ * the values are the same as in `data`, bit for bit.
+ */
 export interface Matrix {
   readonly rows: number;
   readonly cols: number;
   readonly data: Float64Array;
+  /** column j (0 <= j < cols) as a new array of `rows` values, equal to data[i * cols + j] */
+  column?(j: number): Float64Array;
+  /** rows start..end-1 row-major as a new array of (end - start) * cols values */
+  block?(start: number, end: number): Float64Array;
+}
+
+/** Column j of X: X.column(j) when the matrix has it, else read from X.data. */
+export function matrixColumn(X: Matrix, j: number): Float64Array {
+  if (X.column) return X.column(j);
+  const { rows: n, cols: p, data } = X;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = data[i * p + j];
+  return out;
+}
+
+/** Rows start..end-1 of X row-major: X.block when the matrix has it, else a view of X.data. */
+export function matrixBlock(X: Matrix, start: number, end: number): Float64Array {
+  if (X.block) return X.block(start, end);
+  return X.data.subarray(start * X.cols, end * X.cols);
 }
 
 export type Target =

@@ -139,12 +139,22 @@ function searchArgsort(values: Float64Array): Int32Array {
   return order;
 }
 
+/** True when the used rows are the table's rows 0..n-1 in order (then used row i is table row i). */
+function usesEveryRow(problem: Problem): boolean {
+  const rows = problem.rows;
+  if (rows.length !== problem.table.rows) return false;
+  for (let i = 0; i < rows.length; i++) if (rows[i] !== i) return false;
+  return true;
+}
+
 export function featureData(problem: Problem, col: Column): FeatureData {
   const rows = problem.rows;
   const n = rows.length;
+  const every = usesEveryRow(problem);
   if (col.kind === 'numeric') {
-    const values = new Float64Array(n);
-    for (let i = 0; i < n; i++) values[i] = col.values[rows[i]];
+    // every row used (no missing target): the column itself, read only, not a copy
+    const values = every ? col.values.subarray(0, n) : new Float64Array(n);
+    if (!every) for (let i = 0; i < n; i++) values[i] = col.values[rows[i]];
     const order = argsortPresent(values);
     const sorted = new Float64Array(order.length);
     for (let j = 0; j < order.length; j++) sorted[j] = values[order[j]];
@@ -160,8 +170,8 @@ export function featureData(problem: Problem, col: Column): FeatureData {
       dates: col.dates === true,
     };
   }
-  const codes = new Int32Array(n);
-  for (let i = 0; i < n; i++) codes[i] = col.codes[rows[i]];
+  const codes = every ? col.codes.subarray(0, n) : new Int32Array(n);
+  if (!every) for (let i = 0; i < n; i++) codes[i] = col.codes[rows[i]];
   const counts = new Int32Array(col.levels.length);
   let missing = 0;
   for (let i = 0; i < n; i++) {

@@ -9,6 +9,7 @@ import { resolve } from 'node:path';
 import type { CsvSource, LoadOptions } from '../data/load-csv.js';
 import { DEFAULT_MISSING } from '../data/load-csv.js';
 import { loadTable } from '../data/load-table.js';
+import { shareTableInPlace } from '../run/share.js';
 import { DATE_ORDERS, parseDateOrder } from '../data/dates.js';
 import type { ProblemOptions } from '../data/problem.js';
 import { EXIT_BAD_INPUT, EXIT_OK, FoldwiseError, UsageError } from '../errors.js';
@@ -126,7 +127,10 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
-  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  const loaded = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  // tasks in worker threads read the columns in shared memory: move them there once, so the
+  // table is not held twice (as loaded, and shared for the workers)
+  const table = jobs > 1 || io.armStops ? shareTableInPlace(loaded) : loaded;
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   let disarm: (() => void) | undefined;

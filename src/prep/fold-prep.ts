@@ -162,42 +162,117 @@ export function fitPrep(problem: Problem, train: Int32Array, impute: Impute = 'm
   return { columns, width: names.length, names, source: Int32Array.from(source) };
 }
 
+/**
+ * Writes rows k = start..end-1 of the prepared matrix of used rows `idx`, prep column f only,
+ * into out[(k - start) * stride + at + slot] (slot = 0, or the one-hot slot of the row's level).
+ * One-hot cells of other levels are left as they are (zero in a fresh array).
+ */
+function writeColumn(problem: Problem, prep: FittedPrep, f: number, idx: Int32Array, start: number, end: number, scale: boolean, out: Float64Array, stride: number, at: number): void {
+  const pc = prep.columns[f];
+  const col = problem.features[f];
+  const rows = problem.rows;
+  if (pc.kind === 'numeric' && col.kind === 'numeric') {
+    const shift = scale ? pc.mean : 0;
+    const div = scale ? pc.sd : 1;
+    for (let i = start; i < end; i++) {
+      const v = col.values[rows[idx[i]]];
+      out[(i - start) * stride + at] = ((Number.isNaN(v) ? pc.fill : v) - shift) / div;
+    }
+  } else if (pc.kind === 'categorical' && col.kind === 'categorical') {
+    const slot = new Int32Array(col.levels.length).fill(-1);
+    pc.levels.forEach((k, s) => (slot[k] = s));
+    for (let i = start; i < end; i++) {
+      let c = col.codes[rows[idx[i]]];
+      if (c < 0) c = pc.fill;
+      const s = c < 0 ? -1 : slot[c];
+      if (s >= 0) out[(i - start) * stride + at + s] = 1;
+    }
+  } else if (pc.kind === 'frequency' && col.kind === 'categorical') {
+    const shift = scale ? pc.mean : 0;
+    const div = scale ? pc.sd : 1;
+    for (let i = start; i < end; i++) {
+      let c = col.codes[rows[idx[i]]];
+      if (c < 0) c = pc.fill;
+      out[(i - start) * stride + at] = ((c < 0 ? 0 : pc.shares[c]) - shift) / div;
+    }
+  }
+}
+
+/** Matrix columns per prep column (1, or the one-hot levels). */
+function widthOf(pc: PrepColumn): number {
+  return pc.kind === 'categorical' ? pc.levels.length : 1;
+}
+
+/** Rows start..end-1 of the prepared matrix of used rows `idx`, row-major. */
+function prepBlock(problem: Problem, prep: FittedPrep, idx: Int32Array, start: number, end: number, scale: boolean): Float64Array {
+  const width = prep.width;
+  const data = new Float64Array((end - start) * width);
+  let offset = 0;
+  for (let f = 0; f < prep.columns.length; f++) {
+    writeColumn(problem, prep, f, idx, start, end, scale, data, width, offset);
+    offset += widthOf(prep.columns[f]);
+  }
+  return data;
+}
+
 /** Applies a fitted preprocessing to used rows `idx`, giving a row-major matrix. */
 export function applyPrep(problem: Problem, prep: FittedPrep, idx: Int32Array, scale: boolean): Matrix {
-  const width = prep.width;
-  const data = new Float64Array(idx.length * width);
-  const rows = problem.rows;
-  let offset = 0;
+  return { rows: idx.length, cols: prep.width, data: prepBlock(problem, prep, idx, 0, idx.length, scale) };
+}
+
+/**
+ * The same matrix as applyPrep, made on demand: `data` is built the first time it is read;
+ * `column(j)` and `block(start, end)` copy only what they are asked for (see Matrix in
+ * src/learning.ts). The values are those of applyPrep, bit for bit.
+ */
+export function lazyPrep(problem: Problem, prep: FittedPrep, idx: Int32Array, scale: boolean): Matrix {
+  let data: Float64Array | undefined;
+  // matrix column j -> (prep column, one-hot slot)
+  const owner = new Int32Array(prep.width);
+  const slotOf = new Int32Array(prep.width);
+  let at = 0;
   prep.columns.forEach((pc, f) => {
-    const col = problem.features[f];
-    if (pc.kind === 'numeric' && col.kind === 'numeric') {
-      const shift = scale ? pc.mean : 0;
-      const div = scale ? pc.sd : 1;
-      for (let i = 0; i < idx.length; i++) {
-        const v = col.values[rows[idx[i]]];
-        data[i * width + offset] = ((Number.isNaN(v) ? pc.fill : v) - shift) / div;
-      }
-      offset += 1;
-    } else if (pc.kind === 'categorical' && col.kind === 'categorical') {
-      const slot = new Int32Array(col.levels.length).fill(-1);
-      pc.levels.forEach((k, s) => (slot[k] = s));
-      for (let i = 0; i < idx.length; i++) {
-        let c = col.codes[rows[idx[i]]];
-        if (c < 0) c = pc.fill;
-        const s = c < 0 ? -1 : slot[c];
-        if (s >= 0) data[i * width + offset + s] = 1;
-      }
-      offset += pc.levels.length;
-    } else if (pc.kind === 'frequency' && col.kind === 'categorical') {
-      const shift = scale ? pc.mean : 0;
-      const div = scale ? pc.sd : 1;
-      for (let i = 0; i < idx.length; i++) {
-        let c = col.codes[rows[idx[i]]];
-        if (c < 0) c = pc.fill;
-        data[i * width + offset] = ((c < 0 ? 0 : pc.shares[c]) - shift) / div;
-      }
-      offset += 1;
+    for (let s = 0; s < widthOf(pc); s++) {
+      owner[at] = f;
+      slotOf[at++] = s;
     }
   });
-  return { rows: idx.length, cols: width, data };
+  return {
+    rows: idx.length,
+    cols: prep.width,
+    get data(): Float64Array {
+      if (!data) data = prepBlock(problem, prep, idx, 0, idx.length, scale);
+      return data;
+    },
+    column(j: number): Float64Array {
+      if (!Number.isInteger(j) || j < 0 || j >= prep.width) throw new RangeError(`column ${j} of a matrix of ${prep.width} columns`);
+      const f = owner[j];
+      const pc = prep.columns[f];
+      const n = idx.length;
+      if (pc.kind !== 'categorical') {
+        const out = new Float64Array(n);
+        writeColumn(problem, prep, f, idx, 0, n, scale, out, 1, 0);
+        return out;
+      }
+      // one level's indicator: write the column's slots into a narrow block, keep slot j
+      const w = pc.levels.length;
+      const out = new Float64Array(n);
+      const chunk = 4096;
+      const tmp = new Float64Array(Math.min(n, chunk) * w);
+      for (let s = 0; s < n; s += chunk) {
+        const e = Math.min(n, s + chunk);
+        tmp.fill(0);
+        writeColumn(problem, prep, f, idx, s, e, scale, tmp, w, 0);
+        for (let i = s; i < e; i++) out[i] = tmp[(i - s) * w + slotOf[j]];
+      }
+      return out;
+    },
+    block(start: number, end: number): Float64Array {
+      if (!(Number.isInteger(start) && Number.isInteger(end) && 0 <= start && start <= end && end <= idx.length)) {
+        throw new RangeError(`rows ${start}..${end} of a matrix of ${idx.length} rows`);
+      }
+      if (data) return data.slice(start * prep.width, end * prep.width);
+      return prepBlock(problem, prep, idx, start, end, scale);
+    },
+  };
 }

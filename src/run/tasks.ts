@@ -14,7 +14,7 @@ import { CommandFoldError } from '../learners/command/errors.js';
 import { foldLabel } from '../model/fold-label.js';
 import type { FoldView, Learner, Matrix, Params, Target } from '../learning.js';
 import type { BuiltPlan } from '../plans/types.js';
-import { applyPrep, fitPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
+import { fitPrep, lazyPrep, type FittedPrep, type Impute } from '../prep/fold-prep.js';
 import { notesOf } from './notes.js';
 import { createRng, deriveSeed } from '../rng.js';
 import { innerThreshold, type InnerThreshold, type ThresholdPlan } from './threshold-inner.js';
@@ -139,7 +139,7 @@ export class SplitData {
     const key = `${part}:${scale}`;
     let m = this.cache.get(key);
     if (!m) {
-      m = applyPrep(this.problem, this.prep, part === 'train' ? this.train : this.test, scale);
+      m = lazyPrep(this.problem, this.prep, part === 'train' ? this.train : this.test, scale);
       this.cache.set(key, m);
     }
     return m;

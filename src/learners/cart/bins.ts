@@ -14,7 +14,7 @@
  * (free: https://papers.nips.cc/paper/6907). Only the rows passed in (the training fold) are seen.
  */
 import { InputError } from '../../errors.js';
-import type { Matrix } from '../../learning.js';
+import { type Matrix, matrixColumn } from '../../learning.js';
 
 export const MAX_BINS = 255;
 
@@ -88,24 +88,26 @@ export function binMatrix(X: Matrix, maxBins: number, learner: string): BinnedMa
   if (!Number.isInteger(maxBins) || maxBins < 2 || maxBins > MAX_BINS) {
     throw new RangeError(`maxBins must be an integer between 2 and ${MAX_BINS}`);
   }
-  const { rows: n, cols: p, data } = X;
+  const { rows: n, cols: p } = X;
   const codes = new Uint8Array(n * p);
   const cuts: Float64Array[] = [];
-  const column = new Float64Array(n);
+  const sorted = new Float64Array(n);
   for (let j = 0; j < p; j++) {
+    // one column at a time (a matrix made on demand never builds its row-major copy)
+    const column = matrixColumn(X, j);
     for (let i = 0; i < n; i++) {
-      const v = data[i * p + j];
+      const v = column[i];
       if (!Number.isFinite(v)) {
         throw new InputError(
           `${learner}: feature column ${j + 1} of row ${i + 1} is ${v}; features must be finite (impute missing values first)`,
         );
       }
-      column[i] = v;
     }
-    const c = quantileCuts(column, maxBins);
+    sorted.set(column);
+    const c = quantileCuts(sorted, maxBins);
     cuts.push(c);
     const base = j * n;
-    for (let i = 0; i < n; i++) codes[base + i] = codeOf(c, data[i * p + j]);
+    for (let i = 0; i < n; i++) codes[base + i] = codeOf(c, column[i]);
   }
   return { rows: n, cols: p, codes, cuts };
 }

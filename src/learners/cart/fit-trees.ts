@@ -45,9 +45,11 @@ export interface CartSettings {
 
 /** Checks X and y agree and are usable; returns the classification class count (1 for regression). */
 export function checkTrainingData(kind: CartKind, X: Matrix, y: Target): number {
-  const { rows: n, cols: p, data } = X;
-  if (!Number.isInteger(n) || !Number.isInteger(p) || n < 0 || p < 0 || data.length !== n * p) {
-    throw new InputError(`${kind}: matrix data length ${data.length} is not rows x cols = ${n} x ${p}`);
+  const { rows: n, cols: p } = X;
+  // a matrix made on demand (X.column) is not built here: its columns are read one at a time
+  const length = X.column ? n * p : X.data.length;
+  if (!Number.isInteger(n) || !Number.isInteger(p) || n < 0 || p < 0 || length !== n * p) {
+    throw new InputError(`${kind}: matrix data length ${length} is not rows x cols = ${n} x ${p}`);
   }
   if (n < 1) throw new InputError(`${kind}: no training rows`);
   if (y.task === 'classification') {
