@@ -2,7 +2,8 @@ import { describe, expect, it } from 'vitest';
 import { median, mean, standardDeviation } from 'simple-statistics';
 import { loadCsv } from '../../src/data/load-csv.js';
 import { defineProblem } from '../../src/data/problem.js';
-import { applyPrep, fitPrep } from '../../src/prep/fold-prep.js';
+import { applyPrep, fitPrep, lazyPrep } from '../../src/prep/fold-prep.js';
+import { matrixBlock, matrixColumn } from '../../src/learning.js';
 import { createRng } from '../../src/rng.js';
 
 const csv = (rows: string[]) => ({ text: `x,c,y\n${rows.join('\n')}\n`, name: 'mem.csv' });
@@ -80,5 +81,28 @@ describe('fold-local preprocessing', () => {
     const prep = fitPrep(problem, Int32Array.from([0, 1, 2, 3]), 'mean');
     const x = prep.columns[0];
     expect(x.kind === 'numeric' && x.fill).toBe(13 / 3);
+  });
+});
+
+describe('matrices made on demand (lazyPrep) equal the eager ones (applyPrep)', () => {
+  // mechanics: the same fitted preparation, read three ways, must give the same numbers bit for bit
+  it('column(j), block(start, end) and data agree with applyPrep, scaled and not, one-hot slots included', async () => {
+    const problem = defineProblem(await loadCsv(csv(base)), { target: 'y' });
+    const prep = fitPrep(problem, Int32Array.from([0, 1, 2, 3, 4, 6]));
+    const idx = Int32Array.from([7, 5, 0, 4, 2, 6]);
+    for (const scale of [false, true]) {
+      const eager = applyPrep(problem, prep, idx, scale);
+      const lazy = lazyPrep(problem, prep, idx, scale);
+      expect(lazy.rows).toBe(eager.rows);
+      expect(lazy.cols).toBe(eager.cols);
+      expect(eager.cols).toBe(prep.names.length);
+      expect(eager.cols).toBeGreaterThan(2);
+      for (let j = 0; j < eager.cols; j++) {
+        const want = Array.from({ length: eager.rows }, (_, i) => eager.data[i * eager.cols + j]);
+        expect(Array.from(matrixColumn(lazy, j))).toEqual(want);
+      }
+      expect(Array.from(matrixBlock(lazy, 2, 5))).toEqual(Array.from(eager.data.subarray(2 * eager.cols, 5 * eager.cols)));
+      expect(Array.from(lazy.data)).toEqual(Array.from(eager.data));
+    }
   });
 });
