@@ -8,6 +8,7 @@
  * throws InputError (exit 2) naming the option, the estimate and the budget.
  */
 import { totalmem } from 'node:os';
+import { InputError } from '../errors.js';
 
 export const BUDGET_SHARE = 0.5;
 
@@ -26,4 +27,13 @@ export function formatBytes(bytes: number): string {
     u++;
   }
   return `${Number(v.toPrecision(3))} ${units[u]}`;
+}
+
+/**
+ * The refusal when a model's own arrays would exceed the budget: `what` names the learner and
+ * the option (`forest: trees=1e9`), `need` the estimate and how it was made, `advice` what to
+ * ask for instead.
+ */
+export function modelTooLarge(what: string, need: string, budget: number, advice: string): InputError {
+  return new InputError(`${what} would need ${need}, more than the ${formatBytes(budget)} one model may use (half of this machine's memory); ${advice}`);
 }

@@ -26,7 +26,8 @@ import { InputError } from '../../errors.js';
 import { createRng, deriveSeed } from '../../rng.js';
 import { binMatrix } from '../cart/bins.js';
 import { type FlatForestParts } from '../cart/flat-forest.js';
-import { NodeStore } from '../cart/node-store.js';
+import { NODE_BYTES, NodeStore } from '../cart/node-store.js';
+import { formatBytes, memoryBudget, modelTooLarge } from '../memory-budget.js';
 import type { Matrix, Target } from '../../learning.js';
 import { BoostGrower } from './grow.js';
 import { leafValue } from './histogram.js';
@@ -141,6 +142,11 @@ export function fitBoost(X: Matrix, y: Target, s: BoostSettings, seed: number, w
   });
   if (s.rounds === 0 && !watch) return { parts: finish(0, undefined, gain, new Map()) };
 
+  // memory: every round adds w trees, each of at least one leaf of w values; after the first
+  // round the arrays are sized from it (NodeStore.expect), so both estimates come first
+  const budget = memoryBudget();
+  const atLeast = s.rounds * w * (NODE_BYTES + w * 8);
+  if (atLeast > budget) throw tooManyRounds(s.rounds, `at least ${formatBytes(atLeast)} (one leaf per tree, ${w} tree${w === 1 ? '' : 's'} a round)`, budget);
   const binned = binMatrix(X, s.bins, 'boost');
   const grower = new BoostGrower(binned, { depth: s.depth, leaves: s.leaves, leafRows: s.leafRows, leafHessian: s.leafHessian, ridge: s.ridge }, y.task === 'regression');
   const store = new NodeStore(p);
@@ -207,7 +213,11 @@ export function fitBoost(X: Matrix, y: Target, s: BoostSettings, seed: number, w
       } else addTree(store, root, X, F, w, k);
       if (Fv) addTree(store, root, watch!.X, Fv, w, k);
     }
-    if (t === 0 && s.rounds > 1) store.expect((s.rounds - 1) * w);
+    if (t === 0 && s.rounds > 1) {
+      const estimate = s.rounds * store.bytes();
+      if (estimate > budget) throw tooManyRounds(s.rounds, `about ${formatBytes(estimate)} (${s.rounds} rounds the size of the first, ${store.count} nodes)`, budget);
+      store.expect((s.rounds - 1) * w);
+    }
     roundsRun = t + 1;
     if (watch) {
       const l = meanLoss(loss, watch.y, Fv!, w, validRows!, watchDelta);
@@ -246,3 +256,7 @@ export function fitBoost(X: Matrix, y: Target, s: BoostSettings, seed: number, w
 }
 
 export type { LossName };
+
+function tooManyRounds(rounds: number, need: string, budget: number): InputError {
+  return modelTooLarge(`boost: rounds=${rounds}`, `${need} for the trees alone`, budget, 'ask for fewer rounds (or a smaller depth or leaves)');
+}

@@ -25,8 +25,8 @@ import { resolveSampleSize } from './sample-size.js';
 import { classWeights } from '../class-balance.js';
 import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
 import { type Impurity, type GrowTarget, TreeGrower } from './grow.js';
-import { NodeStore } from './node-store.js';
-import { formatBytes, memoryBudget } from '../memory-budget.js';
+import { NODE_BYTES, NodeStore } from './node-store.js';
+import { formatBytes, memoryBudget, modelTooLarge } from '../memory-budget.js';
 
 export interface CartSettings {
   readonly trees: number;
@@ -69,11 +69,8 @@ export function checkTrainingData(kind: CartKind, X: Matrix, y: Target): number 
   return 1;
 }
 
-/** Bytes of one node in the NodeStore: feature, left, right, offset (Int32) and threshold (Float64). */
-const NODE_BYTES = 4 * 4 + 8;
-
 function tooLarge(kind: CartKind, trees: number, need: string, budget: number): InputError {
-  return new InputError(`${kind}: trees=${trees} would need ${need} for the trees alone, more than the ${formatBytes(budget)} one model may use (half of this machine's memory); ask for fewer trees`);
+  return modelTooLarge(`${kind}: trees=${trees}`, `${need} for the trees alone`, budget, 'ask for fewer trees');
 }
 
 export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext): FlatForestParts {
@@ -125,7 +122,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     if (cw && y.task === 'classification') for (let k = 0; k < m; k++) weights[rows[k]] *= cw[y.codes[rows[k]]];
     grower.grow(rows.subarray(0, m), weights, rng, store);
     if (t === 0 && s.trees > 1) {
-      const estimate = s.trees * (store.count * NODE_BYTES + store.valueCount * 8);
+      const estimate = s.trees * store.bytes();
       if (estimate > budget) throw tooLarge(kind, s.trees, `about ${formatBytes(estimate)} (${s.trees} trees the size of the first, ${store.count} nodes)`, budget);
       store.expect(s.trees - 1);
     }

@@ -4,6 +4,9 @@
  * tree. Fresh memory is costly (every new page is faulted in and zeroed), so after the first
  * tree `expect` sizes the arrays for the whole forest from it; beyond that, `reserve` doubles.
  */
+/** Bytes of one node: feature, left, right, offset (Int32) and threshold (Float64). */
+export const NODE_BYTES = 4 * 4 + 8;
+
 export class NodeStore {
   feature: Int32Array;
   threshold: Float64Array;
@@ -62,6 +65,11 @@ export class NodeStore {
     const trees = Math.max(1, this.roots.length);
     const margin = (k: number) => Math.ceil((k / trees) * moreTrees * 1.1);
     this.reserve(margin(this.count), margin(this.valueCount));
+  }
+
+  /** Bytes of the nodes and leaf values stored so far. */
+  bytes(): number {
+    return this.count * NODE_BYTES + this.valueCount * 8;
   }
 
   /** A new leaf-shaped node (room must have been reserved). */
