@@ -55,77 +55,87 @@ export interface ValueRuns {
 const hashBits = new Float64Array(1);
 const hashWords = new Uint32Array(hashBits.buffer);
 
-/** A 32-bit hash of a double's bits (the caller maps -0 to 0). */
-function hashDouble(v: number): number {
-  hashBits[0] = v;
-  let h = Math.imul(hashWords[0] ^ Math.imul(hashWords[1], 0x9e3779b1), 0x85ebca6b);
+/** A 32-bit hash of the two 32-bit words of a double (low word first in memory order). */
+function hashWordPair(w0: number, w1: number): number {
+  let h = Math.imul(w0 ^ Math.imul(w1, 0x9e3779b1), 0x85ebca6b);
   h ^= h >>> 15;
   h = Math.imul(h, 0xc2b2ae35);
   return h ^ (h >>> 16);
 }
 
+/** The same hash of a double's bits (the caller maps -0 to 0). */
+function hashDouble(v: number): number {
+  hashBits[0] = v;
+  return hashWordPair(hashWords[0], hashWords[1]);
+}
+
 /**
- * One pass over the values: an open-addressing hash table (linear probing, NaN marking an empty
- * slot, doubled at half full) counts the rows of each present value; then only the distinct
- * values are sorted (natively, no callback). O(n) for the pass plus O(d log d) for d distinct
- * values, against O(n log n) or four radix passes over every row for a sort of the rows; the
- * result is what a sort would give (the runs of equal values of the sorted column).
+ * One pass over the values: an open-addressing hash table (linear probing; key and count side
+ * by side in one Float64Array so a probe reads one cache line; NaN marks an empty slot; doubled
+ * at half full) counts the rows of each present value; then only the distinct values are
+ * sorted (natively, no callback). O(n) for the pass plus O(d log d) for d distinct values,
+ * against four radix passes or O(n log n) for a sort of every row; the result is what a sort
+ * would give (the runs of equal values of the sorted column). The words of each value are read
+ * through a Uint32Array view of the column, not copied.
  */
 export function valueRuns(values: Float64Array): ValueRuns {
   const n = values.length;
+  const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
+  const zeroHash = hashDouble(0);
   let cap = 1024;
   let mask = cap - 1;
-  let keys = new Float64Array(cap).fill(NaN);
-  let counts = new Int32Array(cap);
+  // slot s: key at 2s, count at 2s + 1
+  let table = new Float64Array(2 * cap).fill(NaN);
   let size = 0;
   let present = 0;
   for (let i = 0; i < n; i++) {
     let v = values[i];
     if (v !== v) continue;
-    if (v === 0) v = 0;
     present++;
-    let h = hashDouble(v) & mask;
+    let h: number;
+    if (v === 0) {
+      v = 0;
+      h = zeroHash & mask;
+    } else h = hashWordPair(words[2 * i], words[2 * i + 1]) & mask;
     for (;;) {
-      const k = keys[h];
+      const k = table[2 * h];
       if (k === v) {
-        counts[h]++;
+        table[2 * h + 1]++;
         break;
       }
       if (k !== k) {
-        keys[h] = v;
-        counts[h] = 1;
+        table[2 * h] = v;
+        table[2 * h + 1] = 1;
         size++;
         break;
       }
       h = (h + 1) & mask;
     }
     if (2 * size > cap) {
-      const oldKeys = keys;
-      const oldCounts = counts;
+      const old = table;
       cap *= 2;
       mask = cap - 1;
-      keys = new Float64Array(cap).fill(NaN);
-      counts = new Int32Array(cap);
-      for (let s = 0; s < oldKeys.length; s++) {
-        const k = oldKeys[s];
+      table = new Float64Array(2 * cap).fill(NaN);
+      for (let s = 0; s < old.length; s += 2) {
+        const k = old[s];
         if (k !== k) continue;
         let g = hashDouble(k) & mask;
-        while (keys[g] === keys[g]) g = (g + 1) & mask;
-        keys[g] = k;
-        counts[g] = oldCounts[s];
+        while (table[2 * g] === table[2 * g]) g = (g + 1) & mask;
+        table[2 * g] = k;
+        table[2 * g + 1] = old[s + 1];
       }
     }
   }
   const uniques = new Float64Array(size);
   let d = 0;
-  for (let s = 0; s < cap; s++) if (keys[s] === keys[s]) uniques[d++] = keys[s];
+  for (let s = 0; s < cap; s++) if (table[2 * s] === table[2 * s]) uniques[d++] = table[2 * s];
   uniques.sort();
   const runs = new Int32Array(size);
   for (let j = 0; j < size; j++) {
     const v = uniques[j];
     let h = hashDouble(v) & mask;
-    while (keys[h] !== v) h = (h + 1) & mask;
-    runs[j] = counts[h];
+    while (table[2 * h] !== v) h = (h + 1) & mask;
+    runs[j] = table[2 * h + 1];
   }
   return { uniques, runs, present };
 }
