@@ -55,7 +55,7 @@ export function audit(table: Table, options: AuditOptions): AuditReport {
     },
     settings: { clusterThreshold: threshold },
     ...(ctx.sample ? { sample: ctx.sample } : {}),
-    columns: profileColumns(table, problem),
+    columns: profileColumns(table, problem, ctx.features),
     target,
     suspects,
     recommendations: recommendations(suspects, target, spec, stratified),

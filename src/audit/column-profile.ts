@@ -3,10 +3,16 @@
  * distinct count; for numeric columns the five-number summary with mean and standard deviation
  * (see numeric-summary.ts); for categorical columns the most frequent levels with their counts
  * (ties in order of first appearance) and the number of rows in all other levels.
+ *
+ * A numeric column is read in one hashing pass (valueRuns in feature-data.ts: the rows of each
+ * distinct value), not sorted row by row; the sorted values the summary reads are written out
+ * from those runs, so the figures are those of a sort. When every row of the table is used, a
+ * feature's runs from the audit's features are reused instead of counted again.
  */
 import type { Problem } from '../data/problem.js';
 import type { Column, Table } from '../data/types.js';
-import { distinctSorted, numericProfile, sortedPresent } from './numeric-summary.js';
+import { sortedFromRuns, valueRuns, type FeatureData, type ValueRuns } from './feature-data.js';
+import { numericProfile } from './numeric-summary.js';
 import { AUDIT_LIMITS, type ColumnProfile } from './types.js';
 
 /** The role a column plays in the problem. */
@@ -24,7 +30,13 @@ export function levelCounts(codes: Int32Array, levels: number): Int32Array {
   return counts;
 }
 
-export function profileColumn(col: Column, rows: number, role: ColumnProfile['role'], topLevels: number = AUDIT_LIMITS.topLevels): ColumnProfile {
+export function profileColumn(
+  col: Column,
+  rows: number,
+  role: ColumnProfile['role'],
+  topLevels: number = AUDIT_LIMITS.topLevels,
+  runs?: ValueRuns,
+): ColumnProfile {
   const base = {
     name: col.name,
     position: col.position,
@@ -33,12 +45,12 @@ export function profileColumn(col: Column, rows: number, role: ColumnProfile['ro
     missingShare: rows > 0 ? col.missing / rows : 0,
   };
   if (col.kind === 'numeric') {
-    const sorted = sortedPresent(col.values);
+    const r = runs ?? valueRuns(col.values.subarray(0, rows));
     return {
       ...base,
       type: col.dates ? 'date' : 'numeric',
-      distinct: distinctSorted(sorted),
-      ...(sorted.length > 0 ? { numeric: numericProfile(sorted) } : {}),
+      distinct: r.uniques.length,
+      ...(r.present > 0 ? { numeric: numericProfile(sortedFromRuns(r)) } : {}),
     };
   }
   const counts = levelCounts(col.codes, col.levels.length);
@@ -50,7 +62,14 @@ export function profileColumn(col: Column, rows: number, role: ColumnProfile['ro
   return { ...base, type: 'categorical', distinct: order.length, levels: { top, otherRows } };
 }
 
-/** Profiles of every column of the table, in header order. */
-export function profileColumns(table: Table, problem: Problem): ColumnProfile[] {
-  return table.columns.map((c) => profileColumn(c, table.rows, roleOf(problem, c.name)));
+/**
+ * Profiles of every column of the table, in header order. `features` (the audit's, over the
+ * used rows) lend their value runs to their columns when the used rows are all the table's rows.
+ */
+export function profileColumns(table: Table, problem: Problem, features: readonly FeatureData[] = []): ColumnProfile[] {
+  const lent = new Map<Column, ValueRuns>();
+  if (problem.rows.length === table.rows) {
+    for (const f of features) if (f.kind === 'numeric' && f.values.length === table.rows) lent.set(f.column, { uniques: f.uniques, runs: f.runs, present: table.rows - f.missing });
+  }
+  return table.columns.map((c) => profileColumn(c, table.rows, roleOf(problem, c.name), AUDIT_LIMITS.topLevels, lent.get(c)));
 }

@@ -16,19 +16,11 @@ export function mostFrequent(f: FeatureData): { text: string; count: number } | 
     for (let k = 0; k < f.counts.length; k++) if (f.counts[k] > 0 && (best < 0 || f.counts[k] > f.counts[best])) best = k;
     return best < 0 ? null : { text: f.levels[best], count: f.counts[best] };
   }
-  const sorted = f.sorted;
-  if (sorted.length === 0) return null;
-  let bestValue = sorted[0];
-  let bestRun = 0;
-  let run = 0;
-  for (let j = 0; j < sorted.length; j++) {
-    run = j > 0 && sorted[j] === sorted[j - 1] ? run + 1 : 1;
-    if (run > bestRun) {
-      bestRun = run;
-      bestValue = sorted[j];
-    }
-  }
-  return { text: String(bestValue), count: bestRun };
+  // the smallest value among the most frequent (the first longest run of the sorted column)
+  if (f.uniques.length === 0) return null;
+  let best = 0;
+  for (let j = 1; j < f.runs.length; j++) if (f.runs[j] > f.runs[best]) best = j;
+  return { text: String(f.uniques[best]), count: f.runs[best] };
 }
 
 export function constantSuspects(features: readonly FeatureData[], n: number): Suspect[] {

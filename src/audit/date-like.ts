@@ -33,11 +33,11 @@ export function dateLikeSuspects(features: readonly FeatureData[], problem: Prob
     });
   }
   for (const f of features) {
-    if (f.kind !== 'numeric' || f.order.length === 0) continue;
+    if (f.kind !== 'numeric' || f.uniques.length === 0) continue;
     const named = nameTokens(f.name).some((t) => DATE_WORDS.has(t));
     if (!f.dates && !named) continue;
-    const lo = f.values[f.order[0]];
-    const hi = f.values[f.order[f.order.length - 1]];
+    const lo = f.uniques[0];
+    const hi = f.uniques[f.uniques.length - 1];
     const range = f.dates ? `ISO dates from ${isoDate(lo)} to ${isoDate(hi)}` : `values from ${lo} to ${hi} and a name that suggests time`;
     out.push({
       kind: 'date-like',

@@ -42,13 +42,14 @@
  * numeric targets are ordinary noise, not label errors. The rule and its constant are our own
  * choice; the rates they give on our corpus are in the README ("False alarms").
  *
- * Cost: one 53-bit hash per row (equal hashes are compared exactly), then per fold a binary search of the (ascending) training rows
+ * Cost: two 32-bit hashes per row, made one feature at a time, and rows chained by hash bucket
+ * (rows of one bucket are compared exactly; no sort of the rows), then per fold a binary search of the (ascending) training rows
  * for the other members of each duplicate set of a test row: only duplicated rows cost anything.
  */
 import type { Problem } from '../data/problem.js';
 import type { Target } from '../learning.js';
 import type { Fold } from '../plans/types.js';
-import { argsortPresent, type FeatureData } from './feature-data.js';
+import type { FeatureData } from './feature-data.js';
 import type { DuplicateSummary, Suspect } from './types.js';
 import { count, fig, nameTokens } from './wording.js';
 
@@ -74,29 +75,71 @@ function mix(h: number, w: number): number {
 }
 
 /**
- * A 53-bit hash of a row's features (missing hashed as one fixed word, -0 as 0); equal rows
- * have equal hashes, and rows with equal hashes are compared exactly afterwards.
+ * Two 32-bit hashes per row of its features (missing hashed as one fixed word, -0 as 0), made
+ * column by column (one pass over each feature's array): equal rows have equal hashes, and rows
+ * with equal hashes are compared exactly afterwards.
  */
-function rowHash(features: readonly FeatureData[], i: number): number {
-  let a = 0x811c9dc5;
-  let b = 0x01000193;
+function rowHashes(features: readonly FeatureData[], n: number): { a: Int32Array; b: Int32Array } {
+  const a = new Int32Array(n).fill(0x811c9dc5 | 0);
+  const b = new Int32Array(n).fill(0x01000193);
   for (const f of features) {
     if (f.kind === 'numeric') {
-      const v = f.values[i];
-      if (Number.isNaN(v)) {
-        a = mix(a, 0x7ff80001);
-        b = mix(b, 0x13572468);
-      } else {
-        bits[0] = v === 0 ? 0 : v;
-        a = mix(a, words[0]);
-        b = mix(b, words[1] ^ a);
+      const values = f.values;
+      for (let i = 0; i < n; i++) {
+        const v = values[i];
+        if (v !== v) {
+          a[i] = mix(a[i], 0x7ff80001);
+          b[i] = mix(b[i], 0x13572468);
+        } else {
+          bits[0] = v === 0 ? 0 : v;
+          const ai = mix(a[i], words[0]);
+          a[i] = ai;
+          b[i] = mix(b[i], words[1] ^ ai);
+        }
       }
     } else {
-      a = mix(a, f.codes[i] + 0x2545f491);
-      b = mix(b, f.codes[i] ^ 0x6a09e667);
+      const codes = f.codes;
+      for (let i = 0; i < n; i++) {
+        a[i] = mix(a[i], codes[i] + 0x2545f491);
+        b[i] = mix(b[i], codes[i] ^ 0x6a09e667);
+      }
     }
   }
-  return (a >>> 0) * 0x200000 + ((b >>> 0) & 0x1fffff);
+  return { a, b };
+}
+
+/**
+ * The sets of two or more used rows equal on every feature, each in ascending row order: rows
+ * are chained by bucket of their hashes (a table of at least n buckets, each chain ascending),
+ * and each chain of two or more rows is split into sets of exactly equal rows. No sort of the
+ * rows: only rows that share a bucket are compared.
+ */
+function featureSets(features: readonly FeatureData[], n: number): number[][] {
+  const { a, b } = rowHashes(features, n);
+  let size = 1;
+  while (size < n) size *= 2;
+  const mask = size - 1;
+  const bucketOf = (i: number): number => (Math.imul(a[i] ^ Math.imul(b[i], 0x27d4eb2d), 0x9e3779b1) >>> 7) & mask;
+  const heads = new Int32Array(size).fill(-1);
+  const next = new Int32Array(n);
+  for (let i = n - 1; i >= 0; i--) {
+    const k = bucketOf(i);
+    next[i] = heads[k];
+    heads[k] = i;
+  }
+  const out: number[][] = [];
+  for (let i = 0; i < n; i++) {
+    // i heads its chain when it is the first row of its bucket and has a follower
+    if (next[i] < 0 || heads[bucketOf(i)] !== i) continue;
+    const sets: number[][] = [];
+    for (let j = i; j >= 0; j = next[j]) {
+      const home = sets.find((set) => a[set[0]] === a[j] && b[set[0]] === b[j] && sameFeatures(features, set[0], j));
+      if (home) home.push(j);
+      else sets.push([j]);
+    }
+    for (const set of sets) if (set.length >= 2) out.push(set);
+  }
+  return out;
 }
 
 /** True when rows i and j are equal on every feature (missing equals missing). */
@@ -171,27 +214,9 @@ export function findDuplicates(features: readonly FeatureData[], y: Target, fold
   const targetOf = (i: number): number => (y.task === 'classification' ? y.codes[i] : y.values[i]);
   // the key of an exact copy: the target and every time stamp (missing equals missing)
   const stampOf = (i: number): string => stamps.map((v) => (Number.isNaN(v[i]) ? 'NaN' : String(v[i]))).join(' ');
-  // one pass hashing every row, rows sorted by hash (native sort, no callback), then each run
-  // of equal hashes split into sets of exactly equal rows; runs come in order of hash, and the
-  // sets are sorted by first row below
-  const hashes = new Float64Array(n);
-  for (let i = 0; i < n; i++) hashes[i] = rowHash(features, i);
-  const byHash = argsortPresent(hashes);
-  const byFeatures: number[][] = [];
-  for (let start = 0; start < n; ) {
-    let end = start + 1;
-    while (end < n && hashes[byHash[end]] === hashes[byHash[start]]) end++;
-    const list = end - start >= 2 ? Array.from(byHash.subarray(start, end)) : null;
-    start = end;
-    if (!list) continue;
-    const sets: number[][] = [];
-    for (const i of list) {
-      const home = sets.find((set) => sameFeatures(features, set[0], i));
-      if (home) home.push(i);
-      else sets.push([i]);
-    }
-    for (const set of sets) if (set.length >= 2) byFeatures.push(set);
-  }
+  // one hashing pass per feature, rows chained by hash bucket, then each chain split into sets
+  // of exactly equal rows (featureSets); the sets are sorted by first row below
+  const byFeatures = featureSets(features, n);
   const exact: Int32Array[] = [];
   const conflicting: Int32Array[] = [];
   let targetPairs = 0;
@@ -264,19 +289,8 @@ function pairShare(counts: Iterable<number>, n: number): number {
 /** Chance that two distinct used rows agree on a feature (missing counted as a value). */
 function collision(f: FeatureData, n: number): number {
   const counts: number[] = [f.missing];
-  if (f.kind === 'categorical') counts.push(...f.counts);
-  else {
-    let run = 0;
-    const sorted = f.sorted;
-    for (let j = 0; j < sorted.length; j++) {
-      if (j > 0 && sorted[j] !== sorted[j - 1]) {
-        counts.push(run);
-        run = 0;
-      }
-      run++;
-    }
-    counts.push(run);
-  }
+  if (f.kind === 'categorical') for (const c of f.counts) counts.push(c);
+  else for (const c of f.runs) counts.push(c);
   return pairShare(counts, n);
 }
 

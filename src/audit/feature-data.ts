@@ -1,7 +1,13 @@
 /**
  * The features of a problem restricted to its used rows (target present), prepared once for
- * every check: numeric values with the present rows presorted by value, or categorical codes
- * with level counts. Index i everywhere in src/audit is a used row of the problem.
+ * every check: numeric values with their distinct present values and the rows holding each
+ * (one hashing pass, valueRuns), or categorical codes with level counts. Index i everywhere in
+ * src/audit is a used row of the problem.
+ *
+ * At scale (issue #14) the exact checks read every row, so a feature holds what one pass over
+ * its column gives: counts of each value, not a sort of all rows. The rows sorted by value
+ * (`order`), which only the scored checks read (on the sample above the row limit: sample.ts),
+ * are sorted on first read and kept; read it once into a local before a loop.
  */
 import type { Problem } from '../data/problem.js';
 import type { Column } from '../data/types.js';
@@ -13,10 +19,12 @@ export type FeatureData =
       readonly column: Column;
       /** value per used row, NaN when missing */
       readonly values: Float64Array;
-      /** used rows with a present value, sorted by value (ties by row) */
+      /** the distinct present values, ascending (-0 read as 0) */
+      readonly uniques: Float64Array;
+      /** used rows holding each of `uniques` (same index) */
+      readonly runs: Int32Array;
+      /** used rows with a present value, sorted by value (ties by row); made on first read */
       readonly order: Int32Array;
-      /** the present values in that order (values[order[j]]), read in sequence by the checks */
-      readonly sorted: Float64Array;
       readonly missing: number;
       readonly distinct: number;
       readonly dates: boolean;
@@ -34,11 +42,113 @@ export type FeatureData =
       readonly distinct: number;
     };
 
-/** Number of distinct present values of a feature on the used rows. */
-function distinctOf(sorted: Float64Array): number {
-  let d = sorted.length > 0 ? 1 : 0;
-  for (let j = 1; j < sorted.length; j++) if (sorted[j] !== sorted[j - 1]) d++;
-  return d;
+/** The distinct present values of a numeric column, ascending, and the rows holding each. */
+export interface ValueRuns {
+  /** distinct present values, ascending; -0 is counted as 0 */
+  readonly uniques: Float64Array;
+  /** rows per value, same index as `uniques` */
+  readonly runs: Int32Array;
+  /** rows with a present (non-NaN) value: the sum of `runs` */
+  readonly present: number;
+}
+
+const hashBits = new Float64Array(1);
+const hashWords = new Uint32Array(hashBits.buffer);
+
+/** A 32-bit hash of the two 32-bit words of a double (low word first in memory order). */
+function hashWordPair(w0: number, w1: number): number {
+  let h = Math.imul(w0 ^ Math.imul(w1, 0x9e3779b1), 0x85ebca6b);
+  h ^= h >>> 15;
+  h = Math.imul(h, 0xc2b2ae35);
+  return h ^ (h >>> 16);
+}
+
+/** The same hash of a double's bits (the caller maps -0 to 0). */
+function hashDouble(v: number): number {
+  hashBits[0] = v;
+  return hashWordPair(hashWords[0], hashWords[1]);
+}
+
+/**
+ * One pass over the values: an open-addressing hash table (linear probing; key and count side
+ * by side in one Float64Array so a probe reads one cache line; NaN marks an empty slot; doubled
+ * at half full) counts the rows of each present value; then only the distinct values are
+ * sorted (natively, no callback). O(n) for the pass plus O(d log d) for d distinct values,
+ * against four radix passes or O(n log n) for a sort of every row; the result is what a sort
+ * would give (the runs of equal values of the sorted column). The words of each value are read
+ * through a Uint32Array view of the column, not copied.
+ */
+export function valueRuns(values: Float64Array): ValueRuns {
+  const n = values.length;
+  const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
+  const zeroHash = hashDouble(0);
+  let cap = 1024;
+  let mask = cap - 1;
+  // slot s: key at 2s, count at 2s + 1
+  let table = new Float64Array(2 * cap).fill(NaN);
+  let size = 0;
+  let present = 0;
+  for (let i = 0; i < n; i++) {
+    let v = values[i];
+    if (v !== v) continue;
+    present++;
+    let h: number;
+    if (v === 0) {
+      v = 0;
+      h = zeroHash & mask;
+    } else h = hashWordPair(words[2 * i], words[2 * i + 1]) & mask;
+    for (;;) {
+      const k = table[2 * h];
+      if (k === v) {
+        table[2 * h + 1]++;
+        break;
+      }
+      if (k !== k) {
+        table[2 * h] = v;
+        table[2 * h + 1] = 1;
+        size++;
+        break;
+      }
+      h = (h + 1) & mask;
+    }
+    if (2 * size > cap) {
+      const old = table;
+      cap *= 2;
+      mask = cap - 1;
+      table = new Float64Array(2 * cap).fill(NaN);
+      for (let s = 0; s < old.length; s += 2) {
+        const k = old[s];
+        if (k !== k) continue;
+        let g = hashDouble(k) & mask;
+        while (table[2 * g] === table[2 * g]) g = (g + 1) & mask;
+        table[2 * g] = k;
+        table[2 * g + 1] = old[s + 1];
+      }
+    }
+  }
+  const uniques = new Float64Array(size);
+  let d = 0;
+  for (let s = 0; s < cap; s++) if (table[2 * s] === table[2 * s]) uniques[d++] = table[2 * s];
+  uniques.sort();
+  const runs = new Int32Array(size);
+  for (let j = 0; j < size; j++) {
+    const v = uniques[j];
+    let h = hashDouble(v) & mask;
+    while (table[2 * h] !== v) h = (h + 1) & mask;
+    runs[j] = table[2 * h + 1];
+  }
+  return { uniques, runs, present };
+}
+
+/** The present values sorted ascending, written out from their runs (a value repeated per row). */
+export function sortedFromRuns(r: ValueRuns): Float64Array {
+  const out = new Float64Array(r.present);
+  let at = 0;
+  for (let j = 0; j < r.uniques.length; j++) {
+    out.fill(r.uniques[j], at, at + r.runs[j]);
+    at += r.runs[j];
+  }
+  return out;
 }
 
 /**
@@ -155,18 +265,20 @@ export function featureData(problem: Problem, col: Column): FeatureData {
     // every row used (no missing target): the column itself, read only, not a copy
     const values = every ? col.values.subarray(0, n) : new Float64Array(n);
     if (!every) for (let i = 0; i < n; i++) values[i] = col.values[rows[i]];
-    const order = argsortPresent(values);
-    const sorted = new Float64Array(order.length);
-    for (let j = 0; j < order.length; j++) sorted[j] = values[order[j]];
+    const r = valueRuns(values);
+    let order: Int32Array | undefined;
     return {
       kind: 'numeric',
       name: col.name,
       column: col,
       values,
-      order,
-      sorted,
-      missing: n - order.length,
-      distinct: distinctOf(sorted),
+      uniques: r.uniques,
+      runs: r.runs,
+      get order(): Int32Array {
+        return (order ??= argsortPresent(values));
+      },
+      missing: n - r.present,
+      distinct: r.uniques.length,
       dates: col.dates === true,
     };
   }

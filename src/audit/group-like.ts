@@ -31,17 +31,7 @@ function valueSizes(f: FeatureData): number[] {
   const sizes: number[] = [];
   if (f.kind === 'categorical') {
     for (const c of f.counts) if (c > 0) sizes.push(c);
-  } else {
-    let run = 0;
-    for (let j = 0; j < f.order.length; j++) {
-      if (j > 0 && f.values[f.order[j]] !== f.values[f.order[j - 1]]) {
-        sizes.push(run);
-        run = 0;
-      }
-      run++;
-    }
-    if (run) sizes.push(run);
-  }
+  } else for (const c of f.runs) sizes.push(c);
   return sizes.sort((a, b) => a - b);
 }
 

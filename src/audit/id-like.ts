@@ -30,7 +30,7 @@ export function idLikeEvidence(f: FeatureData, n: number): IdLikeEvidence | null
   if (present < AUDIT_LIMITS.minRows || f.distinct < AUDIT_LIMITS.idShare * present) return null;
   if (f.kind === 'categorical') return { present, distinct: f.distinct, why: 'text' };
   if (f.dates || nameTokens(f.name).some((t) => DATE_WORDS.has(t))) return null;
-  for (const i of f.order) if (!Number.isInteger(f.values[i])) return null;
+  for (const v of f.uniques) if (!Number.isInteger(v)) return null;
   let up = 0;
   let down = 0;
   let prev = NaN;
@@ -45,8 +45,8 @@ export function idLikeEvidence(f: FeatureData, n: number): IdLikeEvidence | null
   }
   const steps = present - 1;
   if (up >= AUDIT_LIMITS.idShare * steps || down >= AUDIT_LIMITS.idShare * steps) return { present, distinct: f.distinct, why: 'monotone' };
-  const lo = f.values[f.order[0]];
-  const hi = f.values[f.order[f.order.length - 1]];
+  const lo = f.uniques[0];
+  const hi = f.uniques[f.uniques.length - 1];
   if (f.distinct >= 0.5 * (hi - lo + 1)) return { present, distinct: f.distinct, why: 'dense' };
   return null;
 }

@@ -118,7 +118,9 @@ function outOfFold(f: FeatureData, y: Target, setups: readonly FoldSetup[]): { r
   const total = setups.reduce((s, x) => s + x.fold.test.length, 0);
   const rows = new Int32Array(total);
   const predicted = new Float64Array(total);
-  const width = f.kind === 'numeric' ? f.order.length : 0;
+  // read once: `order` is made on first read (feature-data.ts)
+  const order = f.kind === 'numeric' ? f.order : new Int32Array(0);
+  const width = order.length;
   const buf = { rows: new Int32Array(width), xs: new Float64Array(width), codes: new Int32Array(width), values: new Float64Array(width) };
   let at = 0;
   for (const { fold, inTrain, weights, fallback } of setups) {
@@ -132,7 +134,7 @@ function outOfFold(f: FeatureData, y: Target, setups: readonly FoldSetup[]): { r
     }
     // the fold's training rows in feature order: the presorted order filtered by the mask
     let m = 0;
-    for (let j = 0; j < f.order.length; j++) if (inTrain[f.order[j]]) buf.rows[m++] = f.order[j];
+    for (let j = 0; j < order.length; j++) if (inTrain[order[j]]) buf.rows[m++] = order[j];
     const xs = buf.xs.subarray(0, m);
     for (let j = 0; j < m; j++) xs[j] = f.values[buf.rows[j]];
     let target: SortedTarget;

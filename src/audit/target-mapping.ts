@@ -44,11 +44,12 @@ function valueIds(f: FeatureData, n: number): { ids: Int32Array; count: number; 
     return { ids, count, present };
   }
   let count = 0;
-  for (let j = 0; j < f.order.length; j++) {
-    if (j > 0 && f.values[f.order[j]] !== f.values[f.order[j - 1]]) count++;
-    ids[f.order[j]] = count;
+  const order = f.order;
+  for (let j = 0; j < order.length; j++) {
+    if (j > 0 && f.values[order[j]] !== f.values[order[j - 1]]) count++;
+    ids[order[j]] = count;
   }
-  return { ids, count: f.order.length ? count + 1 : 0, present: f.order.length };
+  return { ids, count: order.length ? count + 1 : 0, present: order.length };
 }
 
 export function targetMapping(f: FeatureData, y: Target, minRows: number = AUDIT_LIMITS.minRows): TargetMapping | null {
@@ -105,18 +106,19 @@ export interface TargetMeanCoding {
  * mean of the target over its own rows only by accident, and then for few values.
  */
 export function targetMeanCoding(f: FeatureData, y: Target): TargetMeanCoding | null {
-  if (f.kind !== 'numeric' || f.order.length < AUDIT_LIMITS.minRows) return null;
+  if (f.kind !== 'numeric' || f.values.length - f.missing < AUDIT_LIMITS.minRows) return null;
+  const order = f.order;
   // runs of equal values in sorted order
   const starts: number[] = [];
-  for (let j = 0; j < f.order.length; j++) if (j === 0 || f.values[f.order[j]] !== f.values[f.order[j - 1]]) starts.push(j);
+  for (let j = 0; j < order.length; j++) if (j === 0 || f.values[order[j]] !== f.values[order[j - 1]]) starts.push(j);
   // a value per level of an encoded column: at most one value per 2 rows on average
-  if (starts.length < 5 || starts.length > f.order.length / 2) return null;
+  if (starts.length < 5 || starts.length > order.length / 2) return null;
   // decimals written: the most among (up to 200 of) the values, capped at 6, from their shortest text
   let decimals = 0;
   const step = Math.max(1, Math.floor(starts.length / 200));
   for (let r = 0; r < starts.length; r += step) {
     const j = starts[r];
-    const t = String(f.values[f.order[j]]);
+    const t = String(f.values[order[j]]);
     const dot = t.indexOf('.');
     if (t.includes('e')) decimals = 6;
     else if (dot >= 0) decimals = Math.max(decimals, Math.min(6, t.length - dot - 1));
@@ -127,15 +129,15 @@ export function targetMeanCoding(f: FeatureData, y: Target): TargetMeanCoding | 
   for (let c = 0; c < classes; c++) {
     let gap = 0;
     for (let r = 0; r < starts.length && gap <= tol; r++) {
-      const end = r + 1 < starts.length ? starts[r + 1] : f.order.length;
+      const end = r + 1 < starts.length ? starts[r + 1] : order.length;
       let sum = 0;
       for (let j = starts[r]; j < end; j++) {
-        const i = f.order[j];
+        const i = order[j];
         sum += y.task === 'classification' ? (y.codes[i] === c ? 1 : 0) : y.values[i];
       }
-      gap = Math.max(gap, Math.abs(sum / (end - starts[r]) - f.values[f.order[starts[r]]]));
+      gap = Math.max(gap, Math.abs(sum / (end - starts[r]) - f.values[order[starts[r]]]));
     }
     if (gap <= tol && (best === null || gap < best)) best = gap;
   }
-  return best === null ? null : { values: starts.length, rows: f.order.length, gap: best };
+  return best === null ? null : { values: starts.length, rows: order.length, gap: best };
 }

@@ -7,6 +7,7 @@
  */
 import type { Problem } from '../data/problem.js';
 import type { BuiltPlan } from '../plans/types.js';
+import { sortedFromRuns, valueRuns } from './feature-data.js';
 import { numericProfile } from './numeric-summary.js';
 import { sampleSkewness } from './skewness.js';
 import type { TargetProfile } from './types.js';
@@ -21,7 +22,7 @@ export function targetProfile(problem: Problem, plan: BuiltPlan): TargetProfile 
   const y = problem.target;
   const n = problem.rows.length;
   if (y.task === 'regression') {
-    return { task: 'regression', summary: numericProfile(Float64Array.from(y.values).sort()), skewness: sampleSkewness(y.values) };
+    return { task: 'regression', summary: numericProfile(sortedFromRuns(valueRuns(y.values))), skewness: sampleSkewness(y.values) };
   }
   const counts = new Array<number>(y.classes.length).fill(0);
   for (const c of y.codes) counts[c]++;

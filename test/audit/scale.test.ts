@@ -1,11 +1,16 @@
 /**
- * The audit at scale (issue #14): the radix argsort against JavaScript's own comparison sort
- * (Array.prototype.sort, stable since ES2019), and the seeded stratified sample above the row
- * limit (its size, strata shares and what the report says about it).
+ * The audit at scale (issue #14): the radix argsort and the value runs of one hashing pass
+ * against JavaScript's own comparison sort (Array.prototype.sort, stable since ES2019), the
+ * column profile from those runs against simple-statistics, and the seeded stratified sample
+ * above the row limit (its size, strata shares and what the report says about it).
  */
 import { describe, expect, it } from 'vitest';
 import { audit, AUDIT_LIMITS } from '../../src/audit/index.js';
-import { argsortPresent } from '../../src/audit/feature-data.js';
+import { mean, quantile, sampleStandardDeviation } from 'simple-statistics';
+import { profileColumns } from '../../src/audit/column-profile.js';
+import { argsortPresent, featuresOf, sortedFromRuns, valueRuns } from '../../src/audit/feature-data.js';
+import { distinctSorted, numericProfile, sortedPresent } from '../../src/audit/numeric-summary.js';
+import { defineProblem } from '../../src/data/problem.js';
 import { sampleRows } from '../../src/audit/sample.js';
 import type { Column, Table } from '../../src/data/types.js';
 import { createRng } from '../../src/rng.js';
@@ -72,5 +77,81 @@ describe('sample above the row limit', () => {
     expect(r.duplicates.exactRows).toBeGreaterThan(AUDIT_LIMITS.sampleRows);
     const small = audit(bigTable(1000), { target: 'y' });
     expect(small.sample).toBeUndefined();
+  });
+});
+
+/** Runs of equal values of the present values sorted by JavaScript's own comparison sort, -0 read as 0. */
+function referenceRuns(v: Float64Array): { uniques: number[]; runs: number[] } {
+  const present = Array.from(v).filter((x) => !Number.isNaN(x)).sort((a, b) => a - b);
+  const uniques: number[] = [];
+  const runs: number[] = [];
+  for (let j = 0; j < present.length; j++) {
+    if (j > 0 && present[j] === present[j - 1]) runs[runs.length - 1]++;
+    else {
+      uniques.push(present[j] === 0 ? 0 : present[j]);
+      runs.push(1);
+    }
+  }
+  return { uniques, runs };
+}
+
+describe('value runs: one hashing pass per column (issue 14)', () => {
+  it('gives the runs of the sorted column, NaN left out, -0 counted as 0, at sizes that grow the table (reference: Array.prototype.sort)', () => {
+    const rng = createRng(11);
+    for (const [n, spread] of [[0, 1], [1, 1], [60, 5], [5000, 7], [5000, 1e6], [100_000, 300], [100_000, 1e7]] as const) {
+      const v = new Float64Array(n);
+      for (let i = 0; i < n; i++) {
+        const r = rng.next();
+        v[i] = r < 0.05 ? NaN : r < 0.08 ? -0 : r < 0.11 ? 0 : r < 0.12 ? (rng.next() < 0.5 ? Infinity : -Infinity) : Math.round((rng.next() - 0.5) * spread) / 4;
+      }
+      const ref = referenceRuns(v);
+      const got = valueRuns(v);
+      if (n >= 5000) expect(ref.uniques.length).toBeGreaterThan(n > 5000 && spread > 1000 ? 1024 : 4);
+      expect(Array.from(got.uniques)).toEqual(ref.uniques);
+      expect(Array.from(got.runs)).toEqual(ref.runs);
+      expect(got.present).toBe(ref.runs.reduce((s, c) => s + c, 0));
+      // the sorted column written out from the runs is the sorted column
+      const sorted = Array.from(sortedPresent(v), (x) => (x === 0 ? 0 : x));
+      expect(Array.from(sortedFromRuns(got))).toEqual(sorted);
+    }
+  });
+
+  it('profiles a numeric column from its runs as from a sort of the column, and runs lent by the features change nothing (reference: simple-statistics)', () => {
+    const rng = createRng(12);
+    const n = 30_000;
+    const a = new Float64Array(n);
+    const b = new Float64Array(n);
+    const codes = new Int32Array(n);
+    for (let i = 0; i < n; i++) {
+      a[i] = rng.next() < 0.1 ? NaN : Math.round(100 * (rng.next() - 0.3)) / 10;
+      b[i] = rng.next() < 0.05 ? -0 : Math.exp(3 * rng.next());
+      codes[i] = rng.int(2);
+    }
+    const columns: Column[] = [
+      { kind: 'numeric', name: 'a', position: 0, values: a, missing: a.filter((x) => Number.isNaN(x)).length },
+      { kind: 'numeric', name: 'b', position: 1, values: b, missing: 0 },
+      { kind: 'categorical', name: 'y', position: 2, codes, levels: ['p', 'q'], missing: 0 },
+    ];
+    const lines = Int32Array.from({ length: n }, (_, i) => i + 2);
+    const table: Table = { source: 'runs.csv', rows: n, columns, byName: new Map(columns.map((c) => [c.name, c])), fingerprint: { sha256: '0'.repeat(64), rows: n, columns: 3, schema: [['a', 'numeric'], ['b', 'numeric'], ['y', 'categorical']] }, lines, warnings: [] };
+    const problem = defineProblem(table, { target: 'y' });
+    const lent = profileColumns(table, problem, featuresOf(problem));
+    expect(lent).toEqual(profileColumns(table, problem));
+    expect(lent.length).toBe(3);
+    for (const [j, values] of [a, b].entries()) {
+      const sorted = sortedPresent(values);
+      const p = lent[j];
+      expect(p.distinct).toBe(distinctSorted(sorted));
+      // the same figures, bit for bit, as from the sorted column (-0 read as 0; JSON writes both as 0)
+      expect(p.numeric).toEqual(numericProfile(sorted.map((x) => (x === 0 ? 0 : x))));
+      const xs = Array.from(sorted);
+      const [q1, med, q3] = quantile(xs, [0.25, 0.5, 0.75]);
+      const rel = (x: number, y: number): number => Math.abs(x - y) / Math.max(1, Math.abs(y));
+      expect(rel(p.numeric!.q1, q1)).toBeLessThan(1e-12);
+      expect(rel(p.numeric!.median, med)).toBeLessThan(1e-12);
+      expect(rel(p.numeric!.q3, q3)).toBeLessThan(1e-12);
+      expect(rel(p.numeric!.mean, mean(xs))).toBeLessThan(1e-12);
+      expect(rel(p.numeric!.sd!, sampleStandardDeviation(xs))).toBeLessThan(1e-12);
+    }
   });
 });
