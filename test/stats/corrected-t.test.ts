@@ -100,4 +100,31 @@ describe('correctedT: paired corrected resampled t test (Nadeau & Bengio 2003)',
     expect(() => correctedT([1, Number.NaN], [2, 3], TEN_FOLD)).toThrow(InputError);
     expect(() => correctedT([1, 2], [2, Number.NaN], TEN_FOLD)).toThrow('correctedT: b[1] is NaN; filter missing scores before calling');
   });
+
+  it('two folds (the fewest allowed): df 1, the Cauchy closed form and the NIST t_{1,0.975} = 12.706', () => {
+    // d = 1, 2: mean 1.5, s_d^2 = 0.5, corrected variance (1/2 + 1/9) 0.5 = 11/36, t = 1.5 / sqrt(11/36).
+    // With df = 1 the t distribution is Cauchy: two-sided p = 1 - 2 atan(|t|) / pi (Abramowitz &
+    // Stegun sec. 26.7, from memory); the interval half width is 12.706 SE (NIST e-Handbook 1.3.6.7.2).
+    const r = correctedT([1, 2], [0, 0], TEN_FOLD);
+    const se = Math.sqrt(11 / 36);
+    expect(r.df).toBe(1);
+    expect(Math.abs(r.t! - 1.5 / se)).toBeLessThan(1e-12);
+    expect(Math.abs(r.p! - (1 - (2 * Math.atan(1.5 / se)) / Math.PI))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![1] - (1.5 + 12.706 * se))).toBeLessThan(6e-4 * se);
+    expect(Math.abs(r.ci95![0] - (1.5 - 12.706 * se))).toBeLessThan(6e-4 * se);
+  });
+
+  it('equal differences that are not dyadic: the mean is the difference itself and no spread is claimed', () => {
+    // simple-statistics gives mean([0.1, 0.1, 0.1]) = 0.10000000000000002 and a sample variance of
+    // about 3e-34 (its compensated sum); the flat case must not turn that noise into a t of 1e16
+    expect(correctedT([0.1, 0.1, 0.1], [0, 0, 0], TEN_FOLD)).toEqual({ meanDiff: 0.1, ci95: null, t: null, df: 2, p: null });
+  });
+
+  it('refuses a variance floor that is not a finite number >= 0, naming the value; a bad level is refused too', () => {
+    expect(() => correctedT(a, b, TEN_FOLD, 0.95, Infinity)).toThrow('correctedT: varianceFloor must be a finite number >= 0, got Infinity');
+    expect(() => correctedT(a, b, TEN_FOLD, 0.95, Number.NaN)).toThrow('correctedT: varianceFloor must be a finite number >= 0, got NaN');
+    expect(() => correctedT(a, b, TEN_FOLD, 0.95, '0' as never)).toThrow('correctedT: varianceFloor must be a finite number >= 0, got 0');
+    expect(() => correctedT(a, b, TEN_FOLD, 1)).toThrow('correctedT: level must be a number strictly between 0 and 1, got 1');
+    expect(() => correctedT(a, b, { testRows: 0, trainRows: 1 })).toThrow('correctedT: correction.testRows must be a finite number > 0, got 0');
+  });
 });

@@ -68,4 +68,22 @@ describe('Holm (1979) step-down', () => {
     expect(() => holm([Number.NaN], 0.05)).toThrow(/\[0, 1\]/);
     expect(() => holm([0.1], 0)).toThrow(/alpha/);
   });
+
+  it('rejects at an adjusted p equal to alpha (Holm 1979: reject while p_(i) <= alpha / (m - i + 1)), by hand', () => {
+    // m = 2: p_(1) = 0.025 = 0.05 / 2 is rejected at 0.05; its adjusted p is exactly 2 * 0.025 = 0.05
+    // (0.025 is not exact in binary, but 2 * 0.025 rounds to the double 0.05)
+    expect(2 * 0.025).toBe(0.05);
+    expect(holm([0.025, 0.5], 0.05)).toEqual({ adjusted: [0.05, 0.5], rejected: [true, false] });
+    // the step-down stops at the first kept hypothesis: a larger p behind it is kept too
+    expect(holm([0.01, 0.04, 0.045], 0.05)).toEqual({ adjusted: [0.03, 0.08, 0.08], rejected: [true, false, false] });
+  });
+
+  it('alpha must lie strictly between 0 and 1; p-values at 0 and 1 are fine, outside [0, 1] refused, with the value named', () => {
+    expect(() => holm([0.1], 1)).toThrow('holm: alpha must be above 0 and below 1, got 1');
+    expect(() => holm([0.1], Number.NaN)).toThrow(/alpha/);
+    expect(holm([0.1], 0.999).rejected).toEqual([true]);
+    expect(holm([0, 1], 0.05)).toEqual({ adjusted: [0, 1], rejected: [true, false] });
+    expect(() => holm([0.2, -0.01], 0.05)).toThrow('holm: every p-value must be in [0, 1], got -0.01');
+    expect(() => holm([1.0000001], 0.05)).toThrow('holm: every p-value must be in [0, 1], got 1.0000001');
+  });
 });

@@ -75,3 +75,101 @@ describe('repeats for a drop', () => {
     expect(a.mdd).toBeGreaterThan(limit * 0.9);
   });
 });
+
+describe('power: outside reference values and the edges of the search (issue 24, mutation testing)', () => {
+  // R's stats::power.t.test help page examples (two-sample, two-sided, sd 1, level 0.05; values
+  // from memory of that page's output): power.t.test(n = 20, delta = 1) gives power = 0.8689528;
+  // power.t.test(power = .90, delta = 1) gives n = 22.02110. R computes the power of the two-sided
+  // test as the upper tail only, P(T' > t_{df, 0.975}) with df = 2(n - 1) and noncentrality
+  // delta sqrt(n / 2): the one-sided power at alpha 0.025 here.
+  it('powerAt reproduces power.t.test(n = 20, delta = 1): 0.8689528', () => {
+    expect(Math.abs(powerAt(Math.sqrt(20 / 2), 2 * (20 - 1), 0.025) - 0.8689528)).toBeLessThan(1e-7);
+  });
+
+  it('mddInSe reproduces power.t.test(power = .90, delta = 1): n = 22.02110, so delta sqrt(n/2) = 3.31821 standard errors', () => {
+    const n = 22.0211;
+    // R prints n to 5 decimals: sqrt(n / 2) is known to about 4e-7
+    expect(Math.abs(mddInSe(2 * (n - 1), { alpha: 0.025, power: 0.9 }) - Math.sqrt(n / 2))).toBeLessThan(1e-6);
+  });
+
+  it('one-sample t test, n = 10, effect size 1, one-sided 0.05: power 0.8975 (G*Power and R, from memory)', () => {
+    expect(Math.abs(powerAt(Math.sqrt(10), 9, 0.05) - 0.8975)).toBeLessThan(5e-5);
+  });
+
+  it('few degrees of freedom, where the starting bracket is too low: the MDD still has exactly the asked power', () => {
+    // df 2, alpha 0.01, power 0.9: t_{2,0.99} + t_{2,0.90} + 1 = 9.85 has power 0.856 only
+    // (jstat's noncentral t), so the bracket must be widened before bisecting
+    const s = { alpha: 0.01, power: 0.9 };
+    const m = mddInSe(2, s);
+    expect(powerAt(9.85, 2, 0.01)).toBeLessThan(0.9);
+    expect(m).toBeGreaterThan(9.85);
+    expect(Math.abs(powerAt(m, 2, 0.01) - 0.9)).toBeLessThan(1e-8);
+    expect(powerAt(m * (1 - 1e-6), 2, 0.01)).toBeLessThan(0.9);
+    // the same answer on a second call (the cache) and for another setting a different one
+    expect(mddInSe(2, s)).toBe(m);
+    expect(mddInSe(2, { alpha: 0.01, power: 0.8 })).toBeLessThan(m);
+    expect(mddInSe(3, s)).toBeLessThan(m);
+  });
+
+  it('the MDD at the usual setting is the delta of power 0.8, to the bisection tolerance (jstat noncentral t)', () => {
+    for (const df of [1, 4, 9, 29]) {
+      const m = mddInSe(df, S);
+      expect(Math.abs(powerAt(m, df, 0.05) - 0.8)).toBeLessThan(1e-8);
+    }
+  });
+
+  it('refuses settings outside 0 < alpha < 0.5 and alpha < power < 1, and df <= 0', () => {
+    expect(() => mddInSe(9, { alpha: 0, power: 0.8 })).toThrow('--alpha 0: expected a number above 0 and below 0.5 (such as 0.05)');
+    expect(() => mddInSe(9, { alpha: 0.5, power: 0.8 })).toThrow('--alpha 0.5: expected a number above 0 and below 0.5 (such as 0.05)');
+    expect(() => mddInSe(9, { alpha: 0.05, power: 0.05 })).toThrow('--power 0.05: expected a number above alpha and below 1 (such as 0.8)');
+    expect(() => mddInSe(9, { alpha: 0.05, power: 1 })).toThrow('--power 1: expected a number above alpha and below 1 (such as 0.8)');
+    expect(() => mddLimit({ variance: 1, testRows: 1, trainRows: 9 }, { alpha: 0.05, power: 1 })).toThrow(/--power 1/);
+    expect(mddInSe(9, { alpha: 0.4999, power: 0.5 })).toBeGreaterThan(0);
+    expect(() => powerAt(1, 0, 0.05)).toThrow('powerAt: df must be > 0, got 0');
+    expect(powerAt(1, 0.5, 0.05)).toBeGreaterThan(0.05);
+  });
+
+  it('correctedSe refuses fewer than 2 or fractional folds, a negative variance and empty folds; 2 folds and 0 variance are fine', () => {
+    const ok = { folds: 2, variance: 0, testRows: 1, trainRows: 1 };
+    expect(correctedSe(ok)).toBe(0);
+    expect(correctedSe({ ...ok, variance: 1 })).toBe(Math.sqrt(1 / 2 + 1));
+    expect(() => correctedSe({ ...ok, folds: 1 })).toThrow('power: need at least 2 paired folds, got 1');
+    expect(() => correctedSe({ ...ok, folds: 2.5 })).toThrow('power: need at least 2 paired folds, got 2.5');
+    const bad = 'power: the variance must be >= 0 and the fold sizes > 0';
+    expect(() => correctedSe({ ...ok, variance: -1 })).toThrow(bad);
+    expect(() => correctedSe({ ...ok, testRows: 0 })).toThrow(bad);
+    expect(() => correctedSe({ ...ok, trainRows: 0 })).toThrow(bad);
+    expect(() => correctedSe({ ...ok, variance: Number.NaN })).toThrow(bad);
+  });
+
+  it('minimalDetectable is mddInSe(J - 1) corrected standard errors', () => {
+    const x = { folds: 3, variance: 0.0004, testRows: 100, trainRows: 900 };
+    expect(minimalDetectable(x, S)).toBe(mddInSe(2, S) * correctedSe(x));
+  });
+});
+
+describe('repeatsFor at the edges', () => {
+  const x = { variance: 0.0004, testRows: 100, trainRows: 900, foldsPerRepeat: 10 };
+  const mddAt = (r: number): number => minimalDetectable({ ...x, folds: 10 * r }, S);
+
+  it('a target equal to the MDD of R repeats is met by R repeats, not R + 1 (at most the target)', () => {
+    expect(repeatsFor(mddAt(3), x, S)).toEqual({ repeats: 3, mdd: mddAt(3), limit: mddLimit(x, S) });
+    expect(repeatsFor(mddAt(1000), x, S).repeats).toBe(1000);
+    expect(repeatsFor(mddAt(1000) * (1 - 1e-9), x, S).repeats).toBeNull();
+    expect(repeatsFor(mddAt(1000) * (1 - 1e-9), x, S).mdd).toBe(mddAt(1000));
+  });
+
+  it('a target met by one repeat gives 1; one fold per repeat still pairs at least 2 folds', () => {
+    expect(repeatsFor(1, x, S)).toEqual({ repeats: 1, mdd: mddAt(1), limit: mddLimit(x, S) });
+    const one = { ...x, foldsPerRepeat: 1 };
+    const two = minimalDetectable({ ...x, folds: 2 }, S);
+    expect(repeatsFor(1, one, S)).toEqual({ repeats: 1, mdd: two, limit: mddLimit(x, S) });
+    expect(repeatsFor(two, one, S, 1).repeats).toBe(1);
+    expect(repeatsFor(mddAt(2), x, S, 2).repeats).toBe(2);
+  });
+
+  it('refuses a target that is not above 0', () => {
+    expect(() => repeatsFor(0, x, S)).toThrow('the drop to detect must be > 0, got 0');
+    expect(() => repeatsFor(Number.NaN, x, S)).toThrow(/must be > 0/);
+  });
+});

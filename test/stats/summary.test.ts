@@ -231,4 +231,29 @@ describe('summarize: binomial floor and range (issue 24 parts 2 and 5)', () => {
     expect(err[0]).toBe(0);
     expect(err[1]).toBe(summarize([0.1, 3, 0.2], FIVE).ci95![1]);
   });
+
+  it('two equal accuracies already get the floored interval (df 1: t_{1,0.975} = 12.706, NIST table); one gets none', () => {
+    // 2 folds of 20 test and 80 training rows, both all correct: p~ = 102/104 over N = 100 rows, and
+    // the corrected variance of the mean is the floor itself, so half = 12.706 sqrt(p~ (1 - p~) / 100)
+    const s = summarize([1, 1], FIVE, 0.95, ACCURACY);
+    expect(s.sd).toBe(0);
+    const half = 12.706 * Math.sqrt(((102 / 104) * (2 / 104)) / 100);
+    expect(s.ci95![1]).toBe(1);
+    expect(Math.abs(s.ci95![0] - (1 - half))).toBeLessThan(6e-4 * 0.014);
+    expect(summarize([1], FIVE, 0.95, ACCURACY)).toMatchObject({ n: 1, sd: null, ci95: null });
+  });
+});
+
+describe('summarize: extremes and equal values (issue 24, mutation testing)', () => {
+  it('min and max wherever they stand in the input', () => {
+    // by inspection of the ten hand-derived values above and a reordering of them
+    const values = [0.78, 0.82, 0.79, 0.81, 0.8, 0.8, 0.77, 0.83, 0.76, 0.84];
+    expect(summarize(values, TEN_FOLD)).toMatchObject({ min: 0.76, max: 0.84 });
+    expect(summarize([0.84, ...values.slice(0, 9)], TEN_FOLD)).toMatchObject({ min: 0.76, max: 0.84 });
+  });
+
+  it('equal values that are not dyadic report the value itself, not a recomputation', () => {
+    // simple-statistics' mean([0.1, 0.1, 0.1]) is 0.10000000000000002
+    expect(summarize([0.1, 0.1, 0.1], TEN_FOLD)).toEqual({ n: 3, mean: 0.1, median: 0.1, sd: 0, min: 0.1, max: 0.1, q1: 0.1, q3: 0.1, ci95: null });
+  });
 });

@@ -199,3 +199,46 @@ describe('wilcoxon: ties within a tolerance tied to the test fold size (issue 24
     expect(() => wilcoxon([1, 2], [2, 1], { tolerance: -1 })).toThrow('wilcoxon: tolerance must be a finite number >= 0, got -1');
   });
 });
+
+describe('wilcoxon: small cases by hand and the edges of the options (issue 24, mutation testing)', () => {
+  // Exact null by enumeration of the 2^n sign patterns (Hollander & Wolfe sec. 3.1; Wilcoxon 1945).
+  it('one pair: n = 1, T+ = 0, T- = 1; P(T+ <= 0) = 1/2, so p = min(1, 2 * 1/2) = 1', () => {
+    expect(wilcoxon([1], [2])).toEqual({ n: 1, tPlus: 0, tMinus: 1, p: 1, method: 'exact' });
+  });
+
+  it('T+ at the centre: d = 1, 2, -3 gives T+ = T- = 3; P(T+ <= 3) = P(T+ >= 3) = 5/8, and p is capped at 1', () => {
+    // sign patterns with T+ <= 3: {}, {1}, {2}, {3}, {1,2} = 5 of 8, so 2 * 5/8 = 1.25 -> 1
+    expect(wilcoxon([1, 2, -3], zeros(3))).toEqual({ n: 3, tPlus: 3, tMinus: 3, p: 1, method: 'exact' });
+  });
+
+  it('four differences 1, 2, 3, 4 all positive: T+ = 10, exact two-sided p = 2/16', () => {
+    expect(wilcoxon([1, 2, 3, 4], zeros(4))).toEqual({ n: 4, tPlus: 10, tMinus: 0, p: 0.125, method: 'exact' });
+  });
+
+  it('a difference exactly at the tolerance counts as zero (|d| <= tolerance)', () => {
+    expect(wilcoxon([1.5, 3], [1, 1], { tolerance: 0.5 })).toEqual({ n: 1, tPlus: 1, tMinus: 0, p: 1, method: 'exact' });
+  });
+
+  it('magnitudes within the tolerance of the smallest of their group tie; one just past it does not', () => {
+    // d = -1, 1.25, -2 with tolerance 0.25: |d| 1 and 1.25 share ranks 1, 2 (midrank 1.5), 2 takes
+    // rank 3, so T+ = 1.5; with tolerance 0.2 they are apart: ranks 1, 2, 3 and T+ = 2
+    expect(wilcoxon([-1, 1.25, -2], zeros(3), { tolerance: 0.25 })).toMatchObject({ tPlus: 1.5, tMinus: 4.5 });
+    expect(wilcoxon([-1, 1.25, -2], zeros(3), { tolerance: 0.2 })).toMatchObject({ tPlus: 2, tMinus: 4 });
+  });
+
+  it('n = 0 keeps the asked method; 500 differences are allowed with method exact, and normal has no such cap', () => {
+    expect(wilcoxon([0.5], [0.5], { method: 'normal' })).toEqual({ n: 0, tPlus: 0, tMinus: 0, p: 1, method: 'normal' });
+    const r = wilcoxon(withTPlus(500, 0), zeros(500), { method: 'exact' });
+    expect([r.n, r.tPlus, r.method]).toEqual([500, 0, 'exact']);
+    expect(r.p).toBeLessThan(1e-100);
+    expect(wilcoxon(withTPlus(501, 0), zeros(501), { method: 'normal' }).n).toBe(501);
+  });
+
+  it('refuses a tolerance that is not a finite number >= 0, and a continuity that is not boolean, naming the value', () => {
+    expect(() => wilcoxon([1], [2], { tolerance: Infinity })).toThrow('wilcoxon: tolerance must be a finite number >= 0, got null');
+    expect(() => wilcoxon([1], [2], { tolerance: Number.NaN })).toThrow(UsageError);
+    expect(() => wilcoxon([1], [2], { tolerance: '0' as never })).toThrow('wilcoxon: tolerance must be a finite number >= 0, got "0"');
+    expect(() => wilcoxon([1], [2], { continuity: 'yes' as never })).toThrow('wilcoxon: continuity must be true or false, got "yes"');
+    expect(wilcoxon([1], [2], { continuity: false }).n).toBe(1);
+  });
+});
