@@ -104,7 +104,7 @@ export function jobsOf(text: string, overCores: boolean | undefined, io: Io): nu
   return jobs;
 }
 
-/** Refuses outputs that would overwrite the data file or each other (see guard.ts). */
-export function checkOutputs(data: string, outputs: readonly (readonly [string, string | undefined])[]): void {
-  guardPaths([{ option: 'the data file', path: data }], outputs.map(([option, path]) => ({ option, path })));
+/** Refuses outputs that would overwrite the data file, another input (such as --costs) or each other (see guard.ts). */
+export function checkOutputs(data: string, outputs: readonly (readonly [string, string | undefined])[], inputs: readonly (readonly [string, string | undefined])[] = []): void {
+  guardPaths([{ option: 'the data file', path: data }, ...inputs.map(([option, path]) => ({ option, path }))], outputs.map(([option, path]) => ({ option, path })));
 }

@@ -5,6 +5,7 @@
  * run like eval (src/growth/run-growth.ts): worker threads, shards for `foldwise merge`, a
  * journal to resume from, `command:` learners. Exit codes: 0, 2 bad input, 130/143 stopped.
  */
+import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
 import { availableParallelism } from 'node:os';
 import { resolve } from 'node:path';
 import { Option, type Command } from 'commander';
@@ -27,7 +28,7 @@ import type { Io } from './io.js';
 import { writeOutputs } from './output.js';
 import { progressFor } from './progress.js';
 
-interface GrowthFlags extends DataFlags, CommandFlags {
+interface GrowthFlags extends DataFlags, CommandFlags, CostsFlags {
   plan: string;
   stratify: boolean;
   learner?: string[];
@@ -59,7 +60,8 @@ export function parseSizes(text: string): number[] {
 
 async function runGrowth(data: string, flags: GrowthFlags, io: Io): Promise<number> {
   if ([flags.json, flags.markdown, flags.html].filter((f) => f === '-').length > 1) throw new UsageError('--json -, --markdown - and --html -: only one of them can go to standard output');
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]]);
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal]], [['--costs', flags.costs]]);
+  const costs = costsOf(flags);
   if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const sizes = parseSizes(flags.sizes ?? '');
   const seed = parseSeed(flags.seed);
@@ -89,6 +91,7 @@ async function runGrowth(data: string, flags: GrowthFlags, io: Io): Promise<numb
       impute: flags.impute,
       onFoldError: flags.onFoldError,
       sizes,
+      ...(costs ? { costs } : {}),
     },
     {
       commands,
@@ -141,6 +144,7 @@ export function registerGrowth(prog: Command, io: Io, setCode: (code: number) =>
     .option('--learner <spec>', 'learner (repeatable; as for eval, including command:NAME with --command)', collect)
     .option('--no-baseline', 'leave the baseline out')
     .option('--metric <name>', 'the metric of the curves (default: the task\'s headline)')
+    .option('--costs <file>', COSTS_HELP)
     .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
     .addOption(new Option('--impute <how>', 'numeric imputation, fitted on each training subset').choices(IMPUTE_CHOICES).default('median'))
     .option('--json <file>', 'write the JSON report to a file, or - for standard output')

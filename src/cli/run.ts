@@ -42,6 +42,7 @@ import { registerRender } from './render.js';
 import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
+import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
 import { writeOutputs } from './output.js';
 import { checkPredictionsPath, withPredictions } from './predictions-output.js';
 import { runCleanups } from './cleanup.js';
@@ -67,7 +68,7 @@ export { addDataOptions, checkOutputs, loadOptionsOf, parseDelimiter, parseJobs,
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
 
-interface EvalFlags extends DataFlags, CommandFlags {
+interface EvalFlags extends DataFlags, CommandFlags, CostsFlags {
   onFoldError: OnFoldError;
   plan: string;
   stratify: boolean;
@@ -118,9 +119,10 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     throw new UsageError('--predictions - and a report to -: only one of them can go to standard output');
   }
   checkPredictionsPath(flags.predictions);
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]]);
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--journal', flags.journal], ['--predictions', flags.predictions]], [['--costs', flags.costs]]);
   if (flags.journal === '-') throw new UsageError('--journal -: a journal is a file that is read back on resume; give a file name');
   const seed = parseSeed(flags.seed);
+  const costs = costsOf(flags);
   const jobs = jobsOf(flags.jobs, flags.overCores, io);
   const shard = flags.shard === undefined ? undefined : parseShard(flags.shard);
   if (shard && (!flags.json || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown); then foldwise merge the parts');
@@ -154,6 +156,7 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
     ...(flags.importanceClusters ? { importanceClusters: true } : {}),
     ...(flags.threshold !== undefined ? { threshold: flags.threshold } : {}),
     ...(flags.thresholdFolds !== undefined ? { thresholdFolds: parseThresholdFolds(flags.thresholdFolds) } : {}),
+    ...(costs ? { costs } : {}),
   }, {
     commands,
     jobs,
@@ -246,6 +249,7 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--learner <spec>', 'learner NAME or NAME:key=value,... (repeatable; see foldwise learners)', collect)
     .option('--no-baseline', 'do not evaluate the baseline beside the learners')
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline; see foldwise metrics)', collect)
+    .option('--costs <file>', COSTS_HELP)
     .option('--seed <n>', 'random seed, a whole number from 0 to 4294967295', String(DEFAULT_SEED))
     .addOption(new Option('--impute <how>', 'numeric imputation, fitted on training rows').choices(IMPUTE_CHOICES).default('median'))
     .option('--final', 'also score the holdout part of a holdout plan, once')

@@ -4,6 +4,7 @@
  * eval report's format with a `source` field, so compare, gate and render read it.
  * Exit codes: 0 written, 2 bad input or usage.
  */
+import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
 import { Option, type Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { loadTable, sniffFormat } from '../data/load-table.js';
@@ -21,7 +22,7 @@ import { writeOutputs } from './output.js';
 import { parseDelimiter } from './data-options.js';
 import type { Io } from './io.js';
 
-interface ScoreFlags {
+interface ScoreFlags extends CostsFlags {
   actual?: string;
   predicted?: string;
   fold?: string;
@@ -84,6 +85,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
     .addOption(new Option('--task <task>', 'force the task instead of inferring it').choices(TASKS))
     .option('--train-rows <n>', 'training rows of every fold, when the file does not say (for the corrected intervals)')
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline)', collect)
+    .option('--costs <file>', COSTS_HELP)
     .option('--slice <column>', 'also score every metric per level of this column of the predictions file (repeatable; numeric columns are cut into quantile bins)', collect)
     .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all lines (default ${DEFAULT_SLICE_BINS})`)
     .option('--delimiter <char>', 'field separator, one character; "tab" or "\\t" for tab', ',')
@@ -100,6 +102,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
       }
       if (flags.prob !== undefined && flags.probColumns !== undefined) throw new UsageError('--prob and --prob-columns: give one of them');
       const trainRows = parseTrainRows(flags.trainRows);
+      const costs = costsOf(flags);
       const text = await readAll(path, io);
       const report = scoreReport(text, path, {
         actual: flags.actual,
@@ -114,6 +117,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
         delimiter: parseDelimiter(flags.delimiter),
         metrics: flags.metric,
         trainRows,
+        ...(costs ? { costs } : {}),
         ...(flags.slice?.length ? { slice: flags.slice, sliceBins: parseSliceBins(flags.sliceBins) } : {}),
       });
       for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);

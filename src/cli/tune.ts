@@ -23,7 +23,7 @@ import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
-import { DEFAULT_SEED } from '../run/prepare.js';
+import { costMatrixOf, DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, type TuneOptions, tuneWithPredictions } from '../search/tune.js';
@@ -37,8 +37,9 @@ import { addDataOptions, checkOutputs, type DataFlags, jobsOf, loadOptionsOf, pa
 import type { Io } from './io.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
+import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
 
-interface TuneFlags extends DataFlags, CommandFlags {
+interface TuneFlags extends DataFlags, CommandFlags, CostsFlags {
   plan: string;
   inner: string;
   stratify: boolean;
@@ -87,8 +88,9 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   }
   if (flags.predictions === '-' && [flags.json, flags.markdown, flags.html].includes('-')) throw new UsageError('--predictions - and another output to -: only one of them can go to standard output');
   checkPredictionsPath(flags.predictions);
-  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--predictions', flags.predictions]]);
+  checkOutputs(data, [['--json', flags.json], ['--markdown', flags.markdown], ['--html', flags.html], ['--predictions', flags.predictions]], [['--costs', flags.costs]]);
   const seed = parseSeed(flags.seed);
+  const costs = costsOf(flags);
   const jobs = jobsOf(flags.jobs, flags.overCores, io);
   const sample = flags.sample === undefined ? undefined : parseCount(flags.sample, '--sample');
   const maxCandidates = flags.maxCandidates === undefined ? undefined : parseCount(flags.maxCandidates, '--max-candidates');
@@ -106,7 +108,8 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const table = await loadTable(sourceOf(data, io), loadOptionsOf(flags));
   // the note comes once the data, target, plans and metrics are known to be usable, so that a
   // refused run prints its one error line only
-  resolveMetrics(defineProblem(table, problemOptionsOf(flags)), flags.metric);
+  const problem = defineProblem(table, problemOptionsOf(flags));
+  resolveMetrics(problem, flags.metric, costMatrixOf(problem, costs, flags.metric));
   parsePlan(flags.plan);
   try {
     parsePlan(flags.inner);
@@ -131,6 +134,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     impute: flags.impute,
     timing: flags.timing,
     audit: flags.audit,
+    ...(costs ? { costs } : {}),
   };
   let result: ReturnType<typeof tuneWithPredictions>;
   if (jobs > 1) {
@@ -180,6 +184,7 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--no-stratify', 'do not stratify classification plans by class')
     .option('--learner <spec>', 'search space NAME:key=A|B|C,key=FROM..TO+STEP or FROM..TO*FACTOR (repeatable; see foldwise learners)', collect)
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline and decides the pick)', collect)
+    .option('--costs <file>', COSTS_HELP)
     .addOption(new Option('--pick <rule>', 'best inner mean, or the simplest within one standard error of it').choices(PICK_RULES).default('best'))
     .option('--sample <n>', 'random search: try n candidates drawn from the space (seeded)')
     .option('--max-candidates <n>', `most candidates a search may try (default ${DEFAULT_MAX_CANDIDATES})`)

@@ -14,7 +14,8 @@
  * A group or order change counts as "data": a grouped or time-ordered plan estimates a different
  * quantity (performance on new groups, on the future), not the same one on other folds.
  * Features, dropped columns, imputation and learner options may differ: they are what a change
- * under test changes.
+ * under test changes. The --costs matrix (settings.costs: classes and entries) must match, as a
+ * "data" difference: the `cost` metric of another matrix measures another thing.
  *
  * A report scored from a predictions file (`foldwise score`, with a `source`) has no data file or
  * plan of its own: it matches another report when both know their fold assignment (which rows
@@ -37,11 +38,19 @@ const hash = (v: string | number | boolean | undefined): string => {
   return t.length > 12 ? `${t.slice(0, 12)}…` : t;
 };
 
+/** The --costs matrix as compared: its classes and entries (the file's layout and bytes do not count). */
+const matrixOf = (r: Report): string | undefined => (r.settings.costs ? JSON.stringify([r.settings.costs.classes, r.settings.costs.matrix]) : undefined);
+
 export function reportDifferences(a: Report, b: Report): ReportDifference[] {
   const out: ReportDifference[] = [];
   const add = (field: string, x: string | number | boolean | undefined, y: typeof x, kind: ReportDifference['kind'], fmt = show): void => {
     if (x !== y) out.push({ field, a: fmt(x), b: fmt(y), kind });
   };
+  // a different cost matrix scores a different quantity under the same metric name
+  if (matrixOf(a) !== matrixOf(b)) {
+    const which = (r: Report): string => (r.settings.costs ? `matrix of file SHA-256 ${r.settings.costs.sha256.slice(0, 12)}…` : 'none');
+    out.push({ field: 'settings.costs', a: which(a), b: which(b), kind: 'data' });
+  }
   if (a.source || b.source) {
     // a report scored from a predictions file: the same folds are the same rows in the same
     // folds (the fold assignment fingerprint); an unknown assignment never matches

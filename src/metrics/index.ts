@@ -10,6 +10,7 @@ import { accuracy } from './accuracy.js';
 import { averagePrecision } from './average-precision.js';
 import { balancedAccuracy } from './balanced-accuracy.js';
 import { brier } from './brier.js';
+import { type CostMatrix, meanCost } from './cost.js';
 import { ece } from './ece.js';
 import { kappa } from './kappa.js';
 import { LOG_LOSS_EPS, logLoss } from './log-loss.js';
@@ -29,6 +30,8 @@ export { confusionMatrix } from './confusion-matrix.js';
 export { brierParts, type BrierParts } from './brier-parts.js';
 export { calibrationPairs, equalCountBins, type CalibrationBin } from './calibration-bins.js';
 export { ECE_BINS } from './ece.js';
+export { costMatrixOf, costRows, meanCost, type CostMatrix } from './cost.js';
+export { parseCostMatrix } from './cost-matrix.js';
 export { perClassScores, type PerClassScores } from './per-class.js';
 export {
   accuracy,
@@ -62,6 +65,7 @@ export const METRIC_NAMES = [
   'roc-auc',
   'average-precision',
   'ece',
+  'cost',
   'mae',
   'rmse',
   'r2',
@@ -137,11 +141,29 @@ export const METRICS: ReadonlyMap<MetricName, Metric> = new Map<MetricName, Metr
   classification('roc-auc', rocAuc, true, true, 'area under the ROC curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
   classification('average-precision', averagePrecision, true, true, 'step-wise area under the precision-recall curve; macro one-vs-rest for more than two classes', { ...UNIT, rank: true }),
   classification('ece', ece, true, false, 'expected calibration error, 10 equal-count bins; top-label form for more than two classes', { ...ERROR, range: [0, 1] }),
+  classification('cost', unboundCost, false, false, 'mean cost per row from the --costs FILE matrix (actual by predicted)', ERROR),
   regression('mae', mae, false, 'mean absolute error'),
   regression('rmse', rmse, false, 'root mean squared error'),
   regression('r2', r2, true, '1 - SS_res / SS_tot; NaN when actual is constant', { ...ERROR, range: [-Infinity, 1] }),
   regression('medae', medae, false, 'median absolute error'),
 ]);
+
+/** The registry's `cost` has no matrix: reaching it unbound is a bug (metricFor binds it). */
+function unboundCost(): number {
+  throw new Error('the cost metric was used without its matrix (metricFor binds it)');
+}
+
+/**
+ * The metric called `name`, ready to score: `cost` bound to the run's matrix (a UsageError
+ * without one), any other metric as registered.
+ */
+export function metricFor(name: string, costs: CostMatrix | undefined): Metric {
+  const m = getMetric(name);
+  if (m.name !== 'cost' || m.task !== 'classification') return m;
+  if (!costs) throw new UsageError('--metric cost: give the cost matrix with --costs FILE (a CSV, actual by predicted; see the README)');
+  const values = costs.values;
+  return { ...m, fn: (input: ClassificationInput) => meanCost(input, values) };
+}
 
 /** The metric called `name`; throws UsageError for an unknown name, with close names if any. */
 export function getMetric(name: string): Metric {

@@ -134,7 +134,7 @@ export interface Report {
   /** present when the scores were computed by `foldwise score` from a predictions file */
   readonly source?: ReportSource;
   /** imputation; and how the data was read (absent in reports of older versions and of library calls without them) */
-  readonly settings: { readonly impute: string; readonly missing?: readonly string[]; readonly categorical?: readonly string[]; readonly delimiter?: string };
+  readonly settings: ReportSettings;
   /** the reported metrics, headline first */
   readonly metrics: readonly string[];
   readonly warnings: readonly string[];
@@ -194,4 +194,22 @@ export interface SliceReport {
   /** a fold with fewer test rows than this in a slice is reported, not scored */
   readonly minRows: number;
   readonly levels: readonly SliceLevel[];
+}
+
+/** How the run scored and read its data: imputation, the read settings, the --costs matrix. */
+export interface ReportSettings {
+  readonly impute: string;
+  readonly missing?: readonly string[];
+  readonly categorical?: readonly string[];
+  readonly delimiter?: string;
+  /** --costs FILE (the `cost` metric): absent without it */
+  readonly costs?: ReportCosts;
+}
+
+/** The --costs matrix as the report shows it: rows actual, columns predicted, both in `data.classes` order. */
+export interface ReportCosts {
+  /** sha256 (hex) of the file's text */
+  readonly sha256: string;
+  readonly classes: readonly string[];
+  readonly matrix: readonly (readonly number[])[];
 }

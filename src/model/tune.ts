@@ -9,7 +9,7 @@
  *   search rows: the best of many inner means, optimistic by construction (Varma & Simon 2006,
  *   BMC Bioinformatics 7:91). The recommended candidate is the one to deploy, not its score.
  */
-import type { DataSection, ReportAudit } from './report.js';
+import type { DataSection, ReportAudit, ReportCosts } from './report.js';
 import type { ReportComparisons } from './compare.js';
 import type { Params, Task } from '../learning.js';
 import type { ScoreSummary } from './report.js';
@@ -94,7 +94,8 @@ export interface TuneReport {
       readonly fraction?: number;
     };
   };
-  readonly settings: { readonly impute: string };
+  /** imputation; the --costs matrix of the cost metric (absent without it) */
+  readonly settings: { readonly impute: string; readonly costs?: ReportCosts };
   /** the reported metrics; the first is the headline, used for selection */
   readonly metrics: readonly string[];
   readonly selection: {

@@ -6,6 +6,7 @@
  */
 import { curvesSection } from '../curves/markdown.js';
 import { thresholdSection } from './threshold-markdown.js';
+import { costsSection } from './costs-markdown.js';
 import { foldCount, foldLabel } from '../model/fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 
@@ -198,7 +199,7 @@ function sliceSection(report: Report): string[] {
 /** Renders the report as Markdown. `higherIsBetter` tells the headline metric's direction. */
 export function renderMarkdown(report: Report, higherIsBetter: (metric: string) => boolean): string {
   const head = report.metrics[0];
-  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ...failedLines(report), ...notesLines(report), ''];
+  const out: string[] = [`# foldwise eval: ${cell(report.data.target)}`, '', ...describe(report), ...failedLines(report), ...notesLines(report), '', ...costsSection(report.settings.costs)];
 
   out.push(`## ${head} (headline)`, '');
   out.push(

@@ -7,6 +7,7 @@
  * four decimals.
  */
 import { auditSection, cell, code, inline, num } from './markdown.js';
+import { costsSection } from './costs-markdown.js';
 import type { TuneCandidate, TuneReport } from '../model/tune.js';
 
 function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
@@ -55,7 +56,7 @@ function interval(ci: readonly [number, number] | null | undefined): string {
 
 export function renderTuneMarkdown(r: TuneReport): string {
   const head = r.selection.metric;
-  const out: string[] = [`# foldwise tune: ${inline(r.data.target)}`, '', ...describe(r), ''];
+  const out: string[] = [`# foldwise tune: ${inline(r.data.target)}`, '', ...describe(r), '', ...costsSection(r.settings.costs)];
 
   out.push('## Outer estimate (nested: quote this)', '');
   out.push(

@@ -18,7 +18,7 @@ import { dataSection } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { InputError } from '../errors.js';
 import type { Target } from '../learning.js';
-import { confusionMatrix, getMetric } from '../metrics/index.js';
+import { confusionMatrix, costMatrixOf, costRows, metricFor } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import type { ReportThreshold } from '../model/threshold.js';
 import { learnerThreshold, type CutFold } from '../threshold/scores.js';
@@ -84,7 +84,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
       ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: prepared.final } : {}),
       assignment: assignmentOf(plan.folds.map((f) => ({ repeat: f.repeat, fold: f.fold, rows: Array.from(f.test, (u) => problem.rows[u]) }))),
     },
-    settings: { impute: prepared.impute },
+    settings: { impute: prepared.impute, ...(prepared.costs ? { costs: { sha256: prepared.costs.sha256, classes: [...prepared.costs.classes], matrix: costRows(prepared.costs) } } : {}) },
     metrics: metrics.map((m) => m.name),
     warnings: prepared.warnings,
     ...(prepared.audit ? { audit: prepared.audit } : {}),
@@ -155,7 +155,8 @@ export function evaluate(table: Table, options: EvaluateOptions): Report {
  * values, so a report assembled from shards equals the report of a single run.
  */
 export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[], totalMs?: number): Report {
-  const metrics: Metric[] = frame.metrics.map((m) => getMetric(m));
+  const costs = frame.settings.costs ? costMatrixOf(frame.settings.costs) : undefined;
+  const metrics: Metric[] = frame.metrics.map((m) => metricFor(m, costs));
   const warnings: string[] = [...frame.warnings];
   const perLearner = frame.learners.map(() => ({
     folds: [] as FoldScores[],
@@ -251,7 +252,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
     warnings: [...new Set(warnings)],
     ...(frame.audit ? { audit: frame.audit } : {}),
     learners,
-    ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, frame.metrics, frame.data.classes) } : {}),
+    ...(frame.slices?.length ? { slices: sliceReports(frame.slices, records, frame.learners, metrics, frame.data.classes) } : {}),
     ...(frame.threshold ? { threshold: frame.threshold } : {}),
     ...(frame.importance
       ? {

@@ -7,6 +7,7 @@
  * what differs. What only changes how a run is carried out (jobs, shards, timings, progress,
  * temporary folders) is left out.
  */
+import { costRows } from '../metrics/index.js';
 import type { ReportFrame } from './evaluate.js';
 import type { Prepared } from './prepare.js';
 
@@ -62,6 +63,8 @@ export interface RunIdentity {
   readonly growth?: string;
   /** --threshold: the rule and inner folds (present only with it) */
   readonly threshold?: string;
+  /** --costs: the cost matrix in the target's class order, as JSON (present only with it; the file's layout and bytes do not count) */
+  readonly costs?: string;
 }
 
 export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
@@ -86,6 +89,7 @@ export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
     kinds: p.table.fingerprint.schema.map(([, k]) => (k === 'numeric' ? 'n' : 'c')).join(''),
     onFoldError: p.onFoldError ?? 'fail',
     audit: p.audit !== undefined,
+    ...(p.costs ? { costs: JSON.stringify(costRows(p.costs)) } : {}),
     ...(p.threshold ? { threshold: `${p.threshold.text} (${p.threshold.innerFolds} inner folds)` } : {}),
     ...(p.importance ? { importance: `${p.importance.metric.name} x${p.importance.repeats}: ${p.importance.inputs.map((i) => i.name).join(', ')}` } : {}),
   };

@@ -9,7 +9,7 @@ import type { Table } from '../data/types.js';
 import { quoted } from '../data/load-csv.js';
 import { UsageError } from '../errors.js';
 import { defaultLearnerSpecs, formatSpec, getLearner, parseLearnerSpec, resolveParams } from '../learners/index.js';
-import { defaultMetrics, getMetric } from '../metrics/index.js';
+import { defaultMetrics, getMetric, metricFor, parseCostMatrix, type CostMatrix } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import type { PlanSpec } from '../plans/types.js';
@@ -64,6 +64,14 @@ export interface EvaluateOptions extends ProblemOptions {
   readonly threshold?: string;
   /** --threshold-folds: inner folds of that split (default 5) */
   readonly thresholdFolds?: number;
+  /** --costs FILE: the cost matrix's file name and text, for the `cost` metric (src/metrics/cost-matrix.ts) */
+  readonly costs?: CostsText;
+}
+
+/** A cost matrix file as read: its name (for messages) and its text. */
+export interface CostsText {
+  readonly file: string;
+  readonly text: string;
 }
 
 export interface Prepared extends TaskContext {
@@ -77,6 +85,8 @@ export interface Prepared extends TaskContext {
   readonly audit?: ReportAudit;
   /** --slice columns (checked) and --slice-bins; absent without --slice */
   readonly slice?: { readonly names: readonly string[]; readonly bins: number };
+  /** --costs: the cost matrix in the target's class order (absent without it) */
+  readonly costs?: CostMatrix;
 }
 
 function resolveCandidates(problem: Problem, options: EvaluateOptions, headline: string): Candidate[] {
@@ -96,16 +106,33 @@ function resolveCandidates(problem: Problem, options: EvaluateOptions, headline:
   return list;
 }
 
-/** The metrics by name (default: the task's list), checked against the task, headline first. */
-export function resolveMetrics(problem: Problem, names: readonly string[] | undefined): Metric[] {
+/**
+ * The metrics by name (default: the task's list), checked against the task, headline first;
+ * `cost` bound to the run's cost matrix (a UsageError without one).
+ */
+export function resolveMetrics(problem: Problem, names: readonly string[] | undefined, costs?: CostMatrix): Metric[] {
   const list = names?.length ? names : defaultMetrics(problem.task);
   const out: Metric[] = [];
   for (const name of list) {
     const m = getMetric(name);
     if (m.task !== problem.task) throw new UsageError(`--metric ${name}: a ${m.task} metric, but the task is ${problem.task}`);
-    if (!out.includes(m)) out.push(m);
+    if (!out.some((o) => o.name === m.name)) out.push(metricFor(m.name, costs));
   }
   return out;
+}
+
+/**
+ * --costs FILE read against the target (every class once on each axis) and checked against the
+ * metrics: a matrix needs a classification target and `--metric cost` (a matrix nothing reads is
+ * refused, not ignored).
+ */
+export function costMatrixOf(problem: Problem, costs: CostsText | undefined, metrics: readonly string[] | undefined): CostMatrix | undefined {
+  if (costs === undefined) return undefined;
+  const y = problem.target;
+  if (y.task !== 'classification') throw new UsageError(`--costs ${costs.file}: a cost matrix is for classification, but ${quoted(problem.targetName)} is numeric (a regression target)`);
+  const matrix = parseCostMatrix(costs.text, costs.file, y.classes);
+  if (!metrics?.includes('cost')) throw new UsageError(`--costs ${costs.file}: add --metric cost to score by the matrix (first, to make it the headline)`);
+  return matrix;
 }
 
 /**
@@ -129,7 +156,8 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   const seed = checkSeed(options.seed ?? DEFAULT_SEED);
   const problem = defineProblem(table, options);
   const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
-  const metrics = resolveMetrics(problem, options.metrics);
+  const costs = costMatrixOf(problem, options.costs, options.metrics);
+  const metrics = resolveMetrics(problem, options.metrics, costs);
   const candidates = resolveCandidates(problem, options, metrics[0].name);
   const impute = options.impute ?? 'median';
   if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
@@ -180,6 +208,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
     onFoldError: options.onFoldError ?? 'fail',
     ...(importance ? { importance } : {}),
     ...(threshold ? { threshold } : {}),
+    ...(costs ? { costs } : {}),
     warnings,
     ...(sliceNames.length ? { slice: { names: sliceNames, bins: sliceBins } } : {}),
   };

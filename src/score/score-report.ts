@@ -13,7 +13,7 @@
 import { createHash } from 'node:crypto';
 import { UsageError } from '../errors.js';
 import type { Target } from '../learning.js';
-import { defaultMetrics, getMetric } from '../metrics/index.js';
+import { costRows, type CostMatrix, defaultMetrics, getMetric, parseCostMatrix } from '../metrics/index.js';
 import type { Report, ReportSource } from '../model/report.js';
 import { assignmentOf } from '../run/assignment.js';
 import { assembleReport, type ReportFrame, type TaskRecord } from '../run/evaluate.js';
@@ -43,6 +43,8 @@ export interface ScoreOptions extends ScoreColumns {
   readonly sliceBins?: number;
   /** the training rows of every fold, when the file does not say */
   readonly trainRows?: number;
+  /** --costs FILE: the cost matrix's name and text, for the cost metric */
+  readonly costs?: { readonly file: string; readonly text: string };
 }
 
 function learnerName(spec: string): string {
@@ -59,10 +61,20 @@ function checkMetrics(read: ReadPredictions, names: readonly string[] | undefine
   return list;
 }
 
+/** --costs read against the file's classes; refused for regression and without --metric cost (as eval refuses them). */
+function costsFor(read: ReadPredictions, costs: ScoreOptions['costs'], metrics: readonly string[]): CostMatrix | undefined {
+  if (!costs) return undefined;
+  if (read.task !== 'classification' || !read.classes) throw new UsageError(`--costs ${costs.file}: a cost matrix is for classification, but the predictions are for ${read.task}`);
+  const matrix = parseCostMatrix(costs.text, costs.file, read.classes);
+  if (!metrics.includes('cost')) throw new UsageError(`--costs ${costs.file}: add --metric cost to score by the matrix (first, to make it the headline)`);
+  return matrix;
+}
+
 /** Builds the report of a predictions file's text. */
 export function scoreReport(text: string | PredictionFields, file: string, opts: ScoreOptions = {}): Report {
   const read = readPredictions(text, file, opts);
   const metrics = checkMetrics(read, opts.metrics);
+  const costs = costsFor(read, opts.costs, metrics);
   const test = read.groups.filter((g) => !g.holdout);
   const trainFrom: ReportSource['trainRows'] = read.hasTrainRows ? 'file' : opts.trainRows !== undefined ? 'option' : 'assumed-kfold';
   const warnings: string[] = [];
@@ -118,7 +130,7 @@ export function scoreReport(text: string | PredictionFields, file: string, opts:
       ...(holdoutRows !== undefined ? { holdoutRows, finalScored: true } : {}),
       ...(assignment ? { assignment } : {}),
     },
-    settings: { impute: 'unknown' },
+    settings: { impute: 'unknown', ...(costs ? { costs: { sha256: costs.sha256, classes: [...costs.classes], matrix: costRows(costs) } } : {}) },
     metrics,
     warnings,
     learners: read.learners.map((spec) => ({ name: learnerName(spec), spec, params: {} })),

@@ -38,14 +38,14 @@ import type { Table } from '../data/types.js';
 import { quoted } from '../data/load-csv.js';
 import { InputError, UsageError } from '../errors.js';
 import type { Target } from '../learning.js';
-import { defaultMetrics, getMetric } from '../metrics/index.js';
+import { costRows, type CostMatrix, defaultMetrics, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
 import type { BuiltPlan, PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
 import type { ScoreSummary } from '../model/report.js';
 import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../model/tune.js';
-import { checkSeed, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
+import { checkSeed, costMatrixOf, type CostsText, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
 import { createRng, deriveSeed } from '../rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
@@ -91,6 +91,8 @@ export interface TuneOptions extends ProblemOptions {
   readonly impute?: Impute;
   /** include wall-clock timings (default true) */
   readonly timing?: boolean;
+  /** --costs FILE: the cost matrix's name and text, for the cost metric */
+  readonly costs?: CostsText;
 }
 
 
@@ -181,6 +183,8 @@ export interface TuneSetup {
   readonly innerSpec: PlanSpec;
   readonly metrics: readonly Metric[];
   readonly head: Metric;
+  /** --costs: the cost matrix (absent without it) */
+  readonly costs?: CostMatrix;
   readonly specs: readonly string[];
   readonly candidates: readonly SearchCandidate[];
   readonly search: ReturnType<typeof searchCandidates>['plan'];
@@ -221,7 +225,8 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
   const problem = defineProblem(table, options);
   const outerSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_OUTER_PLAN);
   const innerSpec = parseInner(options.inner);
-  const metrics = resolveMetrics(problem, options.metrics);
+  const costs = costMatrixOf(problem, options.costs, options.metrics);
+  const metrics = resolveMetrics(problem, options.metrics, costs);
   const head = metrics[0];
   const specs = options.learners?.length ? options.learners : DEFAULT_SEARCH;
   const space = parseSearchSpace(specs);
@@ -262,7 +267,7 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
     warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
   }
   if (outerSpec.kind === 'loo') warnings.push('leave-one-out outer plan: each outer fold scores one row, so per-fold spread is degenerate; read the pooled scores');
-  return { started, options, seed, rule, problem, outerSpec, innerSpec, metrics, head, specs, candidates, search, impute, warnings, searchRows, holdoutRows, holdoutFrom, outer };
+  return { started, options, seed, rule, problem, outerSpec, innerSpec, metrics, head, ...(costs ? { costs } : {}), specs, candidates, search, impute, warnings, searchRows, holdoutRows, holdoutFrom, outer };
 }
 
 /** Step 2 for outer fold `index` (in plan order). Its seeds depend on the fold only, so folds can run in any order or thread. */
@@ -450,7 +455,7 @@ export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: A
         ? { holdout: { rows: holdoutRows.length, from: holdoutFrom, ...(holdoutFrom === 'option' ? { fraction: options.holdout } : {}) } }
         : {}),
     },
-    settings: { impute },
+    settings: { impute, ...(s.costs ? { costs: { sha256: s.costs.sha256, classes: [...s.costs.classes], matrix: costRows(s.costs) } } : {}) },
     metrics: metrics.map((m) => m.name),
     selection: { metric: head.name, higherIsBetter: head.higherIsBetter, rule, complexity: learnersSearched.map((l) => describeRanks(l)) },
     search: {

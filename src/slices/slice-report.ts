@@ -15,7 +15,6 @@
  * - pairs of learners are compared per slice as in the report (src/compare/within-report.ts),
  *   over the folds scored for both.
  */
-import { getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import type { Target } from '../learning.js';
 import { reportComparisons } from '../compare/within-report.js';
@@ -55,10 +54,9 @@ export function sliceReports(
   slices: readonly SliceColumn[],
   records: readonly TaskRecord[],
   learners: readonly LearnerInfo[],
-  metricNames: readonly string[],
+  metrics: readonly Metric[],
   classNames: readonly string[] | undefined,
 ): SliceReport[] {
-  const metrics: Metric[] = metricNames.map((m) => getMetric(m));
   const classes = classNames?.length ?? 0;
   const folds = records.filter((r) => r.foldIndex >= 0 && !r.failed && r.rows);
   return slices.map((s) => {
@@ -103,7 +101,7 @@ export function sliceReports(
       const rows = first.filter((f) => f.repeat === (first[0]?.repeat ?? 0)).reduce((a, f) => a + f.rows, 0);
       const scoredFolds = first.filter((f) => !f.short).length;
       // the report's comparison rules, on a report made of this slice's learners
-      const comparisons = reportComparisons({ metrics: metricNames, learners: sliceLearners } as unknown as Report);
+      const comparisons = reportComparisons({ metrics: metrics.map((m) => m.name), learners: sliceLearners } as unknown as Report);
       return { level, rows, scoredFolds, learners: sliceLearners, ...(comparisons ? { comparisons } : {}) };
     });
     return { column: s.column, kind: s.kind, ...(s.edges ? { edges: s.edges } : {}), minRows: MIN_SLICE_ROWS, levels };

@@ -1,10 +1,12 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
 import { confusionMatrix } from '../../src/metrics/confusion-matrix.js';
-import { METRICS } from '../../src/metrics/index.js';
+import { METRICS, metricFor, parseCostMatrix } from '../../src/metrics/index.js';
 import type { ClassificationInput, RegressionInput } from '../../src/metrics/types.js';
 
-const classification = [...METRICS.values()].filter((m) => m.task === 'classification');
+// `cost` is checked bound to a two-class matrix (the registry's own entry has none; cost.test.ts)
+const twoClassCosts = parseCostMatrix(',0,1\n0,0,1\n1,5,0\n', 'costs.csv', ['0', '1']);
+const classification = [...METRICS.values()].filter((m) => m.task === 'classification').map((m) => (m.name === 'cost' ? metricFor('cost', twoClassCosts) : m));
 const regression = [...METRICS.values()].filter((m) => m.task === 'regression');
 const withProba = classification.filter((m) => m.needsProba);
 
@@ -31,8 +33,8 @@ const ok: ClassificationInput = {
 };
 
 describe('classification input checks, for every classification metric', () => {
-  it('has the twelve classification metrics and five with probabilities', () => {
-    expect(classification.length).toBe(12);
+  it('has the thirteen classification metrics and five with probabilities', () => {
+    expect(classification.length).toBe(13);
     expect(withProba.map((m) => m.name)).toEqual(['log-loss', 'brier', 'roc-auc', 'average-precision', 'ece']);
   });
   for (const m of classification) {

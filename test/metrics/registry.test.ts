@@ -3,7 +3,7 @@ import { UsageError } from '../../src/errors.js';
 import { confusionMatrix, defaultMetrics, getMetric, METRIC_NAMES, METRICS } from '../../src/metrics/index.js';
 
 describe('metric registry', () => {
-  it('lists exactly the sixteen names, each registered under its own name', () => {
+  it('lists exactly the seventeen names, each registered under its own name', () => {
     expect([...METRIC_NAMES]).toEqual([
       'accuracy',
       'balanced-accuracy',
@@ -17,6 +17,7 @@ describe('metric registry', () => {
       'roc-auc',
       'average-precision',
       'ece',
+      'cost',
       'mae',
       'rmse',
       'r2',
@@ -33,7 +34,7 @@ describe('metric registry', () => {
 
   it('records direction and probability needs', () => {
     const lower = METRIC_NAMES.filter((n) => !getMetric(n).higherIsBetter);
-    expect(lower).toEqual(['log-loss', 'brier', 'ece', 'mae', 'rmse', 'medae']);
+    expect(lower).toEqual(['log-loss', 'brier', 'ece', 'cost', 'mae', 'rmse', 'medae']);
     const probs = METRIC_NAMES.filter((n) => getMetric(n).needsProba);
     expect(probs).toEqual(['log-loss', 'brier', 'roc-auc', 'average-precision', 'ece']);
     const regression = METRIC_NAMES.filter((n) => getMetric(n).task === 'regression');

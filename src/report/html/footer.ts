@@ -9,7 +9,7 @@
  */
 import { esc } from './escape.js';
 import { foldCount } from '../../model/fold-label.js';
-import type { DataSection, Report, ReportAudit } from '../../model/report.js';
+import type { DataSection, Report, ReportAudit, ReportCosts } from '../../model/report.js';
 import type { TunePlanInfo, TuneReport } from '../../model/tune.js';
 
 export const item = (term: string, value: string): string => `<div><dt>${esc(term)}</dt><dd>${value}</dd></div>`;
@@ -49,6 +49,13 @@ export function dataItems(d: DataSection): string[] {
 
 const timeItem = (timing: { readonly totalMs: number } | undefined): string[] => (timing ? [item('time', esc(`${(timing.totalMs / 1000).toFixed(1)} s in all`))] : []);
 
+/** The --costs matrix in one line: "actual by predicted (A, B): A 0, 1; B 5, 0; file SHA-256 ...". */
+function costsItem(costs: ReportCosts | undefined): string[] {
+  if (!costs) return [];
+  const rows = costs.matrix.map((row, a) => `${costs.classes[a]} ${row.join(', ')}`).join('; ');
+  return [item('cost matrix', esc(`actual by predicted (${costs.classes.join(', ')}): ${rows}; file SHA-256 ${costs.sha256.slice(0, 12)}`))];
+}
+
 function footer(items: readonly string[], audit: ReportAudit | undefined, warnings: readonly string[]): string {
   return ['<footer>', '<h2>Run details</h2>', `<dl class="facts">${items.join('')}</dl>`, auditBlock(audit), '<h3>Warnings</h3>', warningsBlock(warnings), '</footer>']
     .filter(Boolean)
@@ -69,6 +76,7 @@ export function evalFooter(report: Report): string {
     item('plan', esc(plan.join(', '))),
     item('seed', esc(String(p.seed))),
     item('imputation', esc(report.settings.impute)),
+    ...costsItem(report.settings.costs),
     item('metrics', esc(report.metrics.join(', '))),
     item('tool', esc(`${report.tool.name} ${report.tool.version}, report format ${report.schema}`)),
     ...timeItem(report.timing),
@@ -95,6 +103,7 @@ export function tuneFooter(report: TuneReport): string {
     item('search', esc(`${tried} candidates from ${s.specs.join('  ')}; ${s.fits} fits (a plain loop would run ${s.plainLoopFits})`)),
     item('pick rule', esc(`${report.selection.rule} on ${report.selection.metric} (${report.selection.higherIsBetter ? 'higher' : 'lower'} is better)`)),
     item('imputation', esc(report.settings.impute)),
+    ...costsItem(report.settings.costs),
     item('metrics', esc(report.metrics.join(', '))),
     item('tool', esc(`${report.tool.name} ${report.tool.version}, report format ${report.schema}`)),
     ...timeItem(report.timing),

@@ -41,6 +41,8 @@ function unitOf(metric: string, target: string): string {
       return '0 to 1';
     case 'ece':
       return 'probability gap, 0 to 1';
+    case 'cost':
+      return 'cost per row, from the --costs matrix';
     case 'mcc':
     case 'kappa':
       return '−1 to 1';
