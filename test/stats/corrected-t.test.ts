@@ -98,6 +98,8 @@ describe('correctedT: paired corrected resampled t test (Nadeau & Bengio 2003)',
     expect(() => correctedT([1, 2, 3], [1, 2], TEN_FOLD)).toThrow('correctedT: a and b must pair up, got 3 and 2 scores');
     expect(() => correctedT([1], [2], TEN_FOLD)).toThrow('correctedT: need at least 2 paired scores, got 1');
     expect(() => correctedT([1, Number.NaN], [2, 3], TEN_FOLD)).toThrow(InputError);
+    // the message names the function and which argument holds the NaN (a mutant that blanked 'a' passed the line above)
+    expect(() => correctedT([1, Number.NaN], [2, 3], TEN_FOLD)).toThrow('correctedT: a[1] is NaN; filter missing scores before calling');
     expect(() => correctedT([1, 2], [2, Number.NaN], TEN_FOLD)).toThrow('correctedT: b[1] is NaN; filter missing scores before calling');
   });
 
