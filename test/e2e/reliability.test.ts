@@ -99,6 +99,28 @@ describe('signals', () => {
     expect(stderr).toMatch(/interrupted; \d+ of 20 tasks are in the journal .*term\.journal: rerun the same command to resume \(SIGTERM\)/);
     expect(existsSync(join(tmp.dir, 'term.json'))).toBe(false);
   }, 120_000);
+
+  // outside eval's task phase a signal keeps its default action (README, "Signals"): the process
+  // ends by the signal itself (a shell shows 130 or 143) and no output is left, whole or half
+  it.each([
+    ['audit', 'SIGINT'],
+    ['audit', 'SIGTERM'],
+    ['split', 'SIGINT'],
+  ] as const)('%s ended by %s while it reads standard input: ended by the signal, within seconds, no output', async (cmd, sig) => {
+    const out = join(tmp.dir, `${cmd}-${sig}`);
+    const args = cmd === 'audit' ? ['audit', '-', '--target', 'y', '--json', `${out}.json`] : ['split', '-', '--target', 'y', '--plan', 'kfold:3', '--out', out];
+    const child = spawn(process.execPath, [BIN, ...args], { stdio: ['pipe', 'ignore', 'ignore'] });
+    const ended = new Promise<[number | null, string | null]>((r) => child.on('exit', (c, s) => r([c, s])));
+    child.stdin!.write('a,y\n1,p\n2,q\n');
+    await new Promise((r) => setTimeout(r, 1500));
+    const sent = Date.now();
+    child.kill(sig);
+    const [code, signal] = await ended;
+    expect(Date.now() - sent).toBeLessThan(5000);
+    expect([code, signal]).toEqual([null, sig]);
+    expect(existsSync(`${out}.json`)).toBe(false);
+    expect(existsSync(out)).toBe(false);
+  }, 30_000);
 });
 
 describe('command: programs and their process groups', () => {
