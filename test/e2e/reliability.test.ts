@@ -163,6 +163,29 @@ describe('command: programs and their process groups', () => {
     expect(await waitFor(() => readdirSync(dir).filter((n) => n.startsWith('foldwise-')).length === 0, 4000)).toBe(true);
   }, 60_000);
 
+  // tune --jobs 1 keeps the default action of a signal (README, tune): foldwise ends at once, and
+  // the supervisor, seeing foldwise gone, ends the program's group and removes the fold folder
+  it('SIGINT to tune --jobs 1 while a command fold runs: ended by the signal, program group and folders gone', async () => {
+    const dir = join(tmp.dir, 'int-tune');
+    mkdirSync(dir);
+    const pids = join(dir, 'pids.txt');
+    const tune = ['tune', ...EVAL.slice(1)];
+    const child = spawn(process.execPath, [BIN, ...tune, '--plan', 'kfold:2', '--inner', 'kfold:2', '--jobs', '1', '--learner', `command:hang;pids=${pids},k=1|2`, '--command', `hang=${process.execPath} ${hangingProgram(dir)}`], {
+      stdio: ['ignore', 'ignore', 'pipe'],
+      env: { ...process.env, TMPDIR: dir },
+    });
+    const ended = new Promise<[number | null, string | null]>((r) => child.on('exit', (c, s) => r([c, s])));
+    expect(await waitFor(() => existsSync(pids) && readFileSync(pids, 'utf8').trim() !== '', 30_000)).toBe(true);
+    const sent = Date.now();
+    child.kill('SIGINT');
+    expect(await ended).toEqual([null, 'SIGINT']);
+    expect(Date.now() - sent).toBeLessThan(5000);
+    const all = readFileSync(pids, 'utf8').trim().split('\n').flatMap((l) => l.split(' ').slice(0, 2).map(Number));
+    expect(all.length).toBeGreaterThanOrEqual(2);
+    expect(await waitFor(() => all.every((p) => !alive(p)), 6000)).toBe(true);
+    expect(await waitFor(() => readdirSync(dir).filter((n) => n.startsWith('foldwise-')).length === 0, 6000)).toBe(true);
+  }, 60_000);
+
   it('kill -9 of foldwise: the supervisor ends the program group and removes the fold folder', async () => {
     const dir = join(tmp.dir, 'kill9');
     mkdirSync(dir);
