@@ -146,6 +146,10 @@ describe('wilcoxon: symmetry and input checks', () => {
     expect(() => wilcoxon([1, 2], [1])).toThrow('wilcoxon: a and b must pair up, got 2 and 1 scores');
     expect(() => wilcoxon([], [])).toThrow('wilcoxon: need at least 1 paired score, got 0');
     expect(() => wilcoxon([Number.NaN], [1])).toThrow(InputError);
+    // the message names the function and the argument holding the NaN, for either argument
+    // (mutants that blanked 'wilcoxon', 'a' or 'b' passed the type check above)
+    expect(() => wilcoxon([1, Number.NaN], [2, 3])).toThrow('wilcoxon: a[1] is NaN; filter missing scores before calling');
+    expect(() => wilcoxon([1, 2], [Number.NaN, 3])).toThrow('wilcoxon: b[0] is NaN; filter missing scores before calling');
     expect(() => wilcoxon([1], [2], { method: 'fast' as never })).toThrow(
       'wilcoxon: method must be one of "auto", "exact", "normal", got "fast"',
     );
