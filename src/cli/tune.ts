@@ -23,7 +23,7 @@ import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
-import { costMatrixOf, DEFAULT_SEED } from '../run/prepare.js';
+import { readRunCosts, DEFAULT_SEED } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, type TuneOptions, tuneWithPredictions } from '../search/tune.js';
@@ -109,7 +109,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   // the note comes once the data, target, plans and metrics are known to be usable, so that a
   // refused run prints its one error line only
   const problem = defineProblem(table, problemOptionsOf(flags));
-  resolveMetrics(problem, flags.metric, costMatrixOf(problem, costs, flags.metric));
+  resolveMetrics(problem, flags.metric, readRunCosts(problem, costs, flags.metric));
   parsePlan(flags.plan);
   try {
     parsePlan(flags.inner);

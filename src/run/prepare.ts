@@ -126,7 +126,7 @@ export function resolveMetrics(problem: Problem, names: readonly string[] | unde
  * metrics: a matrix needs a classification target and `--metric cost` (a matrix nothing reads is
  * refused, not ignored).
  */
-export function costMatrixOf(problem: Problem, costs: CostsText | undefined, metrics: readonly string[] | undefined): CostMatrix | undefined {
+export function readRunCosts(problem: Problem, costs: CostsText | undefined, metrics: readonly string[] | undefined): CostMatrix | undefined {
   if (costs === undefined) return undefined;
   const y = problem.target;
   if (y.task !== 'classification') throw new UsageError(`--costs ${costs.file}: a cost matrix is for classification, but ${quoted(problem.targetName)} is numeric (a regression target)`);
@@ -156,7 +156,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   const seed = checkSeed(options.seed ?? DEFAULT_SEED);
   const problem = defineProblem(table, options);
   const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
-  const costs = costMatrixOf(problem, options.costs, options.metrics);
+  const costs = readRunCosts(problem, options.costs, options.metrics);
   const metrics = resolveMetrics(problem, options.metrics, costs);
   const candidates = resolveCandidates(problem, options, metrics[0].name);
   const impute = options.impute ?? 'median';

@@ -45,7 +45,7 @@ import type { BuiltPlan, PlanSpec } from '../plans/types.js';
 import type { Impute } from '../prep/fold-prep.js';
 import type { ScoreSummary } from '../model/report.js';
 import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../model/tune.js';
-import { checkSeed, costMatrixOf, type CostsText, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
+import { checkSeed, readRunCosts, type CostsText, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
 import { createRng, deriveSeed } from '../rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
@@ -225,7 +225,7 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
   const problem = defineProblem(table, options);
   const outerSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_OUTER_PLAN);
   const innerSpec = parseInner(options.inner);
-  const costs = costMatrixOf(problem, options.costs, options.metrics);
+  const costs = readRunCosts(problem, options.costs, options.metrics);
   const metrics = resolveMetrics(problem, options.metrics, costs);
   const head = metrics[0];
   const specs = options.learners?.length ? options.learners : DEFAULT_SEARCH;
