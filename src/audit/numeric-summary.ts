@@ -16,18 +16,6 @@
 import { InputError } from '../errors.js';
 import type { NumericProfile } from './types.js';
 
-/** The present (non-NaN) values of `values`, at `rows` if given, sorted ascending. */
-export function sortedPresent(values: Float64Array, rows?: Int32Array): Float64Array {
-  const n = rows ? rows.length : values.length;
-  const out = new Float64Array(n);
-  let m = 0;
-  for (let i = 0; i < n; i++) {
-    const v = values[rows ? rows[i] : i];
-    if (!Number.isNaN(v)) out[m++] = v;
-  }
-  return out.subarray(0, m).sort();
-}
-
 /** The p-quantile of sorted values by linear interpolation (Hyndman & Fan type 7). */
 export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
   if (sorted.length === 0) throw new InputError('quantileSorted: values is empty; need at least one value');
@@ -74,11 +62,4 @@ export function numericProfile(sorted: Float64Array): NumericProfile {
     sd: sd === null ? null : sorted[0] === sorted[n - 1] ? 0 : sd,
     integer,
   };
-}
-
-/** Number of distinct values in sorted values. */
-export function distinctSorted(sorted: ArrayLike<number>): number {
-  let d = sorted.length > 0 ? 1 : 0;
-  for (let i = 1; i < sorted.length; i++) if (sorted[i] !== sorted[i - 1]) d++;
-  return d;
 }

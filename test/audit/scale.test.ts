@@ -9,7 +9,7 @@ import { audit, AUDIT_LIMITS } from '../../src/audit/index.js';
 import { mean, quantile, sampleStandardDeviation } from 'simple-statistics';
 import { profileColumns } from '../../src/audit/column-profile.js';
 import { argsortPresent, featuresOf, sortedFromRuns, valueRuns } from '../../src/audit/feature-data.js';
-import { distinctSorted, numericProfile, sortedPresent } from '../../src/audit/numeric-summary.js';
+import { numericProfile } from '../../src/audit/numeric-summary.js';
 import { defineProblem } from '../../src/data/problem.js';
 import { sampleRows } from '../../src/audit/sample.js';
 import type { Column, Table } from '../../src/data/types.js';
@@ -155,3 +155,23 @@ describe('value runs: one hashing pass per column (issue 14)', () => {
     }
   });
 });
+
+// The reference path: the sort of every present value that the audit read before value runs.
+/** The present (non-NaN) values of `values`, at `rows` if given, sorted ascending. */
+function sortedPresent(values: Float64Array, rows?: Int32Array): Float64Array {
+  const n = rows ? rows.length : values.length;
+  const out = new Float64Array(n);
+  let m = 0;
+  for (let i = 0; i < n; i++) {
+    const v = values[rows ? rows[i] : i];
+    if (!Number.isNaN(v)) out[m++] = v;
+  }
+  return out.subarray(0, m).sort();
+}
+
+/** Number of distinct values in sorted values. */
+function distinctSorted(sorted: ArrayLike<number>): number {
+  let d = sorted.length > 0 ? 1 : 0;
+  for (let i = 1; i < sorted.length; i++) if (sorted[i] !== sorted[i - 1]) d++;
+  return d;
+}
