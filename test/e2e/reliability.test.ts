@@ -36,6 +36,16 @@ async function waitFor(check: () => boolean, ms: number): Promise<boolean> {
 }
 
 /** A command: program that starts a grandchild (sleep) in the background, records its pid, and waits. */
+/** The pids the hanging program wrote: its grandchild's and its own, for every fold started. */
+function programPids(file: string): number[] {
+  return readFileSync(file, 'utf8').trim().split('\n').flatMap((l) => l.split(' ').slice(0, 2).map(Number));
+}
+
+/** The fold folders foldwise made in `dir` (its TMPDIR in these tests). */
+function foldFolders(dir: string): string[] {
+  return readdirSync(dir).filter((n) => n.startsWith('foldwise-'));
+}
+
 function hangingProgram(dir: string): string {
   const p = join(dir, 'hang.mjs');
   writeFileSync(
@@ -140,7 +150,7 @@ describe('command: programs and their process groups', () => {
     const [grandchild, program] = lines[0].split(' ').map(Number);
     expect(await waitFor(() => !alive(grandchild) && !alive(program), 3000)).toBe(true);
     // no fold folder left
-    expect(readdirSync(dir).filter((n) => n.startsWith('foldwise-'))).toEqual([]);
+    expect(foldFolders(dir)).toEqual([]);
   }, 60_000);
 
   it('SIGTERM to foldwise while a fold runs: exit 143 within seconds, program group and folders gone', async () => {
@@ -157,10 +167,10 @@ describe('command: programs and their process groups', () => {
     child.kill('SIGTERM');
     expect(await exited).toBe(143);
     expect(Date.now() - sent).toBeLessThan(8000);
-    const all = readFileSync(pids, 'utf8').trim().split('\n').flatMap((l) => l.split(' ').slice(0, 2).map(Number));
+    const all = programPids(pids);
     expect(all.length).toBe(4);
     expect(await waitFor(() => all.every((p) => !alive(p)), 4000)).toBe(true);
-    expect(await waitFor(() => readdirSync(dir).filter((n) => n.startsWith('foldwise-')).length === 0, 4000)).toBe(true);
+    expect(await waitFor(() => foldFolders(dir).length === 0, 4000)).toBe(true);
   }, 60_000);
 
   // tune --jobs 1 keeps the default action of a signal (README, tune): foldwise ends at once, and
@@ -180,10 +190,10 @@ describe('command: programs and their process groups', () => {
     child.kill('SIGINT');
     expect(await ended).toEqual([null, 'SIGINT']);
     expect(Date.now() - sent).toBeLessThan(5000);
-    const all = readFileSync(pids, 'utf8').trim().split('\n').flatMap((l) => l.split(' ').slice(0, 2).map(Number));
+    const all = programPids(pids);
     expect(all.length).toBeGreaterThanOrEqual(2);
     expect(await waitFor(() => all.every((p) => !alive(p)), 6000)).toBe(true);
-    expect(await waitFor(() => readdirSync(dir).filter((n) => n.startsWith('foldwise-')).length === 0, 6000)).toBe(true);
+    expect(await waitFor(() => foldFolders(dir).length === 0, 6000)).toBe(true);
   }, 60_000);
 
   it('kill -9 of foldwise: the supervisor ends the program group and removes the fold folder', async () => {
@@ -198,7 +208,7 @@ describe('command: programs and their process groups', () => {
     child.kill('SIGKILL');
     const [grandchild, program] = readFileSync(pids, 'utf8').trim().split(' ').map(Number);
     expect(await waitFor(() => !alive(grandchild) && !alive(program), 5000)).toBe(true);
-    expect(await waitFor(() => readdirSync(dir).filter((n) => n.startsWith('foldwise-')).length === 0, 3000)).toBe(true);
+    expect(await waitFor(() => foldFolders(dir).length === 0, 3000)).toBe(true);
   }, 60_000);
 
   it('the next run removes fold folders of a dead foldwise process; a predictions FIFO fails the fold at once', () => {
@@ -217,7 +227,7 @@ describe('command: programs and their process groups', () => {
     expect(existsSync(dead)).toBe(false);
     expect(r.status).toBe(2);
     expect(r.stderr).toMatch(/predictions\.csv is not a regular file/);
-    expect(readdirSync(dir).filter((n) => n.startsWith('foldwise-'))).toEqual([]);
+    expect(foldFolders(dir)).toEqual([]);
   });
 
   it('a bad TMPDIR is exit 2 naming it', () => {
