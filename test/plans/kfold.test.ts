@@ -161,6 +161,23 @@ describe('kfold', () => {
     expect(unnamed.warnings).toEqual(['class "1" has 3 rows, fewer than the 5 folds: some folds have none of it']);
   });
 
+  it('joins the warnings of more than five small classes into one line that names five and counts the rest', () => {
+    // 60 rows of class 0, then classes 1..7 with 1, 2, 1, 2, 1, 2, 1 rows: seven classes below 3 folds
+    const small = [1, 2, 1, 2, 1, 2, 1];
+    const codes: number[] = Array.from({ length: 60 }, () => 0);
+    small.forEach((rows, k) => codes.push(...Array.from({ length: rows }, () => k + 1)));
+    const strata = Int32Array.from(codes);
+    const names = ['bulk', 'c1', 'c2', 'c3', 'c4', 'c5', 'c6', 'c7'];
+    const plan = buildPlan(kfold(3), input(codes.length, 7, { strata, strataNames: names }));
+    expect(plan.warnings).toEqual([
+      '7 classes have fewer rows than the 3 folds, so some folds have none of them: "c1" (1 row), "c2" (2 rows), "c3" (1 row), "c4" (2 rows), "c5" (1 row) and 2 more',
+    ]);
+    // five small classes still get a line each
+    const five = buildPlan(kfold(3), input(codes.length, 7, { strata: Int32Array.from(codes.map((c) => (c > 5 ? 0 : c))), strataNames: names }));
+    expect(five.warnings).toHaveLength(5);
+    expect(five.warnings[4]).toBe('class "c5" has 1 row, fewer than the 3 folds: some folds have none of it');
+  });
+
   it('warns about classes found in fewer groups than K', () => {
     // class 1 is 10 rows in 2 groups
     const groups = Int32Array.from({ length: 50 }, (_, i) => Math.floor(i / 5));
