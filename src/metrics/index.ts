@@ -27,6 +27,7 @@ import type { ClassificationInput, Metric, RegressionInput, ScoreRules } from '.
 
 export type { ClassificationInput, Metric, RegressionInput, ScoreRules } from './types.js';
 export { confusionMatrix } from './confusion-matrix.js';
+export { CONFUSION_CLASS_LIMIT, foldedConfusion, type FoldedConfusion } from './folded-confusion.js';
 export { brierParts, type BrierParts } from './brier-parts.js';
 export { calibrationPairs, equalCountBins, type CalibrationBin } from './calibration-bins.js';
 export { ECE_BINS } from './ece.js';

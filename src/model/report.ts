@@ -38,6 +38,8 @@ export interface LearnerReport {
   readonly pooled: Readonly<Record<string, number | null>>;
   /** pooled confusion matrix: rows are actual classes, columns predicted, in data.classes order */
   readonly confusion?: readonly (readonly number[])[];
+  /** with more classes than CONFUSION_CLASS_LIMIT, the pooled confusion matrix folded in its place (src/metrics/folded-confusion.ts) */
+  readonly confusionFolded?: ConfusionFolded;
   /** scores on the holdout part, present only when it was scored (--final) */
   readonly final?: {
     readonly trainRows: number;
@@ -54,6 +56,19 @@ export interface LearnerReport {
   readonly importance?: LearnerImportance;
   /** eval --threshold: the threshold chosen inside each outer training fold and the scores at it (learners with probabilities) */
   readonly threshold?: LearnerThreshold;
+}
+
+/**
+ * A pooled confusion matrix folded to a bounded size: `classes` keep their own row and column
+ * (the most frequent actual classes, in that order); the last row and column hold the
+ * `otherClasses` other classes together, and `otherCorrect` of the rows in their corner cell
+ * were predicted as their own class.
+ */
+export interface ConfusionFolded {
+  readonly classes: readonly string[];
+  readonly otherClasses: number;
+  readonly matrix: readonly (readonly number[])[];
+  readonly otherCorrect: number;
 }
 
 /** eval --importance: what was shuffled and how (src/run/importance.ts). */

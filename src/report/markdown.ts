@@ -7,6 +7,7 @@
 import { curvesSection } from '../curves/markdown.js';
 import { thresholdSection } from './threshold-markdown.js';
 import { costsSection } from './costs-markdown.js';
+import { confusionView, foldedNote } from './confusion-view.js';
 import { foldCount, foldLabel } from '../model/fold-label.js';
 import type { LearnerReport, Report, ReportAudit, ScoreSummary } from '../model/report.js';
 
@@ -261,14 +262,15 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
   out.push(...importanceSection(report));
 
   const best = bestLearner(report, higherIsBetter(head));
-  if (best?.confusion && report.data.classes) {
-    const classes = report.data.classes;
+  const view = best && report.data.classes ? confusionView(best, report.data.classes) : undefined;
+  if (best && view) {
     out.push(`## Confusion matrix of ${cell(best.spec)} (pooled over folds; rows actual, columns predicted)`, '');
+    if (view.folded) out.push(foldedNote(view), '');
     out.push(
       table(
-        ['actual \\ predicted', ...classes.map(cell)],
-        ['l', ...classes.map(() => 'r' as const)],
-        best.confusion.map((row, i) => [cell(classes[i]), ...row.map(String)]),
+        ['actual \\ predicted', ...view.labels.map(cell)],
+        ['l', ...view.labels.map(() => 'r' as const)],
+        view.matrix.map((row, i) => [cell(view.labels[i]), ...row.map(String)]),
       ),
       '',
     );

@@ -18,7 +18,7 @@ import { dataSection } from '../data/problem.js';
 import type { Table } from '../data/types.js';
 import { InputError } from '../errors.js';
 import type { Target } from '../learning.js';
-import { confusionMatrix, costMatrixOf, costRows, metricFor } from '../metrics/index.js';
+import { CONFUSION_CLASS_LIMIT, confusionMatrix, costMatrixOf, costRows, foldedConfusion, metricFor } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import type { ReportThreshold } from '../model/threshold.js';
 import { learnerThreshold, type CutFold } from '../threshold/scores.js';
@@ -229,9 +229,7 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
       folds,
       summary,
       pooled,
-      ...(pooledActual?.task === 'classification' && pooledPred
-        ? { confusion: confusionMatrix(pooledActual.codes, pooledPred.predicted as Int32Array, classes) }
-        : {}),
+      ...(pooledActual?.task === 'classification' && pooledPred ? pooledConfusion(pooledActual.codes, pooledPred.predicted as Int32Array, classes, frame.data.classes ?? []) : {}),
       ...(final ? { final } : {}),
       ...(curvesOf(preds, actual, frame.data.classes, { testRows: testMean, trainRows: trainMean })),
       ...(pooledActual?.task === 'regression' && pooledPred ? { pooledSample: pooledSample(pooledActual.values, pooledPred.predicted) } : {}),
@@ -278,6 +276,13 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
 }
 
 /** The curves of a classifier whose every scored fold has probabilities (src/curves/); nothing otherwise. */
+/** The pooled confusion matrix of a learner: whole up to CONFUSION_CLASS_LIMIT classes, folded beyond (src/metrics/folded-confusion.ts). */
+function pooledConfusion(actual: Int32Array, predicted: Int32Array, classes: number, names: readonly string[]): Pick<LearnerReport, 'confusion' | 'confusionFolded'> {
+  if (classes <= CONFUSION_CLASS_LIMIT) return { confusion: confusionMatrix(actual, predicted, classes) };
+  const f = foldedConfusion(actual, predicted, classes);
+  return { confusionFolded: { classes: f.kept.map((c) => names[c]), otherClasses: f.otherClasses, matrix: f.matrix, otherCorrect: f.otherCorrect } };
+}
+
 function curvesOf(
   preds: readonly Prediction[],
   actual: readonly Target[],

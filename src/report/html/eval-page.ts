@@ -70,7 +70,7 @@ export function renderEvalHtml(report: Report): string {
   if (slices) parts.push('<section><h2>Slices</h2>', slices, '</section>');
 
   if (d.task === 'classification' && d.classes) {
-    const withMatrix = report.learners.filter((l) => l.confusion && l.confusion.length > 0);
+    const withMatrix = report.learners.filter((l) => (l.confusion && l.confusion.length > 0) || l.confusionFolded);
     if (withMatrix.length) {
       const first = ctx.best && withMatrix.includes(ctx.best) ? ctx.best : withMatrix[0];
       parts.push('<section><h2>Confusion matrix</h2>');

@@ -3,10 +3,13 @@
  * class's rows that the learner predicted as that class (src/report/html/class-recall.ts, from
  * the pooled confusion matrix). The value is written at the end of every bar. The baseline is
  * left out when other learners are drawn (its matrix is on the page); the learners take the
- * series colours in report order, named in a legend.
+ * series colours in report order, named in a legend. With a folded matrix (more classes than
+ * CONFUSION_CLASS_LIMIT, src/report/confusion-view.ts) only the kept classes, those with the
+ * most rows, get bars, and the caption says how many are not drawn.
  */
 import { textWidth, xAxis } from './axis.js';
 import { classRecall } from './class-recall.js';
+import { confusionView } from '../confusion-view.js';
 import { clip, esc } from './escape.js';
 import { CHART_WIDTH, figure } from './figure.js';
 import { attrNum, num, px, svgText } from './format.js';
@@ -20,15 +23,29 @@ const GAP = 16;
 const LABEL_CHARS = 28;
 
 export function recallChart(ctx: ChartContext): string | undefined {
-  const classes = ctx.report.data.classes;
-  const withMatrix = ctx.report.learners.filter((l) => l.confusion && l.confusion.length > 0);
+  const all = ctx.report.data.classes;
+  if (!all || all.length === 0) return undefined;
+  const views = new Map(ctx.report.learners.map((l) => [l, confusionView(l, all)] as const));
+  const withMatrix = ctx.report.learners.filter((l) => views.get(l));
   // the baseline predicts one class (recall 1 for it, 0 for the rest); leave it out beside others
   const learners = withMatrix.length > 1 ? withMatrix.filter((l) => l !== ctx.baseline) : withMatrix;
-  if (!classes || classes.length === 0 || learners.length === 0) return undefined;
+  if (learners.length === 0) return undefined;
+  // a folded matrix: bars for its kept classes only (the first learner's; the same rows pool in every learner without failed folds)
+  const firstView = views.get(learners[0])!;
+  const classes = firstView.folded ? firstView.labels.slice(0, -1) : all;
+  const notDrawn = all.length - classes.length;
   const colours = new Map<string, string>();
   let next = 0;
   for (const l of learners) colours.set(l.spec, l === ctx.baseline ? BASELINE : SERIES[next++ % SERIES.length]);
-  const recalls = learners.map((l) => classRecall(l.confusion!));
+  const recalls = learners.map((l) => {
+    const view = views.get(l)!;
+    const recall = classRecall(view.matrix);
+    const at = new Map(view.labels.map((c, k) => [c, k] as const));
+    return classes.map((c) => {
+      const k = at.get(c);
+      return k === undefined || (view.folded && k === view.labels.length - 1) ? null : recall[k];
+    });
+  });
   const labelChars = Math.min(LABEL_CHARS, Math.max(6, ...classes.map((c) => Array.from(c).length)));
   const left = Math.max(90, textWidth(labelChars, 14) + 20);
   const right = WIDTH - 70;
@@ -77,7 +94,7 @@ export function recallChart(ctx: ChartContext): string | undefined {
     height: bottom + 56,
     title: 'Recall of each class, per learner',
     desc: `Horizontal bars of per-class recall on the pooled out-of-fold predictions. ${words.join(' ')}`,
-    caption: 'Recall of each class on the pooled out-of-fold predictions: the share of the rows of that class the learner got right. A class the model never gets right shows as a missing bar.',
+    caption: `Recall of each class on the pooled out-of-fold predictions: the share of the rows of that class the learner got right. A class the model never gets right shows as a missing bar.${notDrawn > 0 ? ` Only the ${classes.length} classes with the most rows are drawn; the other ${notDrawn} of the ${all.length} classes are not.` : ''}`,
     body: body.join('\n'),
   });
 }
