@@ -56,6 +56,11 @@ function parseExternal(text: string, t: string, kind: ExternalKind): LearnerSpec
   if (kind === 'command' && !/^[a-z][a-z0-9-]*$/.test(target)) {
     throw new UsageError(`--learner "${text}": expected command:NAME with a lower-case NAME`);
   }
+  const again = semi < 0 ? -1 : t.indexOf(';', semi + 1);
+  if (again >= 0) {
+    // a second ";" would otherwise be read into a value (`pids=X;k=1|2` as the value `X;k=1|2`)
+    throw new UsageError(`--learner "${text}": a second ";" at "${t.slice(again)}"; the options after the first ";" are separated by ",": ${head};a=1,b=2`);
+  }
   return { text: t, name: head, options: semi < 0 ? [] : parseOptions(text, t.slice(semi + 1), ';') };
 }
 

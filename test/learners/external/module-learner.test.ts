@@ -30,6 +30,8 @@ describe('module: learners', () => {
     expect(() => parseLearnerSpec('command:My Prog')).toThrow(/command:NAME with a lower-case NAME/);
     expect(() => parseLearnerSpec('module:./x.js;')).toThrow(/nothing after ";"/);
     expect(() => parseLearnerSpec('module:./x.js;k')).toThrow(/"k" is not key=value/);
+    // a second ";" is refused, not read into the value (`pids=X;k=1|2` was the value `X;k=1|2`)
+    expect(() => parseLearnerSpec('command:rtrain;pids=X;k=1|2')).toThrow('--learner "command:rtrain;pids=X;k=1|2": a second ";" at ";k=1|2"; the options after the first ";" are separated by ",": command:rtrain;a=1,b=2');
     expect(() => getLearner('module:./not-loaded.js')).toThrow(/the module is not loaded/);
     expect(() => getLearner('command:nope')).toThrow(/no program is given for it; add --command nope=PROGRAM/);
   });
