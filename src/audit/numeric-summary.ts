@@ -13,17 +13,19 @@
  * A. Neumaier, "Rundungsfehleranalyse einiger Verfahren zur Summation endlicher Summen",
  * ZAMM 54, 1974 (summarised at https://en.wikipedia.org/wiki/Kahan_summation_algorithm).
  */
+import { quantileSorted as ssQuantileSorted } from 'simple-statistics';
 import { InputError } from '../errors.js';
 import type { NumericProfile } from './types.js';
 
-/** The p-quantile of sorted values by linear interpolation (Hyndman & Fan type 7). */
+/**
+ * The p-quantile of sorted values by linear interpolation (Hyndman & Fan type 7): simple-statistics'
+ * `quantileSorted`, the one src/slices and src/stats use, behind the audit's own input checks and
+ * messages (it reads typed arrays by index as it reads arrays).
+ */
 export function quantileSorted(sorted: ArrayLike<number>, p: number): number {
   if (sorted.length === 0) throw new InputError('quantileSorted: values is empty; need at least one value');
   if (!(p >= 0 && p <= 1)) throw new InputError(`quantileSorted: p ${p} must be from 0 to 1`);
-  const h = (sorted.length - 1) * p;
-  const lo = Math.floor(h);
-  const hi = Math.ceil(h);
-  return lo === hi ? sorted[lo] : sorted[lo] + (h - lo) * (sorted[hi] - sorted[lo]);
+  return ssQuantileSorted(sorted as number[], p);
 }
 
 /** Compensated (Neumaier) sum of the values. */
