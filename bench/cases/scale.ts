@@ -6,7 +6,7 @@
  * peak RSS is that of the step alone. The machine is shared: MB/s is given by wall time and by
  * CPU time (user + system of the child), and beside the parser's own pass on the same file.
  *
- * To add rows (an audit, a forest fit, another input format), append a producer to
+ * To add rows (another learner, another input format), append a producer to
  * SCALE_ROWS: it gets the files and returns table rows; the columns are fixed below.
  */
 import { execFileSync } from 'node:child_process';
@@ -184,8 +184,78 @@ export const typedLoadRows: ScaleRowProducer = async ({ files, log }) => {
   return rows;
 };
 
+interface RunFigures {
+  code: number;
+  wallMs: number;
+  cpuMs: number;
+  peakRssMb: number;
+}
+
+/** Peak memory goal of issue 14: a default forest eval with --jobs 2 within 3 x the float64 columns. */
+const FOREST_RSS_FACTOR = 3;
+/** The quick audit's share goal of issue 14: at most 10% of the eval it runs before. */
+const AUDIT_SHARE_GOAL = 0.1;
+
+/**
+ * Eval at size (issue 14), each a foldwise command in a child process (scale-eval.ts):
+ * - the quick audit's cost: `eval --learner baseline --plan kfold:3` with the audit and with
+ *   --no-audit on the same file; the difference is the audit (the baseline costs next to nothing);
+ * - a forest eval, `eval --learner forest --plan kfold:3 --jobs 2 --no-audit` with default
+ *   forest options: its wall and CPU time, and its peak RSS against 3 x the float64 columns;
+ * - the audit's share of that forest eval (audit / (forest eval + audit)). The default eval
+ *   (kfold:10 with knn and forest) costs far more than this kfold:3 forest eval and the audit
+ *   the same, so its share there is smaller still; knn at 10^6 rows takes too long to run here.
+ * On the numeric files only; slow at 10^6 rows (minutes of CPU for the forest folds).
+ */
+export const evalRows: ScaleRowProducer = ({ files, log }) => {
+  const rows: ScaleRow[] = [];
+  for (const file of files.filter((f) => f.kind === 'numeric')) {
+    const out = `${file.path}.report.json`;
+    const evalOf = (extra: readonly string[]): RunFigures => {
+      const r = child<RunFigures>('scale-eval.js', ['eval', file.path, '--target', 'y', '--json', out, '--no-timing', '--plan', 'kfold:3', ...extra]);
+      if (r.code !== 0) throw new Error(`scale: eval ${extra.join(' ')} exited ${r.code}`);
+      return r;
+    };
+    log(`eval baseline with and without the quick audit, ${file.rows} rows`);
+    const plain = evalOf(['--learner', 'baseline', '--no-audit']);
+    const audited = evalOf(['--learner', 'baseline']);
+    const auditWall = Math.max(0, audited.wallMs - plain.wallMs) / 1000;
+    const auditCpu = Math.max(0, audited.cpuMs - plain.cpuMs) / 1000;
+    rows.push({
+      measure: 'quick audit (eval baseline with it - without it)',
+      file,
+      figure: `${fixed(auditWall, 2)} s wall, ${fixed(auditCpu, 2)} s CPU`,
+      peakRssMb: audited.peakRssMb,
+      goal: '',
+    });
+    log(`eval forest --jobs 2, ${file.rows} rows`);
+    const forestRun = evalOf(['--learner', 'forest', '--jobs', '2', '--no-audit']);
+    const columnsMb = (scaleColumns(file.kind).length * 8 * file.rows) / 2 ** 20;
+    const bound = FOREST_RSS_FACTOR * columnsMb;
+    rows.push({
+      measure: 'eval --learner forest --plan kfold:3 --jobs 2 (default forest options)',
+      file,
+      figure: `${fixed(forestRun.wallMs / 1000, 1)} s wall, ${fixed(forestRun.cpuMs / 1000, 1)} s CPU`,
+      peakRssMb: forestRun.peakRssMb,
+      // the goal is for 10^6 rows; at 10^5 the columns (17 MB) are below Node's own footprint
+      ...(file.rows === 1_000_000 ? { goal: `peak RSS <= 3 x columns = ${fixed(bound, 0)} MB`, met: forestRun.peakRssMb <= bound ? 'yes' : 'no' } : { goal: '' }),
+    });
+    const share = auditWall / (forestRun.wallMs / 1000 + auditWall);
+    const cpuShare = auditCpu / (forestRun.cpuMs / 1000 + auditCpu);
+    rows.push({
+      measure: "quick audit's share of that forest eval",
+      file,
+      figure: `${fixed(100 * share, 1)}% by wall time, ${fixed(100 * cpuShare, 1)}% by CPU time`,
+      goal: `<= ${100 * AUDIT_SHARE_GOAL}% of a default eval`,
+      met: share <= AUDIT_SHARE_GOAL ? 'yes' : cpuShare <= AUDIT_SHARE_GOAL ? 'by CPU time only' : 'no',
+    });
+    rmSync(out, { force: true });
+  }
+  return rows;
+};
+
 /** Producers of the table's rows, in order. Add a line here for a new measure or format. */
-export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows, typedLoadRows];
+export const SCALE_ROWS: ScaleRowProducer[] = [csvLoadRows, longFieldRows, typedLoadRows, evalRows];
 
 async function run({ log }: { log: (line: string) => void }) {
   const dir = mkdtempSync(join(tmpdir(), 'foldwise-scale-'));
@@ -231,7 +301,7 @@ async function run({ log }: { log: (line: string) => void }) {
 export const cases: BenchCase[] = [
   {
     name: 'scale',
-    doc: 'data at 10^5 and 10^6 rows: CSV load MB/s and peak RSS per format, with the goals of issue 14',
+    doc: 'data at 10^5 and 10^6 rows: load MB/s and peak RSS per format, the quick audit and its share, a forest eval (slow), with the goals of issue 14',
     run,
   },
 ];
