@@ -30,7 +30,7 @@ export async function stagePredictions(io: Io, path: string, frame: ReportFrame,
   const format = predictionsFormat(path);
   if (format !== 'csv') {
     const typed = predictionsBatches(frame, records, keep, batchRows);
-    return stageChunks(path, format === 'parquet' ? parquetChunks(typed.batches) : arrowChunks(typed.batches, typed.nullable), '--predictions');
+    return stageChunks(path, format === 'parquet' ? parquetChunks(typed.batches) : arrowChunks(typed.batches), '--predictions');
   }
   const chunks = predictionsCsv(frame, records, keep);
   if (path !== '-') return stageChunks(path, chunks, '--predictions');

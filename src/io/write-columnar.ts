@@ -193,11 +193,11 @@ class TakenQueue extends A.AsyncByteQueue {
 /**
  * An Arrow IPC file written batch by batch (one record batch a batch, through apache-arrow's
  * RecordBatchFileWriter): each batch's bytes are yielded before the next batch is asked for.
- * `nullable[j]` says whether column j holds a null in any batch (the schema comes first, before
- * the batches are seen). Each text column's dictionary (its `levels`) is written once, with the
- * first batch; dictionary ids are the text columns' order, 0, 1, ...
+ * The schema is the first batch's, every field nullable as in `arrowBytes` (where apache-arrow
+ * calls a column of no nulls nullable too); each text column's dictionary (its `levels`) is
+ * written once, with the first batch; dictionary ids are the text columns' order, 0, 1, ...
  */
-export function* arrowChunks(batches: Iterable<ColumnBatch>, nullable: readonly boolean[]): Generator<Uint8Array> {
+export function* arrowChunks(batches: Iterable<ColumnBatch>): Generator<Uint8Array> {
   const sink = new TakenQueue();
   const writer = new A.RecordBatchFileWriter();
   writer.reset(sink);
@@ -208,11 +208,10 @@ export function* arrowChunks(batches: Iterable<ColumnBatch>, nullable: readonly 
   for (const b of batches) {
     if (!first) {
       first = b.columns;
-      if (nullable.length !== first.length) throw new Error('arrowChunks: one nullable flag a column');
       let id = 0;
       types = first.map((c) => arrowType(c, b.length, id++));
       dictionaries = first.map((c) => (c.kind === 'text' ? A.vectorFromArray([...c.levels], new A.Utf8()) : undefined));
-      schema = new A.Schema(first.map((c, j) => new A.Field(c.name, types[j], nullable[j])));
+      schema = new A.Schema(first.map((c, j) => new A.Field(c.name, types[j], true)));
     } else if (!sameShape(first, b.columns)) throw new Error('arrowChunks: a batch with other columns than the first');
     const children = b.columns.map((c, j) => arrowData(c, b.length, types[j], dictionaries[j]));
     const data = A.makeData({ type: new A.Struct(schema!.fields), length: b.length, nullCount: 0, children });

@@ -120,9 +120,8 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
 /** Rows a batch (a Parquet row group, an Arrow record batch) of a typed predictions file holds at most. */
 export const PREDICTION_BATCH_ROWS = 65_536;
 
-/** A typed predictions file: whether each column holds a null anywhere, and its batches in order. */
+/** A typed predictions file: its number of lines and its batches in order. */
 export interface TypedPredictions {
-  readonly nullable: readonly boolean[];
   readonly length: number;
   readonly batches: Iterable<ColumnBatch>;
 }
@@ -134,8 +133,8 @@ export interface TypedPredictions {
  * values and probabilities as doubles (null where a learner gives none), in batches of at most
  * `batchRows` rows (across tasks: the batches depend on the lines only). A first pass over the
  * records finds the pick and kept columns' levels (in order of first appearance, so every batch
- * shares them) and the columns that hold nulls; then each batch is built when it is asked for,
- * so only one batch of the file is held at a time.
+ * shares them); then each batch is built when it is asked for, so only one batch of the file is
+ * held at a time.
  */
 export function predictionsBatches(frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[] = [], batchRows = PREDICTION_BATCH_ROWS): TypedPredictions {
   if (!(batchRows >= 1)) throw new Error(`predictionsBatches: batchRows ${batchRows}`);
@@ -157,44 +156,15 @@ export function predictionsBatches(frame: ReportFrame, records: readonly TaskRec
     return code;
   };
   let n = 0;
-  let holdoutNulls = false;
-  let actualNulls = false;
-  let predictedNulls = false;
-  const probNulls = classes.map(() => false);
-  const anyNaN = (a: ArrayLike<number>, from = 0, step = 1): boolean => {
-    for (let i = from; i < a.length; i += step) if (a[i] !== a[i]) return true;
-    return false;
-  };
   for (const r of done) {
     if (!r.rows || !r.lines) throw new Error(`task ${r.id} carries no row numbers`);
-    const m = r.rows.length;
-    n += m;
+    n += r.rows.length;
     codeOf(pickLevels, pickIndex, r.pick ?? '');
-    for (let i = 0; i < m; i++) for (let j = 0; j < k; j++) codeOf(kept[j].levels, kept[j].index, r.keep![i * k + j]);
-    if (m === 0) continue;
-    if (r.foldIndex < 0) holdoutNulls = true;
-    if (r.actual.task === 'regression') {
-      actualNulls ||= anyNaN(r.actual.values);
-      predictedNulls ||= anyNaN(r.predicted);
-    } else for (let j = 0; j < c; j++) probNulls[j] ||= !r.probs || anyNaN(r.probs, j, c);
+    for (let i = 0; i < r.rows.length; i++) for (let j = 0; j < k; j++) codeOf(kept[j].levels, kept[j].index, r.keep![i * k + j]);
   }
   const predictedName = fixedColumns(task)[7];
   const learnerLevels = frame.learners.map((l) => l.spec);
   const roleLevels = ['test', 'holdout'];
-  const nullable = [
-    false,
-    false,
-    holdoutNulls,
-    holdoutNulls,
-    false,
-    false,
-    task === 'regression' && actualNulls,
-    task === 'regression' && predictedNulls,
-    false,
-    ...(task === 'classification' ? probNulls : []),
-    ...(picks ? [false] : []),
-    ...keep.map(() => false),
-  ];
 
   function* batches(): Generator<ColumnBatch> {
     const arrays = (size: number) => ({
@@ -276,5 +246,5 @@ export function predictionsBatches(frame: ReportFrame, records: readonly TaskRec
       }
     }
   }
-  return { nullable, length: n, batches: { [Symbol.iterator]: batches } };
+  return { length: n, batches: { [Symbol.iterator]: batches } };
 }
