@@ -4,7 +4,9 @@
  * `--predictions FILE.parquet|FILE.arrow`. The shapes mirror the loader's: numbers as doubles
  * (NaN as null), whole numbers as int32, texts as dictionary-coded strings, dates as a date
  * (whole days) or a millisecond timestamp (a time of day), so reading a written file back gives
- * the same columns.
+ * the same columns. `parquetBytes` and `arrowBytes` make a whole file in memory (split parts,
+ * `command:` files); `parquetChunks` and `arrowChunks` write a file batch by batch, yielding
+ * each batch's bytes before the next batch is asked for (predictions).
  */
 import * as A from 'apache-arrow';
 import { ByteWriter, ParquetWriter, parquetWriteBuffer } from 'hyparquet-writer';

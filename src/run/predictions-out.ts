@@ -17,8 +17,9 @@
  *   then each --predictions-keep column under its own name.
  *
  * Numbers are the shortest text that reads back as the same double. The lines are produced in
- * chunks, so writing the file does not hold it in memory; the same records give the same bytes,
- * however the run was made (threads, shards and merge, a resumed journal).
+ * chunks (CSV) or typed batches of at most PREDICTION_BATCH_ROWS lines (Parquet, Arrow), so
+ * writing the file does not hold it in memory; the same records give the same bytes, however the
+ * run was made (threads, shards and merge, a resumed journal).
  */
 import { closeNames, UsageError } from '../errors.js';
 import { csvField, csvRow, numberField } from '../io/csv-text.js';
