@@ -211,7 +211,7 @@ export function* arrowChunks(batches: Iterable<ColumnBatch>): Generator<Uint8Arr
     if (!first) {
       first = b.columns;
       let id = 0;
-      types = first.map((c) => arrowType(c, b.length, id++));
+      types = first.map((c) => arrowType(c, b.length, c.kind === 'text' ? id++ : undefined));
       dictionaries = first.map((c) => (c.kind === 'text' ? A.vectorFromArray([...c.levels], new A.Utf8()) : undefined));
       schema = new A.Schema(first.map((c, j) => new A.Field(c.name, types[j], true)));
     } else if (!sameShape(first, b.columns)) throw new Error('arrowChunks: a batch with other columns than the first');

@@ -13,7 +13,7 @@
 import { describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { tableFromIPC } from 'apache-arrow';
+import { Dictionary, tableFromIPC } from 'apache-arrow';
 import { parquetMetadata, parquetReadObjects } from 'hyparquet';
 import { stagePredictions } from '../../src/cli/predictions-output.js';
 import type { Io } from '../../src/cli/io.js';
@@ -155,6 +155,9 @@ describe('streamed typed predictions read back with the format\'s own library', 
     expect(streamed.numRows).toBe(lines);
     const shape = (t: typeof streamed): string[] => t.schema.fields.map((f) => `${f.name} ${String(f.type)} ${f.nullable}`);
     expect(shape(streamed)).toEqual(shape(reference));
+    // dictionary ids fixed by column order (the library's own ids count up through the process)
+    const ids = streamed.schema.fields.filter((f) => f.type instanceof Dictionary).map((f) => (f.type as Dictionary).id);
+    expect(ids).toEqual(task === 'classification' ? [0, 1, 2, 3, 4] : [0, 1, 2, 3]);
     for (const f of reference.schema.fields) {
       const a = streamed.getChild(f.name)!.toArray();
       const b = reference.getChild(f.name)!.toArray();
