@@ -1,11 +1,11 @@
 /** `--predictions FILE|-` and `--predictions-keep COL` for eval, merge and tune. */
 import { UsageError } from '../errors.js';
 import { formatOfName } from '../data/load-table.js';
-import { arrowBytes, parquetBytes } from '../io/write-columnar.js';
+import { arrowChunks, parquetChunks } from '../io/write-columnar.js';
 import { stageChunks, writeChunks, type ChunkSink, type Staged } from '../report/atomic-stream.js';
 import type { ReportFrame } from '../run/evaluate.js';
 import type { TaskRecord } from '../model/record.js';
-import { predictionsColumns, predictionsCsv } from '../run/predictions-out.js';
+import { PREDICTION_BATCH_ROWS, predictionsBatches, predictionsCsv } from '../run/predictions-out.js';
 import type { Io } from './io.js';
 
 /** Refuses an empty name (the name decides the format). */
@@ -22,14 +22,15 @@ export function predictionsFormat(path: string): 'csv' | 'parquet' | 'arrow' {
 
 /**
  * Writes the predictions file to a temporary file (to rename with the run's other outputs), or
- * streams it to standard output for "-" (nothing left to commit then). CSV goes in chunks;
- * Parquet and Arrow files are built whole in memory first.
+ * streams it to standard output for "-" (nothing left to commit then). CSV goes in chunks of
+ * lines, Parquet in row groups and Arrow in record batches of at most `batchRows` rows, each
+ * written to the temporary file before the next is built.
  */
-export async function stagePredictions(io: Io, path: string, frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[]): Promise<Staged> {
+export async function stagePredictions(io: Io, path: string, frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[], batchRows = PREDICTION_BATCH_ROWS): Promise<Staged> {
   const format = predictionsFormat(path);
   if (format !== 'csv') {
-    const { columns, length } = predictionsColumns(frame, records, keep);
-    return stageChunks(path, [format === 'parquet' ? parquetBytes(columns, length) : arrowBytes(columns, length)], '--predictions');
+    const typed = predictionsBatches(frame, records, keep, batchRows);
+    return stageChunks(path, format === 'parquet' ? parquetChunks(typed.batches) : arrowChunks(typed.batches), '--predictions');
   }
   const chunks = predictionsCsv(frame, records, keep);
   if (path !== '-') return stageChunks(path, chunks, '--predictions');

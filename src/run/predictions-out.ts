@@ -17,13 +17,14 @@
  *   then each --predictions-keep column under its own name.
  *
  * Numbers are the shortest text that reads back as the same double. The lines are produced in
- * chunks, so writing the file does not hold it in memory; the same records give the same bytes,
- * however the run was made (threads, shards and merge, a resumed journal).
+ * chunks (CSV) or typed batches of at most PREDICTION_BATCH_ROWS lines (Parquet, Arrow), so
+ * writing the file does not hold it in memory; the same records give the same bytes, however the
+ * run was made (threads, shards and merge, a resumed journal).
  */
 import { closeNames, UsageError } from '../errors.js';
 import { csvField, csvRow, numberField } from '../io/csv-text.js';
 import type { Table } from '../data/types.js';
-import type { OutColumn } from '../io/write-columnar.js';
+import type { ColumnBatch, OutColumn } from '../io/write-columnar.js';
 import type { ReportFrame, TaskRecord } from './evaluate.js';
 
 /** The fixed columns, in order, before the probability and kept columns. */
@@ -117,93 +118,134 @@ export function* predictionsCsv(frame: ReportFrame, records: readonly TaskRecord
   }
 }
 
+/** Rows a batch (a Parquet row group, an Arrow record batch) of a typed predictions file holds at most. */
+export const PREDICTION_BATCH_ROWS = 65_536;
+
+/** A typed predictions file: its number of lines and its batches in order. */
+export interface TypedPredictions {
+  readonly length: number;
+  readonly batches: Iterable<ColumnBatch>;
+}
+
 /**
  * The same file as `predictionsCsv` as typed columns, for `--predictions FILE.parquet` and
  * `FILE.arrow`: line, row, repeat, fold and train_rows as int32 (repeat and fold null for the
  * holdout part), role, learner, classes, pick and kept columns as dictionary-coded strings,
- * values and probabilities as doubles (null where a learner gives none).
+ * values and probabilities as doubles (null where a learner gives none), in batches of at most
+ * `batchRows` rows (across tasks: the batches depend on the lines only). A first pass over the
+ * records finds the pick and kept columns' levels (in order of first appearance, so every batch
+ * shares them); then each batch is built when it is asked for, so only one batch of the file is
+ * held at a time.
  */
-export function predictionsColumns(frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[] = []): { columns: OutColumn[]; length: number } {
+export function predictionsBatches(frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[] = [], batchRows = PREDICTION_BATCH_ROWS): TypedPredictions {
+  if (!(batchRows >= 1)) throw new Error(`predictionsBatches: batchRows ${batchRows}`);
   const task = frame.data.task;
   const classes = frame.data.classes ?? [];
+  const c = classes.length;
+  const k = keep.length;
   const picks = records.some((r) => r.pick !== undefined);
   const done = records.filter((r) => !r.failed);
+  const pickLevels: string[] = [];
+  const pickIndex = new Map<string, number>();
+  const kept = keep.map(() => ({ levels: [] as string[], index: new Map<string, number>() }));
+  const codeOf = (levels: string[], index: Map<string, number>, text: string): number => {
+    let code = index.get(text);
+    if (code === undefined) {
+      code = levels.push(text) - 1;
+      index.set(text, code);
+    }
+    return code;
+  };
   let n = 0;
   for (const r of done) {
     if (!r.rows || !r.lines) throw new Error(`task ${r.id} carries no row numbers`);
     n += r.rows.length;
-  }
-  const line = new Int32Array(n);
-  const row = new Int32Array(n);
-  const repeat = new Int32Array(n);
-  const fold = new Int32Array(n);
-  const noFold = new Uint8Array(n);
-  const role = new Int32Array(n);
-  const learner = new Int32Array(n);
-  const train = new Int32Array(n);
-  const actualCodes = new Int32Array(task === 'classification' ? n : 0);
-  const predictedCodes = new Int32Array(task === 'classification' ? n : 0);
-  const actualValues = new Float64Array(task === 'regression' ? n : 0);
-  const predictedValues = new Float64Array(task === 'regression' ? n : 0);
-  const probs = classes.map(() => new Float64Array(task === 'classification' ? n : 0));
-  const pickLevels: string[] = [];
-  const pickIndex = new Map<string, number>();
-  const pick = new Int32Array(picks ? n : 0);
-  const kept = keep.map(() => ({ codes: new Int32Array(n), levels: [] as string[], index: new Map<string, number>() }));
-  const codeOf = (levels: string[], index: Map<string, number>, text: string): number => {
-    let k = index.get(text);
-    if (k === undefined) {
-      k = levels.push(text) - 1;
-      index.set(text, k);
-    }
-    return k;
-  };
-  let at = 0;
-  for (const r of done) {
-    const rows = r.rows!;
-    const lines = r.lines!;
-    const c = classes.length;
-    const k = keep.length;
-    const p = codeOf(pickLevels, pickIndex, r.pick ?? '');
-    for (let i = 0; i < rows.length; i++, at++) {
-      line[at] = lines[i];
-      row[at] = rows[i];
-      if (r.foldIndex < 0) noFold[at] = 1;
-      else {
-        repeat[at] = r.repeat + 1;
-        fold[at] = r.fold + 1;
-      }
-      role[at] = r.foldIndex < 0 ? 1 : 0;
-      learner[at] = r.candidateIndex;
-      train[at] = r.trainRows;
-      if (r.actual.task === 'classification') {
-        actualCodes[at] = r.actual.codes[i];
-        predictedCodes[at] = (r.predicted as Int32Array)[i];
-        for (let j = 0; j < c; j++) probs[j][at] = r.probs ? r.probs[i * c + j] : NaN;
-      } else {
-        actualValues[at] = r.actual.values[i];
-        predictedValues[at] = r.predicted[i];
-      }
-      if (picks) pick[at] = p;
-      for (let j = 0; j < k; j++) kept[j].codes[at] = codeOf(kept[j].levels, kept[j].index, r.keep![i * k + j]);
-    }
+    codeOf(pickLevels, pickIndex, r.pick ?? '');
+    for (let i = 0; i < r.rows.length; i++) for (let j = 0; j < k; j++) codeOf(kept[j].levels, kept[j].index, r.keep![i * k + j]);
   }
   const predictedName = fixedColumns(task)[7];
-  const columns: OutColumn[] = [
-    { kind: 'int', name: 'line', values: line },
-    { kind: 'int', name: 'row', values: row },
-    { kind: 'int', name: 'repeat', values: repeat, nulls: noFold },
-    { kind: 'int', name: 'fold', values: fold, nulls: noFold },
-    { kind: 'text', name: 'role', codes: role, levels: ['test', 'holdout'] },
-    { kind: 'text', name: 'learner', codes: learner, levels: frame.learners.map((l) => l.spec) },
-    task === 'classification' ? { kind: 'text', name: 'actual', codes: actualCodes, levels: classes } : { kind: 'float', name: 'actual', values: actualValues },
-    task === 'classification'
-      ? { kind: 'text', name: predictedName, codes: predictedCodes, levels: classes }
-      : { kind: 'float', name: predictedName, values: predictedValues },
-    { kind: 'int', name: 'train_rows', values: train },
-    ...(task === 'classification' ? classes.map((cls, j): OutColumn => ({ kind: 'float', name: `${PROB_PREFIX}${cls}`, values: probs[j] })) : []),
-    ...(picks ? [{ kind: 'text', name: 'pick', codes: pick, levels: pickLevels } as OutColumn] : []),
-    ...keep.map((name, j): OutColumn => ({ kind: 'text', name, codes: kept[j].codes, levels: kept[j].levels })),
-  ];
-  return { columns, length: n };
+  const learnerLevels = frame.learners.map((l) => l.spec);
+  const roleLevels = ['test', 'holdout'];
+
+  function* batches(): Generator<ColumnBatch> {
+    const arrays = (size: number) => ({
+      size,
+      line: new Int32Array(size),
+      row: new Int32Array(size),
+      repeat: new Int32Array(size),
+      fold: new Int32Array(size),
+      noFold: new Uint8Array(size),
+      role: new Int32Array(size),
+      learner: new Int32Array(size),
+      train: new Int32Array(size),
+      actualCodes: new Int32Array(task === 'classification' ? size : 0),
+      predictedCodes: new Int32Array(task === 'classification' ? size : 0),
+      actualValues: new Float64Array(task === 'regression' ? size : 0),
+      predictedValues: new Float64Array(task === 'regression' ? size : 0),
+      probs: classes.map(() => new Float64Array(task === 'classification' ? size : 0)),
+      pick: new Int32Array(picks ? size : 0),
+      kept: keep.map(() => new Int32Array(size)),
+    });
+    const batch = (b: ReturnType<typeof arrays>): ColumnBatch => ({
+      length: b.size,
+      columns: [
+        { kind: 'int', name: 'line', values: b.line },
+        { kind: 'int', name: 'row', values: b.row },
+        { kind: 'int', name: 'repeat', values: b.repeat, nulls: b.noFold },
+        { kind: 'int', name: 'fold', values: b.fold, nulls: b.noFold },
+        { kind: 'text', name: 'role', codes: b.role, levels: roleLevels },
+        { kind: 'text', name: 'learner', codes: b.learner, levels: learnerLevels },
+        task === 'classification' ? { kind: 'text', name: 'actual', codes: b.actualCodes, levels: classes } : { kind: 'float', name: 'actual', values: b.actualValues },
+        task === 'classification'
+          ? { kind: 'text', name: predictedName, codes: b.predictedCodes, levels: classes }
+          : { kind: 'float', name: predictedName, values: b.predictedValues },
+        { kind: 'int', name: 'train_rows', values: b.train },
+        ...(task === 'classification' ? classes.map((cls, j): OutColumn => ({ kind: 'float', name: `${PROB_PREFIX}${cls}`, values: b.probs[j] })) : []),
+        ...(picks ? [{ kind: 'text', name: 'pick', codes: b.pick, levels: pickLevels } as OutColumn] : []),
+        ...keep.map((name, j): OutColumn => ({ kind: 'text', name, codes: b.kept[j], levels: kept[j].levels })),
+      ],
+    });
+    if (n === 0) {
+      yield batch(arrays(0));
+      return;
+    }
+    let left = n;
+    let b = arrays(Math.min(batchRows, left));
+    let at = 0;
+    for (const r of done) {
+      const rows = r.rows!;
+      const lines = r.lines!;
+      const p = pickIndex.get(r.pick ?? '')!;
+      for (let i = 0; i < rows.length; i++) {
+        b.line[at] = lines[i];
+        b.row[at] = rows[i];
+        if (r.foldIndex < 0) b.noFold[at] = 1;
+        else {
+          b.repeat[at] = r.repeat + 1;
+          b.fold[at] = r.fold + 1;
+        }
+        b.role[at] = r.foldIndex < 0 ? 1 : 0;
+        b.learner[at] = r.candidateIndex;
+        b.train[at] = r.trainRows;
+        if (r.actual.task === 'classification') {
+          b.actualCodes[at] = r.actual.codes[i];
+          b.predictedCodes[at] = (r.predicted as Int32Array)[i];
+          for (let j = 0; j < c; j++) b.probs[j][at] = r.probs ? r.probs[i * c + j] : NaN;
+        } else {
+          b.actualValues[at] = r.actual.values[i];
+          b.predictedValues[at] = r.predicted[i];
+        }
+        if (picks) b.pick[at] = p;
+        for (let j = 0; j < k; j++) b.kept[j][at] = kept[j].index.get(r.keep![i * k + j])!;
+        if (++at === b.size) {
+          yield batch(b);
+          left -= b.size;
+          if (left === 0) return;
+          b = arrays(Math.min(batchRows, left));
+          at = 0;
+        }
+      }
+    }
+  }
+  return { length: n, batches: { [Symbol.iterator]: batches } };
 }

@@ -139,6 +139,29 @@ describe('eval --predictions: the same bytes however the run is made', () => {
     expect(resumed.stdout).toBe(one.stdout);
   });
 
+  it.each(['parquet', 'arrow'])('as %s too: --jobs 1 and 2, three shards merged, a run resumed from its journal', async (ext) => {
+    const bytes = async (args: string[], name: string): Promise<Buffer> => {
+      const file = join(tmp.dir, `${name}.${ext}`);
+      const r = await cli([...args, '--predictions', file]);
+      expect(r.stderr.split('\n').filter((l) => l && !l.includes('warning'))).toEqual([]);
+      expect(r.code).toBe(0);
+      return readFileSync(file);
+    };
+    const one = await bytes([...species, '--jobs', '1'], `j1-${ext}`);
+    expect(one.length).toBeGreaterThan(10_000);
+    expect(one.equals(await bytes([...species, '--jobs', '2'], `j2-${ext}`))).toBe(true);
+    const parts: string[] = [];
+    for (const i of [1, 2, 3]) {
+      const out = join(tmp.dir, `pt-${ext}-${i}.json`);
+      expect((await cli([...species, '--jobs', '1', '--shard', `${i}/3`, '--json', out])).code).toBe(0);
+      parts.push(out);
+    }
+    expect(one.equals(await bytes(['merge', ...parts, '--no-timing'], `merged-${ext}`))).toBe(true);
+    const journal = join(tmp.dir, `pred-${ext}.journal`);
+    expect((await cli([...species, '--jobs', '1', '--journal', journal, '--json', join(tmp.dir, `j-${ext}.json`)])).code).toBe(0);
+    expect(one.equals(await bytes([...species, '--jobs', '1', '--journal', journal], `resumed-${ext}`))).toBe(true);
+  });
+
   it('is refused with --shard (the part carries the predictions); a Parquet name writes Parquet (test/score/score-columnar.test.ts)', async () => {
     const s = await cli([...species, '--shard', '1/2', '--json', join(tmp.dir, 'x.json'), '--predictions', join(tmp.dir, 'x.csv')]);
     expect(s.code).toBe(2);
