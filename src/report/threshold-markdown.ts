@@ -16,7 +16,7 @@ export function thresholdSection(report: Report, table: Table): string[] {
   const out: string[] = [
     `## Threshold chosen inside the training folds: ${cell(t.rule)}`,
     '',
-    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of that fold's training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${cell(t.positive)}.`,
+    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.timeOrdered ? `time-ordered ${t.innerFolds}-fold inner split (each inner fold fits on earlier rows and predicts the block after them)` : `${t.innerFolds}-fold inner split`} of that fold's training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${cell(t.positive)}.`,
     '',
   ];
   for (const l of report.learners) {

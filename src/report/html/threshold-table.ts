@@ -12,7 +12,7 @@ export function thresholdSection(report: Report): string {
   if (!t) return '';
   const parts: string[] = [
     `<section><h2>${esc(`Threshold chosen inside the training folds (${t.rule})`)}</h2>`,
-    `<p>${esc(`A row is called ${t.positive} when its probability of ${t.positive} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of its training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${t.positive}.`)}</p>`,
+    `<p>${esc(`A row is called ${t.positive} when its probability of ${t.positive} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.timeOrdered ? `time-ordered ${t.innerFolds}-fold inner split (each inner fold fits on earlier rows and predicts the block after them)` : `${t.innerFolds}-fold inner split`} of its training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${t.positive}.`)}</p>`,
   ];
   for (const l of report.learners) {
     const lt = l.threshold;
