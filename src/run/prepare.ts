@@ -215,7 +215,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
 }
 
 /** --threshold and --threshold-folds, checked: two classes only, 2 to 20 inner folds; in time order under a forward plan. */
-function thresholdPlanOf(problem: Problem, options: EvaluateOptions, planSpec: PlanSpec): ThresholdPlan | undefined {
+export function thresholdPlanOf(problem: Problem, options: Pick<EvaluateOptions, 'threshold' | 'thresholdFolds'>, planSpec: PlanSpec): ThresholdPlan | undefined {
   if (options.threshold === undefined) {
     if (options.thresholdFolds !== undefined) throw new UsageError('--threshold-folds: give --threshold too');
     return undefined;
