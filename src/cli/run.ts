@@ -43,6 +43,7 @@ import { registerCompare } from './compare.js';
 import { registerGate } from './gate.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
+import { parseThresholdFolds, THRESHOLD_FOLDS_HELP, THRESHOLD_HELP } from './threshold-option.js';
 import { writeOutputs } from './output.js';
 import { checkPredictionsPath, withPredictions } from './predictions-output.js';
 import { runCleanups } from './cleanup.js';
@@ -102,12 +103,6 @@ interface EvalFlags extends DataFlags, CommandFlags, CostsFlags {
 /** --importance-repeats: a whole number (its range is checked with the run's options). */
 function parseImportanceRepeats(text: string): number {
   if (!/^\d+$/.test(text)) throw new UsageError(`--importance-repeats ${text}: expected a whole number from 1 to 1000`);
-  return Number(text);
-}
-
-/** --threshold-folds: a whole number (its range is checked with the run's options). */
-function parseThresholdFolds(text: string): number {
-  if (!/^\d+$/.test(text)) throw new UsageError(`--threshold-folds ${text}: expected a whole number from 2 to 20`);
   return Number(text);
 }
 
@@ -269,8 +264,8 @@ function program(io: Io, setCode: (code: number) => void): Command {
     .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all rows (default ${DEFAULT_SLICE_BINS})`)
     .option('--importance', "permutation importance: each feature's drop of the headline metric on each fold's test rows when its values are shuffled")
     .option('--importance-repeats <n>', 'shuffles per feature and fold for --importance (default 5)')
-    .option('--threshold <rule>', 'two-class targets: choose the threshold on an inner split of each outer training fold by RULE (max-f1, youden, precision>=P, recall>=R, cost:FP=a,FN=b) and report the scores at it beside 0.5')
-    .option('--threshold-folds <k>', 'inner folds of each outer training fold for --threshold (default 5)')
+    .option('--threshold <rule>', THRESHOLD_HELP)
+    .option('--threshold-folds <k>', THRESHOLD_FOLDS_HELP)
     .option('--importance-clusters', "with --importance, also shuffle each of the audit's correlated clusters as one input")
     .addOption(new Option('--on-fold-error <what>', 'when a fold of a command: learner fails: fail the run, or skip the fold and record it in the report').choices(ON_FOLD_ERROR_CHOICES).default('fail'))
     .action(async (data: string, flags: EvalFlags) => setCode(await runEval(data, flags, io)));

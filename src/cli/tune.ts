@@ -23,7 +23,7 @@ import { EXIT_OK, UsageError } from '../errors.js';
 import { IMPUTE_CHOICES, type Impute } from '../prep/fold-prep.js';
 import { renderTuneHtml } from '../report/html/index.js';
 import { renderTuneMarkdown } from '../report/tune-markdown.js';
-import { readRunCosts, DEFAULT_SEED } from '../run/prepare.js';
+import { readRunCosts, DEFAULT_SEED, thresholdPlanOf } from '../run/prepare.js';
 import { DEFAULT_MAX_CANDIDATES, MAX_CANDIDATES_LIMIT, parseSearchSpace, planSearch } from '../search/space.js';
 import { PICK_RULES, type PickRule } from '../search/pick.js';
 import { DEFAULT_INNER_PLAN, DEFAULT_OUTER_PLAN, DEFAULT_SEARCH, type TuneOptions, tuneWithPredictions } from '../search/tune.js';
@@ -38,8 +38,11 @@ import type { Io } from './io.js';
 import { printAuditSuspects } from './warnings.js';
 import { addCommandOptions, commandSetupOf, type CommandFlags } from './command-options.js';
 import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
+import { parseThresholdFolds, THRESHOLD_FOLDS_HELP, THRESHOLD_HELP } from './threshold-option.js';
 
 interface TuneFlags extends DataFlags, CommandFlags, CostsFlags {
+  threshold?: string;
+  thresholdFolds?: string;
   plan: string;
   inner: string;
   stratify: boolean;
@@ -110,7 +113,9 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   // refused run prints its one error line only
   const problem = defineProblem(table, problemOptionsOf(flags));
   resolveMetrics(problem, flags.metric, readRunCosts(problem, costs, flags.metric));
-  parsePlan(flags.plan);
+  const thresholdFolds = flags.thresholdFolds === undefined ? undefined : parseThresholdFolds(flags.thresholdFolds);
+  const threshold = { ...(flags.threshold !== undefined ? { threshold: flags.threshold } : {}), ...(thresholdFolds !== undefined ? { thresholdFolds } : {}) };
+  thresholdPlanOf(problem, threshold, parsePlan(flags.plan));
   try {
     parsePlan(flags.inner);
   } catch (e) {
@@ -135,6 +140,7 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
     timing: flags.timing,
     audit: flags.audit,
     ...(costs ? { costs } : {}),
+    ...threshold,
   };
   let result: ReturnType<typeof tuneWithPredictions>;
   if (jobs > 1) {
@@ -185,6 +191,8 @@ export function registerTune(prog: Command, io: Io, setCode: (code: number) => v
     .option('--learner <spec>', 'search space NAME:key=A|B|C,key=FROM..TO+STEP or FROM..TO*FACTOR (repeatable; see foldwise learners)', collect)
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline and decides the pick)', collect)
     .option('--costs <file>', COSTS_HELP)
+    .option('--threshold <rule>', `${THRESHOLD_HELP}; in tune, for the pick of each outer fold`)
+    .option('--threshold-folds <k>', THRESHOLD_FOLDS_HELP)
     .addOption(new Option('--pick <rule>', 'best inner mean, or the simplest within one standard error of it').choices(PICK_RULES).default('best'))
     .option('--sample <n>', 'random search: try n candidates drawn from the space (seeded)')
     .option('--max-candidates <n>', `most candidates a search may try (default ${DEFAULT_MAX_CANDIDATES})`)

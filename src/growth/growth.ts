@@ -22,7 +22,8 @@ import type { Table } from '../data/types.js';
 import { dataSection } from '../data/problem.js';
 import { FoldwiseError, InputError, UsageError } from '../errors.js';
 import { CommandFoldError } from '../learners/command/errors.js';
-import { getMetric } from '../metrics/index.js';
+import { costRows, getMetric } from '../metrics/index.js';
+import type { ReportCosts } from '../model/report.js';
 import type { Metric } from '../metrics/types.js';
 import { foldLabel } from '../model/fold-label.js';
 import { prepareRun, type EvaluateOptions, type Prepared } from '../run/prepare.js';
@@ -79,6 +80,8 @@ export interface GrowthReport {
   readonly command: 'growth';
   readonly data: ReturnType<typeof dataSection>;
   readonly plan: { readonly text: string; readonly folds: number; readonly repeats: number; readonly stratified: boolean; readonly seed: number };
+  /** --costs FILE: the matrix of the cost metric, as eval's settings.costs (absent without it) */
+  readonly settings?: { readonly costs: ReportCosts };
   readonly metric: string;
   readonly higherIsBetter: boolean;
   readonly sizes: readonly number[];
@@ -120,6 +123,8 @@ function quantile(sorted: readonly number[], p: number): number {
 export interface GrowthFrame {
   readonly data: ReturnType<typeof dataSection>;
   readonly plan: GrowthReport['plan'];
+  /** --costs: the matrix as the report shows it */
+  readonly costs?: ReportCosts;
   readonly metric: string;
   readonly sizes: readonly number[];
   readonly learners: readonly { readonly name: string; readonly spec: string }[];
@@ -181,6 +186,7 @@ export function prepareGrowth(table: Table, options: GrowthOptions): GrowthPrepa
   const frame: GrowthFrame = {
     data: dataSection(problem),
     plan: { text: prepared.planText, folds: plan.foldsPerRepeat, repeats: plan.repeats, stratified: prepared.stratified, seed },
+    ...(prepared.costs ? { costs: { sha256: prepared.costs.sha256, classes: [...prepared.costs.classes], matrix: costRows(prepared.costs) } } : {}),
     metric: metric.name,
     sizes,
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec })),
@@ -334,6 +340,7 @@ export function assembleGrowth(frame: GrowthFrame, results: readonly GrowthResul
     command: 'growth',
     data: frame.data,
     plan: frame.plan,
+    ...(frame.costs ? { settings: { costs: frame.costs } } : {}),
     metric: metric.name,
     higherIsBetter: metric.higherIsBetter,
     sizes,

@@ -9,6 +9,8 @@ export interface ReportThreshold {
   readonly positive: string;
   /** folds of the inner split of each outer training fold on whose out-of-fold predictions the threshold is chosen */
   readonly innerFolds: number;
+  /** present (true) under a forward plan: the inner split is in time order, each inner fold fitting on earlier rows and predicting the block after them */
+  readonly timeOrdered?: true;
 }
 
 /** One outer fold: the threshold its inner split chose and the positive class's figures on the outer test rows at it. */

@@ -13,6 +13,7 @@ import type { DataSection, ReportAudit, ReportCosts } from './report.js';
 import type { ReportComparisons } from './compare.js';
 import type { Params, Task } from '../learning.js';
 import type { ScoreSummary } from './report.js';
+import type { LearnerThreshold, ReportThreshold } from './threshold.js';
 
 /** Inner cross-validation of one candidate on the headline metric. */
 export interface TuneInnerStat {
@@ -120,12 +121,16 @@ export interface TuneReport {
     readonly plainLoopFits: number;
   };
   readonly candidates: readonly TuneCandidate[];
+  /** --threshold: the rule, the positive class and the inner folds, as in eval (absent without it) */
+  readonly threshold?: ReportThreshold;
   /** the nested estimate: quote this */
   readonly outer: {
     readonly folds: readonly TuneOuterFold[];
     readonly summary: Readonly<Record<string, ScoreSummary | null>>;
     /** each metric on the outer test predictions of all folds pooled together */
     readonly pooled: Readonly<Record<string, number | null>>;
+    /** --threshold: per outer fold, the threshold chosen for its pick on an inner split of its training rows, and the figures at it beside 0.5 */
+    readonly threshold?: LearnerThreshold;
   };
   /** how often the outer folds agreed on a pick */
   readonly stability: {

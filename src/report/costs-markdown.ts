@@ -1,5 +1,5 @@
 /**
- * The --costs matrix in the Markdown reports of eval and tune: one table, rows the actual
+ * The --costs matrix in the Markdown reports of eval, tune and growth: one table, rows the actual
  * class, columns the predicted class, with the file's SHA-256 (the matrix is part of the run's
  * identity and of what compare and gate check).
  */

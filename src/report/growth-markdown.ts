@@ -1,6 +1,7 @@
 /** The Markdown of a growth report: per learner, test and training scores at each size, the fitted curve and the doubling gain. */
 import { cell, num } from './markdown.js';
 import type { GrowthReport } from '../growth/growth.js';
+import { costsSection } from './costs-markdown.js';
 
 const iv = (ci: readonly [number, number] | null | undefined): string => (ci ? `${num(ci[0])} to ${num(ci[1])}` : '–');
 
@@ -11,6 +12,7 @@ export function renderGrowthMarkdown(r: GrowthReport): string {
     `- Data: ${cell(r.data.path)}, ${r.data.rowsUsed} rows used; plan ${r.plan.text} (${r.plan.folds} folds${r.plan.repeats > 1 ? ` x ${r.plan.repeats} repeats` : ''}), seed ${r.plan.seed}`,
     `- Metric: ${cell(r.metric)} (${r.higherIsBetter ? 'higher' : 'lower'} is better), on the same outer test rows at every size; training subsets nested and ${r.plan.stratified ? 'stratified' : 'not stratified'}`,
     '',
+    ...costsSection(r.settings?.costs),
   ];
   for (const l of r.learners) {
     out.push(`## ${cell(l.spec)}`, '');

@@ -277,7 +277,7 @@ export function renderMarkdown(report: Report, higherIsBetter: (metric: string) 
   }
 
   out.push(...curvesSection(report, cell, num, table));
-  out.push(...thresholdSection(report, table));
+  out.push(...thresholdSection(report.threshold, report.learners, table));
   out.push(...auditSection(report.audit));
   if (report.warnings.length) {
     out.push('## Warnings', '', ...report.warnings.map((w) => `- ${cell(w)}`), '');

@@ -1,25 +1,26 @@
 /**
- * The Markdown section of eval --threshold: per learner, the thresholds the inner splits chose
+ * The Markdown section of --threshold (eval: per learner; tune: the tuned procedure): per learner, the thresholds the inner splits chose
  * (their spread across outer folds) and each figure at the chosen threshold beside 0.5, with
  * the corrected intervals.
  */
-import type { Report, ScoreSummary } from '../model/report.js';
+import type { ScoreSummary } from '../model/report.js';
+import type { LearnerThreshold, ReportThreshold } from '../model/threshold.js';
 import { cell, num } from '../markdown-text.js';
 
 type Table = (header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]) => string;
 
 const interval = (s: ScoreSummary | null | undefined): string => (s?.ci95 ? `${num(s.ci95[0])} to ${num(s.ci95[1])}` : '–');
 
-export function thresholdSection(report: Report, table: Table): string[] {
-  const t = report.threshold;
+/** The section for the report's rule `t` and each learner's results; `note` is added to the opening paragraph. */
+export function thresholdSection(t: ReportThreshold | undefined, learners: readonly { readonly spec: string; readonly threshold?: LearnerThreshold }[], table: Table, note = ''): string[] {
   if (!t) return [];
   const out: string[] = [
     `## Threshold chosen inside the training folds: ${cell(t.rule)}`,
     '',
-    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of that fold's training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${cell(t.positive)}.`,
+    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.timeOrdered ? `time-ordered ${t.innerFolds}-fold inner split (each inner fold fits on earlier rows and predicts the block after them)` : `${t.innerFolds}-fold inner split`} of that fold's training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${cell(t.positive)}.${note}`,
     '',
   ];
-  for (const l of report.learners) {
+  for (const l of learners) {
     const lt = l.threshold;
     if (!lt) continue;
     const s = lt.spread;

@@ -6,9 +6,13 @@
  * recommended candidate marked; the quick audit's suspects and the warnings last. Numbers have
  * four decimals.
  */
+import { thresholdSection } from './threshold-markdown.js';
 import { auditSection, cell, code, inline, num } from './markdown.js';
 import { costsSection } from './costs-markdown.js';
 import type { TuneCandidate, TuneReport } from '../model/tune.js';
+
+/** What the --threshold section adds in tune (the rule is eval's, applied to each outer fold's pick). */
+export const TUNE_THRESHOLD_NOTE = ' In tune the threshold is that of the candidate each outer fold picked, refitted on the inner training parts after the pick; the figures are those of the tuned procedure on the outer test rows.';
 
 function table(header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]): string {
   const line = (cells: readonly string[]): string => `| ${cells.join(' | ')} |`;
@@ -114,6 +118,8 @@ export function renderTuneMarkdown(r: TuneReport): string {
     ),
     '',
   );
+
+  out.push(...thresholdSection(r.threshold, r.outer.threshold ? [{ spec: 'tuned', threshold: r.outer.threshold }] : [], table, TUNE_THRESHOLD_NOTE));
 
   out.push(`## Grid: inner ${head} on all search rows, best first (→ recommended${rec.best !== rec.id ? ', ● best mean' : ''})`, '');
   out.push(

@@ -90,7 +90,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
     ...(prepared.audit ? { audit: prepared.audit } : {}),
     learners: candidates.map((c) => ({ name: c.learner.name, spec: c.spec, params: { ...c.params } })),
     ...(prepared.slice ? { slices: sliceColumnsOf(prepared.table, prepared.slice.names, prepared.slice.bins) } : {}),
-    ...(prepared.threshold ? { threshold: { rule: prepared.threshold.text, positive: problem.target.task === 'classification' ? problem.target.classes[1] : '', innerFolds: prepared.threshold.innerFolds } } : {}),
+    ...(prepared.threshold ? { threshold: { rule: prepared.threshold.text, positive: problem.target.task === 'classification' ? problem.target.classes[1] : '', innerFolds: prepared.threshold.innerFolds, ...(prepared.threshold.timeOrdered ? { timeOrdered: true as const } : {}) } } : {}),
     ...(prepared.importance ? { importance: importanceFrameOf(prepared.importance, problem.features.map((f) => f.name)) } : {}),
   };
 }

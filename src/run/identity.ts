@@ -90,7 +90,7 @@ export function identityOf(p: Prepared, read?: ReadSettings): RunIdentity {
     onFoldError: p.onFoldError ?? 'fail',
     audit: p.audit !== undefined,
     ...(p.costs ? { costs: JSON.stringify(costRows(p.costs)) } : {}),
-    ...(p.threshold ? { threshold: `${p.threshold.text} (${p.threshold.innerFolds} inner folds)` } : {}),
+    ...(p.threshold ? { threshold: `${p.threshold.text} (${p.threshold.innerFolds} inner folds${p.threshold.timeOrdered ? ', in time order' : ''})` } : {}),
     ...(p.importance ? { importance: `${p.importance.metric.name} x${p.importance.repeats}: ${p.importance.inputs.map((i) => i.name).join(', ')}` } : {}),
   };
 }

@@ -173,7 +173,7 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
         inputs: importanceInputs(problem, Boolean(options.importanceClusters)),
       }
     : undefined;
-  const threshold = thresholdPlanOf(problem, options);
+  const threshold = thresholdPlanOf(problem, options, planSpec);
   const warnings: string[] = [...table.warnings, ...plan.warnings];
   if (problem.excludedRows > 0) {
     warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
@@ -214,8 +214,8 @@ export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
   };
 }
 
-/** --threshold and --threshold-folds, checked: two classes only, 2 to 20 inner folds. */
-function thresholdPlanOf(problem: Problem, options: EvaluateOptions): ThresholdPlan | undefined {
+/** --threshold and --threshold-folds, checked: two classes only, 2 to 20 inner folds; in time order under a forward plan. */
+export function thresholdPlanOf(problem: Problem, options: Pick<EvaluateOptions, 'threshold' | 'thresholdFolds'>, planSpec: PlanSpec): ThresholdPlan | undefined {
   if (options.threshold === undefined) {
     if (options.thresholdFolds !== undefined) throw new UsageError('--threshold-folds: give --threshold too');
     return undefined;
@@ -228,5 +228,5 @@ function thresholdPlanOf(problem: Problem, options: EvaluateOptions): ThresholdP
   }
   const k = options.thresholdFolds ?? DEFAULT_INNER_FOLDS;
   if (!Number.isInteger(k) || k < 2 || k > MAX_INNER_FOLDS) throw new UsageError(`--threshold-folds ${k}: expected a whole number from 2 to ${MAX_INNER_FOLDS}`);
-  return { rule, text: options.threshold.trim(), innerFolds: k };
+  return { rule, text: options.threshold.trim(), innerFolds: k, timeOrdered: planSpec.kind === 'forward' };
 }

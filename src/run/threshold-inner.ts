@@ -3,7 +3,10 @@
  * (src/threshold/inner-folds.ts), the learner is fitted on each inner training part (with its
  * own fold-local preprocessing) and predicts the inner test part, and the rule
  * (src/threshold/rule.ts) picks the threshold on those out-of-fold probabilities of the positive
- * class. The outer test rows are never seen here: only `split.train` is read.
+ * class. The outer test rows are never seen here: only `split.train` is read. Under a forward
+ * (time-ordered) outer plan the inner split is time-ordered too (`innerForward`): each inner fit
+ * uses earlier rows and predicts later ones, and the rule sees the predicted rows only (the
+ * earliest block has no prediction).
  *
  * Seeds: the inner split's generator from (seed, "threshold-split", repeat, fold), the same for
  * every learner of the fold; each inner fit's from (seed, "threshold-fit", spec, repeat, fold,
@@ -13,7 +16,7 @@
 import type { Problem } from '../data/problem.js';
 import type { Fold } from '../plans/types.js';
 import { createRng, deriveSeed } from '../rng.js';
-import { innerFolds } from '../threshold/inner-folds.js';
+import { innerFolds, innerForward, partsOf } from '../threshold/inner-folds.js';
 import { chooseThreshold, type ThresholdRule } from '../threshold/rule.js';
 import { foldLabel } from '../model/fold-label.js';
 import type { FoldView, Learner, Matrix, Params } from '../learning.js';
@@ -24,6 +27,8 @@ export interface ThresholdPlan {
   /** the rule as given, for the report */
   readonly text: string;
   readonly innerFolds: number;
+  /** the outer plan is in time order (forward): the inner split is cut in time order too, by problem.order */
+  readonly timeOrdered: boolean;
 }
 
 export interface InnerThreshold {
@@ -63,16 +68,16 @@ export function innerThreshold(
   const classOf = Int32Array.from(train, (u) => y.codes[u]);
   const groupOf = problem.groups ? Int32Array.from(train, (u) => problem.groups![u]) : undefined;
   const k = plan.innerFolds;
-  const assign = innerFolds(classOf, y.classes.length, k, createRng(deriveSeed(seed, 'threshold-split', f.repeat, f.fold)), groupOf);
+  const rng = createRng(deriveSeed(seed, 'threshold-split', f.repeat, f.fold));
+  const parts = plan.timeOrdered
+    ? innerForward(Float64Array.from(train, (u) => problem.order![u]), k, rng, groupOf)
+    : partsOf(innerFolds(classOf, y.classes.length, k, rng, groupOf), k);
   const score = new Float64Array(train.length);
-  const outcome = Uint8Array.from(classOf, (v) => (v === 1 ? 1 : 0));
-  // positions in `train` of each inner fold's rows (ascending, so problem rows stay ascending)
-  for (let q = 0; q < k; q++) {
-    const inTest: number[] = [];
-    const inTrain: number[] = [];
-    for (let i = 0; i < train.length; i++) (assign[i] === q ? inTest : inTrain).push(i);
-    const testRows = Int32Array.from(inTest, (i) => train[i]);
-    const trainRows = Int32Array.from(inTrain, (i) => train[i]);
+  const predicted = new Uint8Array(train.length);
+  // positions in `train` of each inner part's rows (ascending, so problem rows stay ascending)
+  for (const [q, part] of parts.entries()) {
+    const testRows = Int32Array.from(part.test, (i) => train[i]);
+    const trainRows = Int32Array.from(part.train, (i) => train[i]);
     const split = makeSplit(trainRows, testRows);
     const fitSeed = deriveSeed(seed, 'threshold-fit', c.spec, f.repeat, f.fold, q);
     const scale = c.learner.needsScaling;
@@ -84,11 +89,19 @@ export function innerThreshold(
     });
     const probs = model.probabilities?.(split.matrix('test', scale));
     if (!probs) return undefined;
-    for (let j = 0; j < inTest.length; j++) score[inTest[j]] = probs[j * 2 + 1];
+    for (let j = 0; j < part.test.length; j++) {
+      score[part.test[j]] = probs[j * 2 + 1];
+      predicted[part.test[j]] = 1;
+    }
   }
+  // the rule reads the predicted rows only, in their order in `train`
+  const at: number[] = [];
+  for (let i = 0; i < train.length; i++) if (predicted[i]) at.push(i);
+  const scores = Float64Array.from(at, (i) => score[i]);
+  const outcome = Uint8Array.from(at, (i) => (classOf[i] === 1 ? 1 : 0));
   let pos = 0;
   for (const o of outcome) pos += o;
   if (pos === 0 || pos === outcome.length) return undefined;
-  const chosen = chooseThreshold(score, outcome, plan.rule);
+  const chosen = chooseThreshold(scores, outcome, plan.rule);
   return { value: chosen.threshold, met: chosen.met };
 }

@@ -41,11 +41,15 @@ import type { Target } from '../learning.js';
 import { costRows, type CostMatrix, defaultMetrics, getMetric } from '../metrics/index.js';
 import type { Metric } from '../metrics/types.js';
 import { formatPlan, parsePlan } from '../plans/index.js';
-import type { BuiltPlan, PlanSpec } from '../plans/types.js';
+import type { BuiltPlan, Fold, PlanSpec } from '../plans/types.js';
+import { foldLabel } from '../model/fold-label.js';
+import type { LearnerThreshold } from '../model/threshold.js';
 import type { Impute } from '../prep/fold-prep.js';
 import type { ScoreSummary } from '../model/report.js';
 import type { TuneCandidate, TuneOuterFold, TuneReport, TuneWinner } from '../model/tune.js';
-import { checkSeed, readRunCosts, type CostsText, DEFAULT_SEED, resolveMetrics } from '../run/prepare.js';
+import { checkSeed, readRunCosts, type CostsText, DEFAULT_SEED, resolveMetrics, thresholdPlanOf } from '../run/prepare.js';
+import { innerThreshold, type InnerThreshold, type ThresholdPlan } from '../run/threshold-inner.js';
+import { learnerThreshold, type CutFold } from '../threshold/scores.js';
 import { createRng, deriveSeed } from '../rng.js';
 import { SplitData, subsetTarget } from '../run/tasks.js';
 import { summarize } from '../stats/index.js';
@@ -93,6 +97,10 @@ export interface TuneOptions extends ProblemOptions {
   readonly timing?: boolean;
   /** --costs FILE: the cost matrix's name and text, for the cost metric */
   readonly costs?: CostsText;
+  /** --threshold RULE (two-class targets): chosen on an inner split of each outer training fold after the pick */
+  readonly threshold?: string;
+  /** --threshold-folds: the folds of that inner split (default 5) */
+  readonly thresholdFolds?: number;
 }
 
 
@@ -185,6 +193,8 @@ export interface TuneSetup {
   readonly head: Metric;
   /** --costs: the cost matrix (absent without it) */
   readonly costs?: CostMatrix;
+  /** --threshold: the rule and the inner folds (absent without it) */
+  readonly threshold?: ThresholdPlan;
   readonly specs: readonly string[];
   readonly candidates: readonly SearchCandidate[];
   readonly search: ReturnType<typeof searchCandidates>['plan'];
@@ -204,6 +214,8 @@ export interface OuterWork {
   readonly pick: Pick;
   readonly tuned: Prediction;
   readonly baseline: Prediction;
+  /** --threshold: the threshold chosen for the pick on an inner split of this fold's training rows (absent: no rule, no probabilities, or one class inside) */
+  readonly threshold?: InnerThreshold;
   readonly work: WorkCount;
 }
 
@@ -228,6 +240,7 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
   const costs = readRunCosts(problem, options.costs, options.metrics);
   const metrics = resolveMetrics(problem, options.metrics, costs);
   const head = metrics[0];
+  const threshold = thresholdPlanOf(problem, options, outerSpec);
   const specs = options.learners?.length ? options.learners : DEFAULT_SEARCH;
   const space = parseSearchSpace(specs);
   const { candidates, plan: search } = searchCandidates(space, problem.task, { sample: options.sample, maxCandidates: options.maxCandidates }, seed);
@@ -267,7 +280,7 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
     warnings.push(`the outer plan is time-ordered but the inner plan ${formatPlan(innerSpec)} is not: inner folds train on later rows than they test; use --inner forward:K`);
   }
   if (outerSpec.kind === 'loo') warnings.push('leave-one-out outer plan: each outer fold scores one row, so per-fold spread is degenerate; read the pooled scores');
-  return { started, options, seed, rule, problem, outerSpec, innerSpec, metrics, head, ...(costs ? { costs } : {}), specs, candidates, search, impute, warnings, searchRows, holdoutRows, holdoutFrom, outer };
+  return { started, options, seed, rule, problem, outerSpec, innerSpec, metrics, head, ...(costs ? { costs } : {}), ...(threshold ? { threshold } : {}), specs, candidates, search, impute, warnings, searchRows, holdoutRows, holdoutFrom, outer };
 }
 
 /** Step 2 for outer fold `index` (in plan order). Its seeds depend on the fold only, so folds can run in any order or thread. */
@@ -288,7 +301,18 @@ export function outerFoldWork(s: TuneSetup, index: number): OuterWork {
   const bModel = baseline.fit(split.matrix('train', false), subsetTarget(y, f.train), { constant: baselineConstantFor(head.name) }, { rng: createRng(0), seed: 0 });
   const bTest = split.matrix('test', false);
   const bPred: Prediction = { predicted: bModel.predict(bTest), probs: bModel.probabilities?.(bTest) };
-  return { stats, innerWarnings: inner.plan.warnings, innerFolds: inner.plan.folds.length, pick: p, tuned, baseline: bPred, work };
+  // --threshold: the pick (its hyperparameters already chosen) refitted on an inner split of the
+  // outer training rows only, as eval does for each learner (src/run/threshold-inner.ts)
+  let cut: { threshold?: InnerThreshold } = {};
+  if (s.threshold && tuned.probs) {
+    const t0 = performance.now();
+    const chosenThreshold = innerThreshold(problem, seed, chosen, f, f.train, s.threshold, (train, test) => new SplitData(problem, train, test, impute));
+    work.fitMs += performance.now() - t0;
+    work.fits += s.threshold.innerFolds;
+    work.plainFits += s.threshold.innerFolds;
+    if (chosenThreshold) cut = { threshold: chosenThreshold };
+  }
+  return { stats, innerWarnings: inner.plan.warnings, innerFolds: inner.plan.folds.length, pick: p, tuned, baseline: bPred, ...cut, work };
 }
 
 /** Step 3's search: the inner plan on all search rows. */
@@ -304,6 +328,37 @@ function addWork(to: WorkCount, from: WorkCount): void {
   to.plainFits += from.plainFits;
   to.fitMs += from.fitMs;
   to.predictMs += from.predictMs;
+}
+
+/** --threshold in tune: the section of the tuned procedure when every outer fold has probabilities and a threshold; a warning otherwise (as eval's). */
+function tunedThreshold(
+  folds: readonly Fold[],
+  outerWork: readonly OuterWork[],
+  preds: readonly Prediction[],
+  actual: readonly Target[],
+  metrics: readonly Metric[],
+  sizes: { testRows: number; trainRows: number },
+  warnings: string[],
+): LearnerThreshold | undefined {
+  const cut: CutFold[] = [];
+  for (const [i, f] of folds.entries()) {
+    const probs = preds[i].probs;
+    const t = outerWork[i].threshold;
+    const a = actual[i];
+    if (!probs || !t || a.task !== 'classification') {
+      warnings.push(
+        probs
+          ? `tuned: --threshold: the inner split of outer fold ${foldLabel(f)} held one class only, so no threshold is reported`
+          : `tuned: the pick of outer fold ${foldLabel(f)} gives no class probabilities, so --threshold is not applied`,
+      );
+      return undefined;
+    }
+    cut.push({ repeat: f.repeat, fold: f.fold, actual: a.codes, probs, threshold: t.value, met: t.met });
+  }
+  if (!cut.length) return undefined;
+  const unmet = cut.filter((f) => !f.met).length;
+  if (unmet) warnings.push(`tuned: --threshold: the rule was not met inside ${unmet} of ${cut.length} outer folds; those folds use the threshold closest to meeting it`);
+  return learnerThreshold(cut, metrics, sizes);
 }
 
 /** The nested search, also giving the outer (and holdout) predictions of the tuned procedure and the baseline. */
@@ -403,6 +458,9 @@ export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: A
     pooled[m.name] = pooledRefused(m, outerFolds) ? null : scoreOf(m, pooledActual, pooledPred);
   }
 
+  // --threshold: the tuned procedure's outer folds at the threshold each chose inside, beside 0.5
+  const outerThreshold = s.threshold ? tunedThreshold(outer.plan.folds, outerWork, outerPreds, outerActual, metrics, { testRows: testMean, trainRows: trainMean }, warnings) : undefined;
+
   // the tuned estimate against the baseline on the same outer folds (as eval compares learners)
   const paired = outerFolds.map((f, i) => [f.scores[head.name], baselineScores[i]] as const).filter((p): p is readonly [number, number] => p[0] !== null && p[1] !== null);
   const comparisons: ReportComparisons | undefined = paired.length
@@ -468,7 +526,8 @@ export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: A
       plainLoopFits: work.plainFits,
     },
     candidates: tuneCandidates,
-    outer: { folds: outerFolds, summary, pooled },
+    ...(s.threshold && y.task === 'classification' ? { threshold: { rule: s.threshold.text, positive: y.classes[1], innerFolds: s.threshold.innerFolds, ...(s.threshold.timeOrdered ? { timeOrdered: true as const } : {}) } } : {}),
+    outer: { folds: outerFolds, summary, pooled, ...(outerThreshold ? { threshold: outerThreshold } : {}) },
     stability: { distinct: winners.length, winners, topShare: winners[0].folds / outerFolds.length },
     recommendation: {
       id: rec.id,

@@ -10,9 +10,51 @@
  * fold with the fewest rows so far, so no group straddles an inner training part and its
  * inner test part. The generator is passed in (the runner derives it from the run seed and the
  * outer fold, never from the learner), so every learner of a fold sees the same inner split.
+ *
+ * When the outer plan is in time order (forward plans) the inner split is too (`innerForward`):
+ * the training rows are cut by the same splitter as the outer plan (src/plans/forward.ts), so
+ * each inner fold fits on earlier rows and predicts the block after them, and the threshold is
+ * never chosen by predicting the past from the future.
  */
 import { InputError } from '../errors.js';
+import { buildForward } from '../plans/forward.js';
 import { shuffleInPlace, type Rng } from '../rng.js';
+
+/** One inner fit: positions (into the outer training rows) to fit on and to predict, ascending. */
+export interface InnerPart {
+  readonly train: Int32Array;
+  readonly test: Int32Array;
+}
+
+/** The k parts of an inner fold assignment (`innerFolds`): part q predicts fold q from the others. */
+export function partsOf(assign: Int32Array, k: number): InnerPart[] {
+  const out: InnerPart[] = [];
+  for (let q = 0; q < k; q++) {
+    const test: number[] = [];
+    const train: number[] = [];
+    for (let i = 0; i < assign.length; i++) (assign[i] === q ? test : train).push(i);
+    out.push({ train: Int32Array.from(train), test: Int32Array.from(test) });
+  }
+  return out;
+}
+
+/**
+ * The time-ordered inner split of an outer training fold of a forward plan: the rows (their
+ * order values `order`, their groups `groupOf` when the plan has groups) cut into k + 1 blocks
+ * by the forward plans' own splitter, inner fold q fitting on blocks 0..q and predicting block
+ * q + 1. The first block is never predicted. Throws InputError when the rows (their ties or
+ * groups) allow fewer than k + 1 blocks.
+ */
+export function innerForward(order: Float64Array, k: number, rng: Rng, groupOf?: Int32Array): InnerPart[] {
+  try {
+    const built = buildForward({ kind: 'forward', k }, { n: order.length, order, rng, ...(groupOf ? { groups: groupOf } : {}) });
+    return built.folds.map((f) => ({ train: f.train, test: f.test }));
+  } catch (e) {
+    if (!(e instanceof InputError)) throw e;
+    const why = e.message.replace(/^--plan forward:\d+:? ?/, '');
+    throw new InputError(`--threshold: the time-ordered inner split of an outer training fold ${why}; use a smaller --threshold-folds`);
+  }
+}
 
 export const DEFAULT_INNER_FOLDS = 5;
 export const MAX_INNER_FOLDS = 20;

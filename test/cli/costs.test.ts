@@ -239,6 +239,40 @@ describe('tune --metric cost', () => {
   });
 });
 
+describe('growth --metric cost --costs FILE', () => {
+  const growthArgs = ['growth', data, '--target', 'Species', '--learner', 'knn', '--plan', 'kfold:3', '--sizes', '0.3,1', '--metric', 'cost', '--costs', weighted, '--quiet', '--jobs', '1'];
+  it('shows the matrix like eval: settings.costs in JSON (schema-checked), the same table in Markdown, the same line in HTML; shards merged carry it', async () => {
+    const r = await cli([...growthArgs, '--json', '-']);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const g = JSON.parse(r.stdout) as { settings?: { costs: { classes: string[]; matrix: number[][]; sha256: string } }; metric: string };
+    schemaCheck('growth.schema.json')(g);
+    expect(g.metric).toBe('cost');
+    expect(g.settings?.costs.classes).toEqual(['Adelie', 'Chinstrap', 'Gentoo']);
+    expect(g.settings?.costs.matrix).toEqual(WEIGHTED);
+    // the file's SHA-256, as eval reports it
+    const e = await report('--metric', 'cost', '--costs', weighted);
+    expect(g.settings?.costs.sha256).toBe(e.settings.costs?.sha256);
+    // the table and the line eval's writers give (the same strings as the eval test above)
+    const md = await cli([...growthArgs, '--markdown', '-']);
+    expect(md.code).toBe(0);
+    expect(md.stdout).toContain('## Cost matrix (--costs)\n\n| actual \\ predicted | Adelie | Chinstrap | Gentoo |\n| :-- | --: | --: | --: |\n| Adelie | 0 | 2 | 5 |\n| Chinstrap | 1 | 0 | 3 |\n| Gentoo | 4 | 0.5 | 0 |\n');
+    const html = await cli([...growthArgs, '--html', '-']);
+    expect(html.code).toBe(0);
+    expect(html.stdout).toContain('actual by predicted (Adelie, Chinstrap, Gentoo): Adelie 0, 2, 5; Chinstrap 1, 0, 3; Gentoo 4, 0.5, 0');
+    // the matrix is in the frame a shard part carries, so merge shows it too
+    const parts = [1, 2].map((i) => join(tmp.dir, `growth-part-${i}.json`));
+    for (const [i, part] of parts.entries()) expect((await cli([...growthArgs, '--shard', `${i + 1}/2`, '--json', part])).code).toBe(0);
+    const merged = await cli(['merge', ...parts, '--json', '-', '--no-timing']);
+    expect(merged.code).toBe(0);
+    expect(merged.stdout).toBe(r.stdout);
+    // without --costs there is no settings field and no matrix section
+    const plain = await cli(['growth', data, '--target', 'Species', '--learner', 'knn', '--plan', 'kfold:3', '--sizes', '0.3,1', '--quiet', '--jobs', '1', '--markdown', '-']);
+    expect(plain.code).toBe(0);
+    expect(plain.stdout).not.toContain('Cost matrix');
+  });
+});
+
 describe('schema: settings.costs', () => {
   it('report and tune schemas accept the matrix and refuse a negative cost, a bad SHA-256 or an unknown field', async () => {
     const r = await report('--metric', 'cost', '--costs', weighted);

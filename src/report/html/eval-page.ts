@@ -111,7 +111,7 @@ export function renderEvalHtml(report: Report): string {
       parts.push('</section>');
     }
   }
-  if (report.threshold) parts.push(thresholdSection(report));
+  if (report.threshold) parts.push(thresholdSection(report.threshold, report.learners));
   if (report.importance) {
     const imp = report.importance;
     parts.push(`<section><h2>${esc(`Permutation importance (${imp.metric})`)}</h2>`);

@@ -49,8 +49,8 @@ export function dataItems(d: DataSection): string[] {
 
 const timeItem = (timing: { readonly totalMs: number } | undefined): string[] => (timing ? [item('time', esc(`${(timing.totalMs / 1000).toFixed(1)} s in all`))] : []);
 
-/** The --costs matrix in one line: "actual by predicted (A, B): A 0, 1; B 5, 0; file SHA-256 ...". */
-function costsItem(costs: ReportCosts | undefined): string[] {
+/** The --costs matrix in one line: "actual by predicted (A, B): A 0, 1; B 5, 0; file SHA-256 ..." (eval, tune and growth pages). */
+export function costsItem(costs: ReportCosts | undefined): string[] {
   if (!costs) return [];
   const rows = costs.matrix.map((row, a) => `${costs.classes[a]} ${row.join(', ')}`).join('; ');
   return [item('cost matrix', esc(`actual by predicted (${costs.classes.join(', ')}): ${rows}; file SHA-256 ${costs.sha256.slice(0, 12)}`))];

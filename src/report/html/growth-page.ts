@@ -5,6 +5,7 @@
  */
 import { xAxis, yAxis, yAxisWidth } from './axis.js';
 import { esc } from './escape.js';
+import { costsItem } from './footer.js';
 import { CHART_WIDTH, figure } from './figure.js';
 import { attrNum, num, px, svgText } from './format.js';
 import { page } from './page.js';
@@ -60,5 +61,7 @@ export function renderGrowthHtml(r: GrowthReport): string {
   const parts = [`<header><h1>${esc(`Learning curves for ${r.data.target}`)}</h1><p>${esc(`${r.data.path}: ${r.data.rowsUsed} rows; plan ${r.plan.text}, seed ${r.plan.seed}; ${r.metric}, ${r.higherIsBetter ? 'higher' : 'lower'} is better`)}</p></header>`];
   r.learners.forEach((l, i) => parts.push(`<section><h2>${esc(l.spec)}</h2>`, panel(r, l, i), '</section>'));
   if (r.warnings.length) parts.push('<section><h2>Warnings</h2><ul>', ...r.warnings.map((w) => `<li>${esc(w)}</li>`), '</ul></section>');
+  // the matrix the metric scored with, in the line eval's and tune's run details give
+  if (r.settings?.costs) parts.push('<footer>', '<h2>Run details</h2>', `<dl class="facts">${costsItem(r.settings.costs).join('')}</dl>`, '</footer>');
   return page(`foldwise growth: ${r.data.target} in ${r.data.path}`, parts.join('\n'));
 }

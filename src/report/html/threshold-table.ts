@@ -1,20 +1,20 @@
 /**
- * eval --threshold on the HTML page: per learner, the thresholds chosen inside the outer
+ * --threshold on the HTML page (eval: per learner; tune: the tuned procedure): per learner, the thresholds chosen inside the outer
  * training folds (per fold and their spread) and each figure at the chosen threshold beside
  * 0.5, with the corrected intervals.
  */
-import type { Report } from '../../model/report.js';
+import type { LearnerThreshold, ReportThreshold } from '../../model/threshold.js';
 import { esc } from './escape.js';
 import { intervalText, num } from './format.js';
 
-export function thresholdSection(report: Report): string {
-  const t = report.threshold;
+/** The section for the report's rule `t` and each learner's results; `note` is added to the opening paragraph. */
+export function thresholdSection(t: ReportThreshold | undefined, learners: readonly { readonly spec: string; readonly threshold?: LearnerThreshold }[], note = ''): string {
   if (!t) return '';
   const parts: string[] = [
     `<section><h2>${esc(`Threshold chosen inside the training folds (${t.rule})`)}</h2>`,
-    `<p>${esc(`A row is called ${t.positive} when its probability of ${t.positive} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.innerFolds}-fold inner split of its training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${t.positive}.`)}</p>`,
+    `<p>${esc(`A row is called ${t.positive} when its probability of ${t.positive} is at least the threshold. Each outer fold's threshold is chosen on out-of-fold predictions of a ${t.timeOrdered ? `time-ordered ${t.innerFolds}-fold inner split (each inner fold fits on earlier rows and predicts the block after them)` : `${t.innerFolds}-fold inner split`} of its training rows, then applied to its test rows, which the choice never saw. Precision, recall and F1 are those of ${t.positive}.${note}`)}</p>`,
   ];
-  for (const l of report.learners) {
+  for (const l of learners) {
     const lt = l.threshold;
     if (!lt) continue;
     const s = lt.spread;

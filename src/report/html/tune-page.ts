@@ -13,6 +13,8 @@
  * - the footer with the data fingerprint, plans, seed, search, tool version and warnings.
  * The candidates' inner means come from `all` (the inner plan on all search rows).
  */
+import { thresholdSection } from './threshold-table.js';
+import { TUNE_THRESHOLD_NOTE } from '../tune-markdown.js';
 import { clip, esc } from './escape.js';
 import { tuneFooter } from './footer.js';
 import { attrNum, intervalText, num, pText, signed } from './format.js';
@@ -156,6 +158,7 @@ export function renderTuneHtml(report: TuneReport): string {
   const diff = outerDiffChart(report);
   parts.push(`<section><h2>${esc(`Outer estimate${baselinePair(report) ? ' against the baseline' : ''}: ${metric} on each outer fold`)}</h2>`, outerChart(report), ...(diff ? [diff] : []), '</section>');
   parts.push('<section><h2>Picks of the outer folds</h2>', picksTable(report), '</section>');
+  if (report.threshold) parts.push(thresholdSection(report.threshold, report.outer.threshold ? [{ spec: 'tuned', threshold: report.outer.threshold }] : [], TUNE_THRESHOLD_NOTE));
   parts.push(searchSection(report));
   parts.push(`<section><h2>Every candidate</h2>`, candidatesTable(report), '</section>');
   parts.push(tuneFooter(report));
