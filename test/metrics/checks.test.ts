@@ -1,11 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
 import { confusionMatrix } from '../../src/metrics/confusion-matrix.js';
-import { METRICS, metricFor, parseCostMatrix } from '../../src/metrics/index.js';
+import type { CostMatrix } from '../../src/metrics/cost.js';
+import { METRICS, metricFor } from '../../src/metrics/index.js';
 import type { ClassificationInput, RegressionInput } from '../../src/metrics/types.js';
 
-// `cost` is checked bound to a two-class matrix (the registry's own entry has none; cost.test.ts)
-const twoClassCosts = parseCostMatrix(',0,1\n0,0,1\n1,5,0\n', 'costs.csv', ['0', '1']);
+// `cost` is checked bound to a two-class matrix (the registry's own entry has none; cost.test.ts).
+// Written out rather than parsed from a file: code run while this module loads is outside every
+// test, so Stryker would run the whole mutate suite for each mutant of cost-matrix.ts (a
+// "static" mutant); cost.test.ts tests the reading.
+const twoClassCosts: CostMatrix = { classes: ['0', '1'], values: Float64Array.from([0, 1, 5, 0]), sha256: 'not read from a file' };
 const classification = [...METRICS.values()].filter((m) => m.task === 'classification').map((m) => (m.name === 'cost' ? metricFor('cost', twoClassCosts) : m));
 const regression = [...METRICS.values()].filter((m) => m.task === 'regression');
 const withProba = classification.filter((m) => m.needsProba);
