@@ -134,3 +134,23 @@ describe('regression input checks, for every regression metric', () => {
     });
   }
 });
+
+describe('the edges of the checks', () => {
+  it('one class is a positive integer: accuracy of two rows of class 0 is 1', () => {
+    expect(classification.find((m) => m.name === 'accuracy')!.fn({ actual: Int32Array.from([0, 0]), predicted: Int32Array.from([0, 0]), classes: 1 } as never)).toBe(1);
+  });
+
+  it('refuses a negative probability', () => {
+    for (const m of withProba) {
+      expectInputError(
+        () => (m.fn as (input: ClassificationInput) => number)({ ...ok, probs: Float64Array.from([0.9, 0.1, -0.5, 0.8, 0.6, 0.4]) }),
+        `${m.name}: probs at row 1, class 0 is -0.5, not a probability in [0, 1]`,
+      );
+    }
+  });
+
+  it('accepts probabilities exactly PROBA_SLACK outside [0, 1] (rounding slack, 1e-9)', () => {
+    const edge = { ...ok, probs: Float64Array.from([-1e-9, 1 + 1e-9, 0.2, 0.8, 0.6, 0.4]) };
+    for (const m of withProba) expect(Number.isFinite((m.fn as (input: ClassificationInput) => number)(edge))).toBe(true);
+  });
+});
