@@ -68,3 +68,18 @@ describe('precision-recall interpolation (Davis & Goadrich 2006)', () => {
     expect(precision[1]).toBeLessThan(linearAt30 - 0.07);
   });
 });
+
+describe('average_precision, more classes with one absent from actual', () => {
+  it('leaves the absent class out of the mean (by hand, (1 + 5/6) / 2 = 11/12)', () => {
+    // rows (p0 p1 p2): (.4 .5 .1) a0, (.2 .7 .1) a1, (.5 .2 .3) a0, (.3 .4 .3) a1; class 2 never occurs.
+    // class 0, column 0 descending: .5 (pos) .4 (pos) .3 .2 -> AP 1
+    // class 1, column 1 descending: .7 (pos, P 1, R 1/2) .5 (neg) .4 (pos, P 2/3, R 1) .2 -> 1/2 + 1/2 * 2/3 = 5/6
+    const input = {
+      actual: Int32Array.from([0, 1, 0, 1]),
+      predicted: Int32Array.from([1, 1, 0, 1]),
+      classes: 3,
+      probs: Float64Array.from([0.4, 0.5, 0.1, 0.2, 0.7, 0.1, 0.5, 0.2, 0.3, 0.3, 0.4, 0.3]),
+    };
+    expect(Math.abs(averagePrecision(input) - 11 / 12)).toBeLessThan(1e-15);
+  });
+});

@@ -78,3 +78,20 @@ describe('fewForecasts (when the report keeps the partition)', () => {
     expect(fewForecasts(proba, 2, 101)).toBe(true);
   });
 });
+
+describe('Brier partition: grouping and messages', () => {
+  it('keeps apart two vectors whose numbers run together into the same text', () => {
+    // as text without a separator both read "1e-701e-700.9999999": (1e-7, 0, 1e-70, .9999999) and
+    // (1e-70, 1e-7, 0, .9999999); they are different forecasts, so two groups
+    const proba = Float64Array.from([1e-7, 0, 1e-70, 0.9999999, 1e-70, 1e-7, 0, 0.9999999]);
+    const input = { actual: Int32Array.from([3, 3]), predicted: Int32Array.from([3, 3]), classes: 4, probs: proba };
+    expect(brierParts(input).groups).toBe(2);
+    expect(fewForecasts(proba, 4, 1)).toBe(false);
+  });
+
+  it('names itself brier_parts in a refusal', () => {
+    expect(() => brierParts({ actual: Int32Array.from([0]), predicted: Int32Array.from([0]), classes: 2 })).toThrow(
+      'brier_parts: needs class probabilities, but probs is missing',
+    );
+  });
+});

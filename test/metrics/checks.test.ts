@@ -1,11 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../src/errors.js';
 import { confusionMatrix } from '../../src/metrics/confusion-matrix.js';
-import { METRICS, metricFor, parseCostMatrix } from '../../src/metrics/index.js';
+import type { CostMatrix } from '../../src/metrics/cost.js';
+import { METRICS, metricFor } from '../../src/metrics/index.js';
 import type { ClassificationInput, RegressionInput } from '../../src/metrics/types.js';
 
-// `cost` is checked bound to a two-class matrix (the registry's own entry has none; cost.test.ts)
-const twoClassCosts = parseCostMatrix(',0,1\n0,0,1\n1,5,0\n', 'costs.csv', ['0', '1']);
+// `cost` is checked bound to a two-class matrix (the registry's own entry has none; cost.test.ts).
+// Written out rather than parsed from a file: code run while this module loads is outside every
+// test, so Stryker would run the whole mutate suite for each mutant of cost-matrix.ts (a
+// "static" mutant); cost.test.ts tests the reading.
+const twoClassCosts: CostMatrix = { classes: ['0', '1'], values: Float64Array.from([0, 1, 5, 0]), sha256: 'not read from a file' };
 const classification = [...METRICS.values()].filter((m) => m.task === 'classification').map((m) => (m.name === 'cost' ? metricFor('cost', twoClassCosts) : m));
 const regression = [...METRICS.values()].filter((m) => m.task === 'regression');
 const withProba = classification.filter((m) => m.needsProba);
@@ -129,4 +133,24 @@ describe('regression input checks, for every regression metric', () => {
       );
     });
   }
+});
+
+describe('the edges of the checks', () => {
+  it('one class is a positive integer: accuracy of two rows of class 0 is 1', () => {
+    expect(classification.find((m) => m.name === 'accuracy')!.fn({ actual: Int32Array.from([0, 0]), predicted: Int32Array.from([0, 0]), classes: 1 } as never)).toBe(1);
+  });
+
+  it('refuses a negative probability', () => {
+    for (const m of withProba) {
+      expectInputError(
+        () => (m.fn as (input: ClassificationInput) => number)({ ...ok, probs: Float64Array.from([0.9, 0.1, -0.5, 0.8, 0.6, 0.4]) }),
+        `${m.name}: probs at row 1, class 0 is -0.5, not a probability in [0, 1]`,
+      );
+    }
+  });
+
+  it('accepts probabilities exactly PROBA_SLACK outside [0, 1] (rounding slack, 1e-9)', () => {
+    const edge = { ...ok, probs: Float64Array.from([-1e-9, 1 + 1e-9, 0.2, 0.8, 0.6, 0.4]) };
+    for (const m of withProba) expect(Number.isFinite((m.fn as (input: ClassificationInput) => number)(edge))).toBe(true);
+  });
 });

@@ -87,3 +87,11 @@ describe('balanced accuracy, two classes', () => {
     expect(Math.abs(balancedAccuracy(input) - (90 / 91 + 0) / 2)).toBeLessThan(1e-12);
   });
 });
+
+describe('perClassScores without a caller name', () => {
+  it('names itself perClassScores in a refusal', () => {
+    expect(() => perClassScores({ actual: new Int32Array(0), predicted: new Int32Array(0), classes: 2 })).toThrow(
+      'perClassScores: actual and predicted must not be empty',
+    );
+  });
+});

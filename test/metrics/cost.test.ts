@@ -3,8 +3,8 @@
  * example, the identity with accuracy under a 0/1 matrix, and every refusal of the reader.
  */
 import { describe, expect, it } from 'vitest';
-import { UsageError } from '../../src/errors.js';
-import { accuracy, getMetric, meanCost, metricFor, parseCostMatrix } from '../../src/metrics/index.js';
+import { InputError, UsageError } from '../../src/errors.js';
+import { accuracy, costMatrixOf, costRows, getMetric, meanCost, metricFor, parseCostMatrix } from '../../src/metrics/index.js';
 
 const CLASSES = ['a', 'b', 'c'];
 const FILE = ['actual\\predicted,a,b,c', 'a,0,1,4', 'b,2,0,1', 'c,3,1,0', ''].join('\n');
@@ -85,5 +85,76 @@ describe('--costs file refusals name the file and the line', () => {
   it('an unclosed quote and a stray quote', () => {
     expect(refusal('x,"a,b,c\n')).toMatch(/^--costs costs\.csv: line 1: a quoted cell is not closed/);
     expect(refusal('x,a"b,c\n')).toMatch(/^--costs costs\.csv: line 1: cell 2 has a quote inside/);
+  });
+});
+
+describe('the cost matrix as read and as saved', () => {
+  it('keeps the target classes and the SHA-256 of the text as hex (checked with coreutils sha256sum)', () => {
+    const m = parseCostMatrix(FILE, 'costs.csv', CLASSES);
+    expect(m.classes).toEqual(CLASSES);
+    // `printf 'actual\\predicted,a,b,c\na,0,1,4\nb,2,0,1\nc,3,1,0\n' | sha256sum` (GNU coreutils 9)
+    expect(m.sha256).toBe('a1c3502bc062506faf26c0b118f9aebb6fb4e4c25a434ad0eaa2107766027918');
+  });
+
+  it('costRows gives the rows actual by predicted, costMatrixOf reads them back', () => {
+    const m = parseCostMatrix(FILE, 'costs.csv', CLASSES);
+    const rows = costRows(m);
+    expect(rows).toEqual([
+      [0, 1, 4],
+      [2, 0, 1],
+      [3, 1, 0],
+    ]);
+    const back = costMatrixOf({ sha256: m.sha256, classes: m.classes, matrix: rows });
+    expect(back.classes).toEqual(CLASSES);
+    expect(Array.from(back.values)).toEqual([0, 1, 4, 2, 0, 1, 3, 1, 0]);
+    expect(back.sha256).toBe(m.sha256);
+  });
+
+  it('meanCost refuses a matrix of the wrong size', () => {
+    const input = { actual: Int32Array.from([0, 1]), predicted: Int32Array.from([1, 1]), classes: 2 };
+    let caught: unknown;
+    try {
+      meanCost(input, Float64Array.from([0, 1, 1, 0, 0]));
+    } catch (e) {
+      caught = e;
+    }
+    expect(caught).toBeInstanceOf(InputError);
+    expect((caught as Error).message).toBe('cost: the cost matrix has 5 entries, expected 2 x 2 = 4');
+  });
+});
+
+describe('--costs file: number forms and cell rules', () => {
+  it('reads plain decimals: integers of two digits, fractions, a leading point, exponents with and without a sign', () => {
+    const m = parseCostMatrix('x,a,b,c\na,0,12,0.25\nb,.25,0,1e3\nc,2.5e-1,1E+1,+3\n', 'costs.csv', CLASSES);
+    expect(Array.from(m.values)).toEqual([0, 12, 0.25, 0.25, 0, 1000, 0.25, 10, 3]);
+    const n = parseCostMatrix('x,a,b,c\na,0,1e10,.5\nb,1,0,1\nc,1,1,0\n', 'costs.csv', CLASSES);
+    expect(Array.from(n.values.subarray(0, 3))).toEqual([0, 1e10, 0.5]);
+  });
+
+  it('calls a minus sign, with spaces or before a point, below 0; a minus inside a cell is not a cost', () => {
+    expect(refusal('x,a,b,c\na,0,- 1,1\n')).toBe('--costs costs.csv: line 2, column 3: "- 1" is below 0; a cost is 0 or more');
+    expect(refusal('x,a,b,c\na,0,-.5,1\n')).toBe('--costs costs.csv: line 2, column 3: "-.5" is below 0; a cost is 0 or more');
+    expect(refusal('x,a,b,c\na,0,1-2,1\n')).toMatch(/^--costs costs\.csv: line 2, column 3: "1-2" is not a cost/);
+  });
+
+  it('refuses text after a closing quote, naming the cell', () =>
+    expect(refusal('x,"a"b,c\n')).toBe('--costs costs.csv: line 1: text after the closing quote of cell 2'));
+
+  it('a comma at the end of a line is one more, empty cell', () =>
+    expect(refusal('x,a,b,c,\n')).toMatch(/^--costs costs\.csv: line 1: "" is not a class of the target \(predicted, in the header\)/));
+
+  it('skips a byte-order mark, so a quoted corner cell still reads', () => {
+    const m = parseCostMatrix('\uFEFF"x",a,b,c\na,0,1,4\nb,2,0,1\nc,3,1,0\n', 'costs.csv', CLASSES);
+    expect(Array.from(m.values)).toEqual([0, 1, 4, 2, 0, 1, 3, 1, 0]);
+  });
+
+  it('a class name with no close name gets no hint', () =>
+    expect(refusal('x,a,b,zzzzzz\n')).toBe('--costs costs.csv: line 1: "zzzzzz" is not a class of the target (predicted, in the header); the classes are "a", "b", "c"'));
+
+  it('names one or more missing classes in full', () => {
+    expect(refusal('x,a,b\n')).toBe('--costs costs.csv: line 1: the header lacks the predicted class "c"; it needs every class of the target once ("a", "b", "c")');
+    expect(refusal('x,b\n')).toBe('--costs costs.csv: line 1: the header lacks the predicted classes "a", "c"; it needs every class of the target once ("a", "b", "c")');
+    expect(refusal('x,a,b,c\nb,1,0,1\n')).toBe('--costs costs.csv: line 2: no line for the actual classes "a", "c"; the matrix needs one line per class of the target ("a", "b", "c")');
+    expect(refusal('x,a,b,c\na,0,1,1\nb,1,0,1\n')).toBe('--costs costs.csv: line 3: no line for the actual class "c"; the matrix needs one line per class of the target ("a", "b", "c")');
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { equalCountBins } from '../../src/metrics/calibration-bins.js';
+import { calibrationPairs, equalCountBins } from '../../src/metrics/calibration-bins.js';
 import { ECE_BINS, ece } from '../../src/metrics/ece.js';
 import { binaryScores } from './helpers.js';
 
@@ -71,5 +71,47 @@ describe('equal-count bins', () => {
     const score = Float64Array.from({ length: 25 }, (_, i) => (i * 7919) % 25);
     const bins = equalCountBins(score, new Uint8Array(25), 10);
     expect(bins.map((b) => b.count)).toEqual([2, 3, 2, 3, 2, 3, 2, 3, 2, 3]);
+  });
+});
+
+describe('equal-count bins: what each bin reports, and the refusals', () => {
+  it('gives each bin its lowest and highest score and its hit count (the tie example, by hand)', () => {
+    // sorted: .1 (0), .2 (1), .2 (0), .2 (0) | .6 (1), .9 (1)
+    const score = Float64Array.from([0.2, 0.9, 0.1, 0.2, 0.6, 0.2]);
+    const outcome = Uint8Array.from([1, 1, 0, 0, 1, 0]);
+    const bins = equalCountBins(score, outcome, 3);
+    expect(bins.length).toBe(2);
+    expect([bins[0].lowScore, bins[0].highScore, bins[0].hits]).toEqual([0.1, 0.2, 1]);
+    expect([bins[1].lowScore, bins[1].highScore, bins[1].hits]).toEqual([0.6, 0.9, 2]);
+  });
+
+  it('one bin holds every row', () => {
+    const bins = equalCountBins(Float64Array.from([0.3, 0.1, 0.2]), Uint8Array.from([1, 0, 1]), 1);
+    expect(bins.length).toBe(1);
+    expect(bins[0].count).toBe(3);
+    expect(bins[0].hits).toBe(2);
+  });
+
+  it('refuses lengths that differ and a bin count that is not a positive integer', () => {
+    expect(() => equalCountBins(new Float64Array(3), new Uint8Array(2), 2)).toThrow(new RangeError('equalCountBins: score and outcome lengths differ (3 and 2)'));
+    expect(() => equalCountBins(new Float64Array(3), new Uint8Array(3), 0)).toThrow(new RangeError('equalCountBins: bins must be a positive integer (got 0)'));
+    expect(() => equalCountBins(new Float64Array(3), new Uint8Array(3), 1.5)).toThrow(new RangeError('equalCountBins: bins must be a positive integer (got 1.5)'));
+  });
+});
+
+describe('calibrationPairs', () => {
+  it('two classes: the class-1 column against "actual = 1", whichever column is larger (Naeini et al. 2015)', () => {
+    const { score, outcome } = calibrationPairs(Int32Array.from([0, 1, 1]), Float64Array.from([0.7, 0.3, 0.2, 0.8, 0.6, 0.4]), 2);
+    expect(Array.from(score)).toEqual([0.3, 0.8, 0.4]);
+    expect(Array.from(outcome)).toEqual([0, 1, 1]);
+  });
+
+  it('three classes: the row largest probability, the first column on a tie, against "that class is right" (Guo et al. 2017)', () => {
+    // by hand: row 0 (.4 .4 .2) tie -> column 0, actual 1: wrong; row 1 (.1 .5 .4) -> column 1, right;
+    // row 2 (.1 .3 .6) -> column 2, right; row 3 (.9 .05 .05) -> column 0, right
+    const proba = Float64Array.from([0.4, 0.4, 0.2, 0.1, 0.5, 0.4, 0.1, 0.3, 0.6, 0.9, 0.05, 0.05]);
+    const { score, outcome } = calibrationPairs(Int32Array.from([1, 1, 2, 0]), proba, 3);
+    expect(Array.from(score)).toEqual([0.4, 0.5, 0.6, 0.9]);
+    expect(Array.from(outcome)).toEqual([0, 1, 1, 1]);
   });
 });

@@ -60,3 +60,12 @@ describe('brier (multi-class form of Brier 1950)', () => {
     expect(brier({ ...base, probs: Float64Array.from([0, 1, 0, 1, 0, 0]) })).toBe(2);
   });
 });
+
+describe('log-loss clip at the top', () => {
+  it('a certain right answer costs -ln(1 - 2^-53), about 2^-53, not 0', () => {
+    // -ln(1 - x) = x + x^2/2 + ... (Taylor series), so for x = 2^-53 the cost is 2^-53 to within 1e-31
+    const v = logLoss({ actual: Int32Array.from([1]), predicted: Int32Array.from([1]), classes: 2, probs: Float64Array.from([0, 1]) });
+    expect(v).toBeGreaterThan(0);
+    expect(Math.abs(v - 2 ** -53)).toBeLessThan(1e-31);
+  });
+});

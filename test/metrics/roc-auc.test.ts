@@ -102,3 +102,18 @@ describe('roc-auc, more classes: macro one-vs-rest', () => {
     expect(Math.abs(rocAuc({ actual, predicted, classes: 4, probs }) - 0.875)).toBeLessThan(1e-12);
   });
 });
+
+describe('roc-auc, two classes: the score is column 1 only', () => {
+  it('reads class 1 probabilities even when a row does not sum to 1 (by hand, AUC 3/4)', () => {
+    // column 1: negatives .1, .4; positives .35, .8. Pairs: .35 > .1 (win), .35 < .4 (loss),
+    // .8 beats both: 3 wins of 4 = 0.75. Column 0 is .9 in every row (rows used as given, not
+    // renormalised); averaging a class-0 area from it (all tied, 0.5) would give 0.625.
+    const input = {
+      actual: Int32Array.from([0, 0, 1, 1]),
+      predicted: Int32Array.from([0, 1, 0, 1]),
+      classes: 2,
+      probs: Float64Array.from([0.9, 0.1, 0.9, 0.4, 0.9, 0.35, 0.9, 0.8]),
+    };
+    expect(rocAuc(input)).toBe(0.75);
+  });
+});
