@@ -275,7 +275,6 @@ export function assembleReport(frame: ReportFrame, records: readonly TaskRecord[
   return withComparisons(report);
 }
 
-/** The curves of a classifier whose every scored fold has probabilities (src/curves/); nothing otherwise. */
 /** The pooled confusion matrix of a learner: whole up to CONFUSION_CLASS_LIMIT classes, folded beyond (src/metrics/folded-confusion.ts). */
 function pooledConfusion(actual: Int32Array, predicted: Int32Array, classes: number, names: readonly string[]): Pick<LearnerReport, 'confusion' | 'confusionFolded'> {
   if (classes <= CONFUSION_CLASS_LIMIT) return { confusion: confusionMatrix(actual, predicted, classes) };
@@ -283,6 +282,7 @@ function pooledConfusion(actual: Int32Array, predicted: Int32Array, classes: num
   return { confusionFolded: { classes: f.kept.map((c) => names[c]), otherClasses: f.otherClasses, matrix: f.matrix, otherCorrect: f.otherCorrect } };
 }
 
+/** The curves of a classifier whose every scored fold has probabilities (src/curves/); nothing otherwise. */
 function curvesOf(
   preds: readonly Prediction[],
   actual: readonly Target[],
