@@ -38,3 +38,18 @@ export interface LearnerThreshold {
   /** the same figures at the default 0.5 (the class with the highest probability for two classes) */
   readonly atDefault: Readonly<Record<string, ScoreSummary | null>>;
 }
+
+/**
+ * tune --threshold: the threshold to deploy with the recommended settings, chosen by the rule on
+ * out-of-fold predictions of an inner split of all search rows (as eval chooses one for a fold
+ * that trains on those rows). Not an estimate of performance: the outer folds' thresholds and the
+ * figures at them (`outer.threshold`) are.
+ */
+export interface DeployThreshold {
+  /** the probability of the positive class at or above which a row is called positive; null when the rule called nothing positive */
+  readonly value: number | null;
+  /** false when a precision>= or recall>= rule was not met inside and the closest threshold was used */
+  readonly met: boolean;
+  /** the rows whose inner split chose it (all search rows) */
+  readonly rows: number;
+}

@@ -13,7 +13,7 @@ import type { DataSection, ReportAudit, ReportCosts } from './report.js';
 import type { ReportComparisons } from './compare.js';
 import type { Params, Task } from '../learning.js';
 import type { ScoreSummary } from './report.js';
-import type { LearnerThreshold, ReportThreshold } from './threshold.js';
+import type { DeployThreshold, LearnerThreshold, ReportThreshold } from './threshold.js';
 
 /** Inner cross-validation of one candidate on the headline metric. */
 export interface TuneInnerStat {
@@ -155,6 +155,8 @@ export interface TuneReport {
     readonly bestInnerMean: number;
     /** true when the recommendation is also the outer folds' most frequent pick */
     readonly matchesTopWinner: boolean;
+    /** --threshold: the threshold to deploy with these settings (absent without --threshold, or when none could be chosen: see the warnings) */
+    readonly threshold?: DeployThreshold;
   };
   /** the recommendation fitted on all search rows and scored once on the holdout rows */
   readonly holdout?: {

@@ -4,7 +4,7 @@
  * the corrected intervals.
  */
 import type { ScoreSummary } from '../model/report.js';
-import type { LearnerThreshold, ReportThreshold } from '../model/threshold.js';
+import type { DeployThreshold, LearnerThreshold, ReportThreshold } from '../model/threshold.js';
 import { cell, num } from '../markdown-text.js';
 
 type Table = (header: readonly string[], align: readonly ('l' | 'r')[], rows: readonly (readonly string[])[]) => string;
@@ -41,4 +41,15 @@ export function thresholdSection(t: ReportThreshold | undefined, learners: reado
     );
   }
   return out;
+}
+
+/**
+ * tune: the sentence on the threshold to deploy with the recommendation, shared by the Markdown
+ * and the HTML page; `q` quotes names for the format (the HTML page escapes the whole sentence).
+ */
+export function deployThresholdText(t: ReportThreshold, d: DeployThreshold, q: (text: string) => string = (x) => x): string {
+  const split = t.timeOrdered ? `a time-ordered ${t.innerFolds}-fold inner split` : `a ${t.innerFolds}-fold inner split`;
+  const call = d.value === null ? `the rule ${q(t.rule)} called nothing positive there, so no row would be called ${q(t.positive)}` : `call a row ${q(t.positive)} when its probability of ${q(t.positive)} is at least ${num(d.value)}`;
+  const unmet = d.met ? '' : ' The rule was not met there; this is the threshold closest to meeting it.';
+  return `Threshold to deploy with these settings (${q(t.rule)}): ${call}. Chosen after the pick, on out-of-fold predictions of ${split} of all ${d.rows} search rows. It is a setting, not an estimate of performance: the figures at a threshold chosen without seeing the test rows are those of the outer folds (threshold section).${unmet}`;
 }

@@ -6,7 +6,7 @@
  * recommended candidate marked; the quick audit's suspects and the warnings last. Numbers have
  * four decimals.
  */
-import { thresholdSection } from './threshold-markdown.js';
+import { deployThresholdText, thresholdSection } from './threshold-markdown.js';
 import { auditSection, cell, code, inline, num } from './markdown.js';
 import { costsSection } from './costs-markdown.js';
 import type { TuneCandidate, TuneReport } from '../model/tune.js';
@@ -89,6 +89,7 @@ export function renderTuneMarkdown(r: TuneReport): string {
   const folds = r.outer.folds.length;
   out.push('## Recommendation (deploy this)', '');
   out.push(`- **${inline(rec.spec)}**, picked by the inner plan on all ${r.plan.searchRows} search rows: inner ${head} ${num(rec.innerMean)} (sd ${num(rec.innerSd)}). This inner figure is optimistic (it is the winner of the search); quote the outer estimate above.`);
+  if (r.threshold && rec.threshold) out.push(`- ${deployThresholdText(r.threshold, rec.threshold, inline)}`);
   if (rec.best !== rec.id) out.push(`- Best inner mean: ${inline(rec.bestSpec)} at ${num(rec.bestInnerMean)}; the one-standard-error rule took the simpler candidate above.`);
   out.push(
     `- Stability: the outer folds made ${plural(r.stability.distinct, 'distinct pick')}; the most frequent, ${inline(top.spec)}, won ${top.folds} of ${folds} (${(100 * r.stability.topShare).toFixed(0)}%)${rec.id === top.id ? ', and it is the recommendation' : ', which is not the recommendation'}.`,

@@ -226,7 +226,22 @@ export interface AllWork {
   readonly foldsPerRepeat: number;
   readonly repeats: number;
   readonly stratified: boolean;
+  /**
+   * --threshold: the threshold of the recommended candidate, chosen by the rule on an inner split
+   * of all search rows (absent: no rule, no pick, no probabilities, or one class inside)
+   */
+  readonly threshold?: InnerThreshold;
   readonly work: WorkCount;
+}
+
+/**
+ * The fold whose seeds the recommendation's threshold uses: repeat 0, fold 0 with all search rows
+ * as its training rows. So it is the threshold `eval --threshold` chooses for the same learner on
+ * a first fold that trains on exactly these rows (`--plan loo` on a file with one extra row in
+ * front), which is how it is checked. Its split differs from outer fold 1's, whose rows differ.
+ */
+function recommendationFold(rows: Int32Array): Fold {
+  return { repeat: 0, fold: 0, train: rows, test: new Int32Array(0) };
 }
 
 /** Checks the options and builds the holdout, the outer plan and the candidates (steps before any fit). */
@@ -247,6 +262,11 @@ export function setupTune(table: Table, options: TuneOptions, started = performa
   const impute = options.impute ?? 'median';
   const n = problem.rows.length;
   const warnings: string[] = [...table.warnings, ...search.warnings];
+  // --threshold with a headline that calls classes at the default cut: a user's choice, said once
+  // (the candidates are compared at 0.5, before the threshold they will be used with is chosen)
+  if (threshold && !head.needsProba) {
+    warnings.push(`--threshold ${threshold.text}: the hyperparameters are picked by ${head.name} at the default cut (0.5), before the threshold is chosen; for a pick that does not depend on a cut, put a probability metric first (--metric roc-auc, log-loss or brier)`);
+  }
   if (problem.excludedRows > 0) {
     warnings.push(`${problem.excludedRows} row${problem.excludedRows === 1 ? '' : 's'} with a missing target (${quoted(problem.targetName)}) left out`);
   }
@@ -320,7 +340,21 @@ export function allSearchWork(s: TuneSetup): AllWork {
   const work = newWorkCount();
   const allInner = innerPlan(s.problem, s.innerSpec, s.searchRows, s.options.stratify, deriveSeed(s.seed, 'inner', 'all'), 'all search rows');
   const stats = innerSearch(s.problem, allInner.plan, s.candidates, s.head, s.impute, (r, k) => deriveSeed(s.seed, 'fit', 'all', 'inner', r, k), work);
-  return { stats, innerWarnings: allInner.plan.warnings, foldsPerRepeat: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified, work };
+  // --threshold: the recommendation's threshold, after its pick (the same pick finishTune makes
+  // from these stats), chosen as eval chooses one for a fold whose training rows are all search rows
+  let cut: { threshold?: InnerThreshold } = {};
+  if (s.threshold) {
+    const p = pickCandidate(s.candidates, stats, s.rule, s.head.higherIsBetter);
+    if (p.pick >= 0) {
+      const t0 = performance.now();
+      const chosen = innerThreshold(s.problem, s.seed, s.candidates[p.pick], recommendationFold(s.searchRows), s.searchRows, s.threshold, (train, test) => new SplitData(s.problem, train, test, s.impute));
+      work.fitMs += performance.now() - t0;
+      work.fits += s.threshold.innerFolds;
+      work.plainFits += s.threshold.innerFolds;
+      if (chosen) cut = { threshold: chosen };
+    }
+  }
+  return { stats, innerWarnings: allInner.plan.warnings, foldsPerRepeat: allInner.plan.foldsPerRepeat, repeats: allInner.plan.repeats, stratified: allInner.stratified, ...cut, work };
 }
 
 function addWork(to: WorkCount, from: WorkCount): void {
@@ -427,6 +461,10 @@ export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: A
   if (fellBack) warnings.push('--pick one-se: an inner plan gave fewer than two scores, so there was no standard error and the best candidate was taken');
   const rec = candidates[final.pick];
   warnings.push(...edgeWarnings(rec, candidates, 'the recommended'));
+  if (s.threshold && y.task === 'classification') {
+    if (!all.threshold) warnings.push(`the recommendation: --threshold: no threshold to deploy, since ${rec.spec} gives no class probabilities or its inner predictions on all search rows held one class`);
+    else if (!all.threshold.met) warnings.push('the recommendation: --threshold: the rule was not met on the inner split of all search rows; its threshold is the one closest to meeting it');
+  }
   const undefinedFor = allStats.filter((st) => st.mean === null).length;
   if (undefinedFor > 0) warnings.push(`${head.name} is undefined in every inner fold for ${undefinedFor} of ${candidates.length} candidates; they were never picked`);
 
@@ -539,6 +577,9 @@ export function finishTune(s: TuneSetup, outerWork: readonly OuterWork[], all: A
       bestSpec: candidates[final.best].spec,
       bestInnerMean: allStats[final.best].mean!,
       matchesTopWinner: winners[0].id === rec.id,
+      ...(all.threshold && y.task === 'classification'
+        ? { threshold: { value: Number.isFinite(all.threshold.value) ? all.threshold.value : null, met: all.threshold.met, rows: searchRows.length } }
+        : {}),
     },
     ...(holdout ? { holdout } : {}),
     ...(comparisons ? { comparisons } : {}),

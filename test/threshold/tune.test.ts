@@ -97,6 +97,59 @@ describe('tune --threshold', () => {
     expect(html.stdout).toContain('Threshold chosen inside the training folds (max-f1)');
   });
 
+  it('gives the recommendation the threshold eval --threshold chooses for a fold that trains on all search rows', async () => {
+    const json = join(tmp.dir, 'rec.json');
+    const r = await cli([...tuneArgs, '--jobs', '1', '--json', json]);
+    expect(r.code).toBe(0);
+    const t = JSON.parse(readFileSync(json, 'utf8')) as TuneReport;
+    schemaCheck('tune.schema.json')(t);
+    const rec = t.recommendation;
+    expect(rec.threshold).toBeDefined();
+    expect(rec.threshold!.rows).toBe(rows.length);
+    expect(rec.threshold!.met).toBe(true);
+    expect(rec.threshold!.value).not.toBeNull();
+    // an independent path: eval --plan loo on the same rows with one extra row in front (a copy of
+    // the first, so no level is new and no code moves). Its first fold (repeat 0, fold 0) tests
+    // the extra row and trains on exactly the tune file's rows, in the same order.
+    const lines = readFileSync(data, 'utf8').split('\n');
+    const extra = tmp.file('extra-first.csv', [lines[0], lines[1], ...lines.slice(1)].join('\n'));
+    const argsNoPlan = common.filter((a, i) => a !== '--plan' && common[i - 1] !== '--plan').slice(1);
+    const e = await cli(['eval', extra, ...argsNoPlan, '--plan', 'loo', '--learner', rec.spec, '--jobs', '1', '--json', '-']);
+    expect(e.code).toBe(0);
+    const ev = JSON.parse(e.stdout) as Report;
+    const lt = ev.learners.find((l) => l.spec === rec.spec)!.threshold!;
+    expect(lt.folds.length).toBe(rows.length + 1);
+    expect([lt.folds[0].repeat, lt.folds[0].fold]).toEqual([0, 0]);
+    expect(rec.threshold!.value).toBe(lt.folds[0].threshold);
+    expect(rec.threshold!.met).toBe(lt.folds[0].met);
+    // another fold trains on other rows and chooses another threshold here, so the match is not by chance
+    expect(lt.folds.some((f) => f.threshold !== rec.threshold!.value)).toBe(true);
+    // the search counts the K extra fits of the recommendation's threshold
+    const plain = JSON.parse((await cli([...tuneArgs.filter((a, i) => a !== '--threshold' && tuneArgs[i - 1] !== '--threshold'), '--jobs', '1', '--json', '-'])).stdout) as TuneReport;
+    expect(t.search.fits - plain.search.fits).toBe(5 * (t.outer.folds.length + 1));
+
+    // labelled as the threshold to deploy, not an estimate, in Markdown and HTML
+    const md = await cli([...tuneArgs, '--jobs', '1', '--markdown', '-']);
+    expect(md.stdout).toContain(`- Threshold to deploy with these settings (max-f1): call a row Gentoo when its probability of Gentoo is at least`);
+    expect(md.stdout).toContain('It is a setting, not an estimate of performance');
+    const html = await cli([...tuneArgs, '--jobs', '1', '--html', '-']);
+    expect(html.stdout).toContain('<p class="deploy-threshold">Threshold to deploy with these settings (max-f1)');
+  });
+
+  it('warns once when the pick is made by a metric at the default cut, and not under a probability metric', async () => {
+    const small = ['tune', ...common, '--learner', 'knn:k=9|13', '--inner', 'kfold:3'];
+    const line = 'foldwise: warning: --threshold max-f1: the hyperparameters are picked by accuracy at the default cut (0.5), before the threshold is chosen; for a pick that does not depend on a cut, put a probability metric first (--metric roc-auc, log-loss or brier)\n';
+    const byAccuracy = await cli([...small, '--json', '-']);
+    expect(byAccuracy.code).toBe(0);
+    expect(byAccuracy.stderr.split(line).length - 1).toBe(1);
+    expect((JSON.parse(byAccuracy.stdout) as TuneReport).warnings.filter((w) => w.includes('at the default cut')).length).toBe(1);
+    for (const metric of ['roc-auc', 'log-loss', 'brier']) {
+      const byProbability = await cli([...small, '--metric', metric, '--json', '-']);
+      expect(byProbability.code).toBe(0);
+      expect(byProbability.stderr).not.toContain('at the default cut');
+    }
+  });
+
   it('is refused on a three-class target before the search starts', async () => {
     const all = tmp.file('penguins3.csv', `${Papa.unparse([header, ...(JSON.parse(readFileSync(PENGUINS_JSON, 'utf8')) as Record<string, string | number | null>[]).map((r) => header.map((h) => (r[h] === null ? '' : String(r[h]))))], { newline: '\n' })}\n`);
     const r = await cli(['tune', all, '--target', 'Species', '--learner', 'knn:k=3|5', '--threshold', 'youden']);

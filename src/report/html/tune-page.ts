@@ -14,6 +14,7 @@
  * The candidates' inner means come from `all` (the inner plan on all search rows).
  */
 import { thresholdSection } from './threshold-table.js';
+import { deployThresholdText } from '../threshold-markdown.js';
 import { TUNE_THRESHOLD_NOTE } from '../tune-markdown.js';
 import { clip, esc } from './escape.js';
 import { tuneFooter } from './footer.js';
@@ -79,6 +80,7 @@ function header(r: TuneReport): string {
       `<div class="label">Recommendation: the candidate to deploy</div>`,
       `<div class="value"><code>${esc(clip(rec.spec, 120))}</code></div>`,
       `<p>${esc(`Picked by the inner plan on all ${r.plan.searchRows} search rows. Its inner ${metric} of ${num(rec.innerMean)} (sd ${num(rec.innerSd)}) is optimistic: the search that picked it out of ${plural(r.search.tried, 'candidate')} also scored it, so do not quote it.${note}`)}</p>`,
+      r.threshold && rec.threshold ? `<p class="deploy-threshold">${esc(deployThresholdText(r.threshold, rec.threshold))}</p>` : '',
       '</section>',
     ].join(''),
   );
