@@ -5,6 +5,7 @@
  * Exit codes: 0 written, 2 bad input or usage.
  */
 import { COSTS_HELP, costsOf, type CostsFlags } from './costs-option.js';
+import { parseGivenThreshold, SCORE_THRESHOLD_HELP } from './threshold-option.js';
 import { Option, type Command } from 'commander';
 import { readFileSync } from 'node:fs';
 import { loadTable, sniffFormat } from '../data/load-table.js';
@@ -40,6 +41,7 @@ interface ScoreFlags extends CostsFlags {
   html?: string;
   slice?: string[];
   sliceBins?: string;
+  threshold?: string;
 }
 
 const collect = (value: string, previous: string[] = []): string[] => [...previous, value];
@@ -86,6 +88,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
     .option('--train-rows <n>', 'training rows of every fold, when the file does not say (for the corrected intervals)')
     .option('--metric <name>', 'metric to report (repeatable; the first is the headline)', collect)
     .option('--costs <file>', COSTS_HELP)
+    .option('--threshold <t>', SCORE_THRESHOLD_HELP)
     .option('--slice <column>', 'also score every metric per level of this column of the predictions file (repeatable; numeric columns are cut into quantile bins)', collect)
     .option('--slice-bins <n>', `quantile bins of a numeric --slice column, edges fixed on all lines (default ${DEFAULT_SLICE_BINS})`)
     .option('--delimiter <char>', 'field separator, one character; "tab" or "\\t" for tab', ',')
@@ -103,6 +106,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
       if (flags.prob !== undefined && flags.probColumns !== undefined) throw new UsageError('--prob and --prob-columns: give one of them');
       const trainRows = parseTrainRows(flags.trainRows);
       const costs = costsOf(flags);
+      const threshold = flags.threshold === undefined ? undefined : parseGivenThreshold(flags.threshold);
       const text = await readAll(path, io);
       const report = scoreReport(text, path, {
         actual: flags.actual,
@@ -118,6 +122,7 @@ export function registerScore(prog: Command, io: Io, setCode: (code: number) => 
         metrics: flags.metric,
         trainRows,
         ...(costs ? { costs } : {}),
+        ...(threshold !== undefined ? { threshold } : {}),
         ...(flags.slice?.length ? { slice: flags.slice, sliceBins: parseSliceBins(flags.sliceBins) } : {}),
       });
       for (const w of report.warnings) io.stderr.write(`foldwise: warning: ${w.replace(/\r?\n|\r/g, ' ')}\n`);

@@ -7,8 +7,10 @@ export interface ReportThreshold {
   readonly rule: string;
   /** the class called positive at or above the threshold (the second class of data.classes) */
   readonly positive: string;
-  /** folds of the inner split of each outer training fold on whose out-of-fold predictions the threshold is chosen */
-  readonly innerFolds: number;
+  /** folds of the inner split of each outer training fold on whose out-of-fold predictions the threshold is chosen (absent when `given`) */
+  readonly innerFolds?: number;
+  /** present (true) in score reports of `score --threshold T`: the threshold T was given, the same for every fold, and nothing was chosen (`rule` is T) */
+  readonly given?: true;
   /** present (true) under a forward plan: the inner split is in time order, each inner fold fitting on earlier rows and predicting the block after them */
   readonly timeOrdered?: true;
 }

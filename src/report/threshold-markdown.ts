@@ -11,9 +11,34 @@ type Table = (header: readonly string[], align: readonly ('l' | 'r')[], rows: re
 
 const interval = (s: ScoreSummary | null | undefined): string => (s?.ci95 ? `${num(s.ci95[0])} to ${num(s.ci95[1])}` : '–');
 
+/** score --threshold T: the figures at the given T beside 0.5, per learner (nothing was chosen, so no spread). */
+function givenSection(t: ReportThreshold, learners: readonly { readonly spec: string; readonly threshold?: LearnerThreshold }[], table: Table): string[] {
+  const out: string[] = [
+    `## At the given threshold ${cell(t.rule)}`,
+    '',
+    `A row is called ${cell(t.positive)} when its probability of ${cell(t.positive)} is at least ${cell(t.rule)} (given with --threshold, the same on every fold; at 0.5, at least 0.5). Precision, recall and F1 are those of ${cell(t.positive)}.`,
+    '',
+  ];
+  for (const l of learners) {
+    const lt = l.threshold;
+    if (!lt) continue;
+    out.push(`### ${cell(l.spec)}`, '');
+    out.push(
+      table(
+        ['figure', `at ${cell(t.rule)}`, '95% interval (corrected)', 'at 0.5', 'interval at 0.5'],
+        ['l', 'r', 'r', 'r', 'r'],
+        Object.keys(lt.summary).map((k) => [cell(k), num(lt.summary[k]?.mean), interval(lt.summary[k]), num(lt.atDefault[k]?.mean), interval(lt.atDefault[k])]),
+      ),
+      '',
+    );
+  }
+  return out;
+}
+
 /** The section for the report's rule `t` and each learner's results; `note` is added to the opening paragraph. */
 export function thresholdSection(t: ReportThreshold | undefined, learners: readonly { readonly spec: string; readonly threshold?: LearnerThreshold }[], table: Table, note = ''): string[] {
   if (!t) return [];
+  if (t.given) return givenSection(t, learners, table);
   const out: string[] = [
     `## Threshold chosen inside the training folds: ${cell(t.rule)}`,
     '',

@@ -45,6 +45,17 @@ export interface ScoreOptions extends ScoreColumns {
   readonly trainRows?: number;
   /** --costs FILE: the cost matrix's name and text, for the cost metric */
   readonly costs?: { readonly file: string; readonly text: string };
+  /** --threshold T (two-class predictions with probabilities): also score every fold with the positive class called at probability >= T, beside 0.5 */
+  readonly threshold?: number;
+}
+
+/** --threshold T: refused for predictions that are not two-class or carry no probabilities (one line, exit 2). */
+function checkThreshold(read: ReadPredictions, t: number | undefined): void {
+  if (t === undefined) return;
+  if (!(t > 0 && t < 1)) throw new UsageError(`--threshold ${t}: a threshold is a probability of the positive class strictly between 0 and 1`);
+  if (read.task !== 'classification' || !read.classes) throw new UsageError(`--threshold ${t}: a threshold needs two-class predictions, but these are for regression; leave it out`);
+  if (read.classes.length !== 2) throw new UsageError(`--threshold ${t}: a threshold needs two-class predictions, but these have ${read.classes.length} classes; leave it out`);
+  if (!read.groups.some((g) => g.probs)) throw new UsageError(`--threshold ${t}: a threshold is applied to the probability of ${read.classes[1]}, but the file gives no probabilities; name their columns with --prob or --prob-columns`);
 }
 
 function learnerName(spec: string): string {
@@ -75,6 +86,7 @@ export function scoreReport(text: string | PredictionFields, file: string, opts:
   const read = readPredictions(text, file, opts);
   const metrics = checkMetrics(read, opts.metrics);
   const costs = costsFor(read, opts.costs, metrics);
+  checkThreshold(read, opts.threshold);
   const test = read.groups.filter((g) => !g.holdout);
   const trainFrom: ReportSource['trainRows'] = read.hasTrainRows ? 'file' : opts.trainRows !== undefined ? 'option' : 'assumed-kfold';
   const warnings: string[] = [];
@@ -135,6 +147,7 @@ export function scoreReport(text: string | PredictionFields, file: string, opts:
     warnings,
     learners: read.learners.map((spec) => ({ name: learnerName(spec), spec, params: {} })),
     ...(slices.length ? { slices } : {}),
+    ...(opts.threshold !== undefined && read.classes ? { threshold: { rule: String(opts.threshold), positive: read.classes[1], given: true as const } } : {}),
   };
 
   const classes = read.classes ?? [];
@@ -150,6 +163,7 @@ export function scoreReport(text: string | PredictionFields, file: string, opts:
       actual,
       predicted: read.task === 'classification' ? Int32Array.from(g.predicted) : Float64Array.from(g.predicted),
       ...(g.probs ? { probs: Float64Array.from(g.probs) } : {}),
+      ...(g.probs && opts.threshold !== undefined ? { threshold: { value: opts.threshold, met: true } } : {}),
       fitMs: 0,
       predictMs: 0,
       ...(slices.length ? { rows: Int32Array.from(g.actual, (_, k) => starts[i] + k) } : {}),
