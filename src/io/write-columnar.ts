@@ -20,7 +20,17 @@ export type OutColumn =
   | { readonly kind: 'float'; readonly name: string; readonly values: Float64Array }
   | { readonly kind: 'int'; readonly name: string; readonly values: Int32Array; readonly nulls?: Uint8Array }
   | { readonly kind: 'text'; readonly name: string; readonly codes: Int32Array; readonly levels: readonly string[] }
-  | { readonly kind: 'days'; readonly name: string; readonly values: Float64Array };
+  | {
+      readonly kind: 'days';
+      readonly name: string;
+      readonly values: Float64Array;
+      /**
+       * the column's type decided by the caller over all its rows: true a millisecond timestamp,
+       * false a date of whole days; absent, it follows the values given (a batch's only, so a file
+       * written batch by batch must set it, or a later batch with a time of day is refused)
+       */
+      readonly times?: boolean;
+    };
 
 /** A table column (all rows or the listed rows) as an output column. */
 export function outColumn(c: Column, rows?: ArrayLike<number>): OutColumn {
@@ -49,11 +59,17 @@ function wholeDays(v: Float64Array, length: number): boolean {
   return true;
 }
 
+/** Whether any of the date values (days since 1970, a time of day as the fraction) has a time of day: the first pass that decides a 'days' column's `times` over all its rows. */
+export function hasTimeOfDay(values: ArrayLike<number>): boolean {
+  for (let i = 0; i < values.length; i++) if (values[i] === values[i] && !Number.isInteger(values[i])) return true;
+  return false;
+}
+
 /** The Arrow type of a column: dictionary-coded strings (with the id given, else the library's next), int32, date (whole days) or millisecond timestamp, float64. */
 function arrowType(c: OutColumn, length: number, dictionaryId?: number): A.DataType {
   if (c.kind === 'text') return new A.Dictionary(new A.Utf8(), new A.Int32(), dictionaryId);
   if (c.kind === 'int') return new A.Int32();
-  if (c.kind === 'days') return wholeDays(c.values, length) ? new A.DateDay() : new A.TimestampMillisecond();
+  if (c.kind === 'days') return (c.times ?? !wholeDays(c.values, length)) ? new A.TimestampMillisecond() : new A.DateDay();
   return new A.Float64();
 }
 
@@ -73,7 +89,7 @@ function arrowData(c: OutColumn, length: number, type: A.DataType, dictionary?: 
   const nullBitmap = nulls ? bitmap : undefined;
   if (c.kind === 'days') {
     if (type instanceof A.DateDay) {
-      if (!wholeDays(v, length)) throw new Error(`arrowData: column ${c.name} holds times of day in a date column`);
+      if (!wholeDays(v, length)) throw new Error(`arrowData: column ${c.name} holds times of day in a date column (decide its type over all rows first: OutColumn times)`);
       return A.makeData({ type, length, nullCount: nulls, nullBitmap, data: Int32Array.from(v, (d) => (d === d ? d : 0)) });
     }
     const ms = BigInt64Array.from(v, (d) => (d === d ? BigInt(Math.round(d * DAY_MS)) : 0n));
@@ -116,7 +132,8 @@ function parquetParts(columns: readonly OutColumn[], length: number): { schema: 
       if (v[i] !== v[i]) nulls = true;
       else if (!Number.isInteger(v[i])) whole = false;
     }
-    if (c.kind === 'days' && whole) {
+    if (c.kind === 'days' && (c.times === undefined ? whole : !c.times)) {
+      if (!whole) throw new Error(`parquetParts: column ${c.name} holds times of day in a date column (times: false)`);
       schema.push({ name: c.name, type: 'INT32', converted_type: 'DATE', repetition_type: 'OPTIONAL' });
       return { name: c.name, data: Array.from(v, (d) => (d === d ? d : null)) };
     }
