@@ -136,6 +136,31 @@ describe('tune --threshold', () => {
     expect(html.stdout).toContain('<p class="deploy-threshold">Threshold to deploy with these settings (max-f1)');
   });
 
+  it('under a forward outer plan gives the recommendation the time-ordered threshold eval --threshold chooses for a first fold training on all search rows', async () => {
+    // the rows in a mixed time order (97 is prime to 276, so i -> 97 i mod 276 is a permutation)
+    const cols = [...header, 'when'];
+    const cells = (r: Record<string, string | number | null>, when: number): string[] => [...header.map((h) => (r[h] === null ? '' : String(r[h]))), String(when)];
+    const timed = tmp.file('timed.csv', `${Papa.unparse([cols, ...rows.map((r, i) => cells(r, (97 * i) % rows.length))], { newline: '\n' })}\n`);
+    // eval's file: the same rows, then two later copies; forward:2 cuts 3 blocks of 276, so fold 1 (repeat 0, fold 0) trains on exactly the first 276
+    const later = [1, 2].flatMap((k) => rows.map((r, i) => cells(r, k * rows.length + ((97 * i) % rows.length))));
+    const longer = tmp.file('timed-longer.csv', `${Papa.unparse([cols, ...rows.map((r, i) => cells(r, (97 * i) % rows.length)), ...later], { newline: '\n' })}\n`);
+    const shared = ['--target', 'Species', ...common.slice(3, 9), '--order', 'when', '--threshold', 'max-f1', '--threshold-folds', '3', '--no-timing', '--no-audit', '--quiet'];
+    const r = await cli(['tune', timed, ...shared, '--plan', 'forward:3', '--inner', 'forward:2', '--learner', 'forest:trees=15,min-leaf=1|8', '--jobs', '1', '--json', '-']);
+    expect(r.code).toBe(0);
+    const t = JSON.parse(r.stdout) as TuneReport;
+    expect(t.threshold!.timeOrdered).toBe(true);
+    const rec = t.recommendation;
+    expect(rec.threshold!.rows).toBe(rows.length);
+    const e = await cli(['eval', longer, ...shared, '--plan', 'forward:2', '--learner', rec.spec, '--jobs', '1', '--json', '-']);
+    expect(e.code).toBe(0);
+    const ev = JSON.parse(e.stdout) as Report;
+    const first = ev.learners.find((l) => l.spec === rec.spec)!.threshold!.folds[0];
+    expect([first.repeat, first.fold]).toEqual([0, 0]);
+    expect(ev.learners[0].folds[0].trainRows).toBe(rows.length);
+    expect(rec.threshold!.value).toBe(first.threshold);
+    expect(rec.threshold!.met).toBe(first.met);
+  });
+
   it('warns once when the pick is made by a metric at the default cut, and not under a probability metric', async () => {
     const small = ['tune', ...common, '--learner', 'knn:k=9|13', '--inner', 'kfold:3'];
     const line = 'foldwise: warning: --threshold max-f1: the hyperparameters are picked by accuracy at the default cut (0.5), before the threshold is chosen; for a pick that does not depend on a cut, put a probability metric first (--metric roc-auc, log-loss or brier)\n';
