@@ -74,7 +74,7 @@ export function thresholdSection(t: ReportThreshold | undefined, learners: reado
  */
 export function deployThresholdText(t: ReportThreshold, d: DeployThreshold, q: (text: string) => string = (x) => x): string {
   const split = t.timeOrdered ? `a time-ordered ${t.innerFolds}-fold inner split` : `a ${t.innerFolds}-fold inner split`;
-  const call = d.value === null ? `the rule ${q(t.rule)} called nothing positive there, so no row would be called ${q(t.positive)}` : `call a row ${q(t.positive)} when its probability of ${q(t.positive)} is at least ${num(d.value)}`;
+  const call = d.value === null ? `the rule ${q(t.rule)} called nothing positive there, so no row would be called ${q(t.positive)}` : `call a row ${q(t.positive)} when its probability of ${q(t.positive)} is at least ${num(d.value)} (rounded here; the exact value is recommendation.threshold.value in the JSON report)`;
   const unmet = d.met ? '' : ' The rule was not met there; this is the threshold closest to meeting it.';
   return `Threshold to deploy with these settings (${q(t.rule)}): ${call}. Chosen after the pick, on out-of-fold predictions of ${split} of all ${d.rows} search rows. It is a setting, not an estimate of performance: the figures at a threshold chosen without seeing the test rows are those of the outer folds (threshold section).${unmet}`;
 }
