@@ -108,6 +108,12 @@ export interface FitContext {
   readonly seed: number;
   /** the fold of this fit, when the caller runs folds (the runner and tune always give it) */
   readonly fold?: FoldView;
+  /**
+   * True when the caller will use the model only to predict `fold.test` (predict, probabilities,
+   * notes): no other rows, no saving, no importance. A learner may then predict those rows while
+   * it fits and keep no model (forest does, so its trees are never all in memory at once).
+   */
+  readonly predictOnly?: boolean;
 }
 
 export interface Model {
