@@ -11,7 +11,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { fitCartOnFold } from '../../src/learners/cart/fit-trees.js';
 import { forest, isCartModel } from '../../src/learners/forest.js';
-import type { FoldView, Matrix, Target } from '../../src/learning.js';
+import type { FoldView, Matrix, Params, Target } from '../../src/learning.js';
 import { createRng } from '../../src/rng.js';
 
 const FILE = join(dirname(fileURLToPath(import.meta.url)), '..', '..', 'node_modules', 'vega-datasets', 'data', 'penguins.json');
@@ -43,7 +43,7 @@ describe('forest with predictOnly (penguins, vega-datasets)', () => {
   const cases = problems();
   it('has both problems', () => expect(cases).toHaveLength(2));
   for (const { name, train, test, y } of cases) {
-    for (const params of [{ trees: 40 }, { trees: 25, sample: '0.5', 'min-leaf': 3 }]) {
+    for (const params of [{ trees: 40 }, { trees: 25, sample: '0.5', 'min-leaf': 3 }] as Params[]) {
       it(`${name}, ${JSON.stringify(params)}: the same predictions bit for bit as the fitted forest`, () => {
         const full = forest.fit(train, y, params, { rng: createRng(3), seed: 11 });
         const fold = forest.fit(train, y, params, { rng: createRng(3), seed: 11, fold: foldOf(test), predictOnly: true });
@@ -75,6 +75,26 @@ describe('forest with predictOnly (penguins, vega-datasets)', () => {
     const out = fitCartOnFold('forest', train, y, s, { rng: createRng(1), seed: 5 }, test);
     expect(out.largestTree).toBe(Math.max(...sizes));
     expect(out.largestTree).toBeLessThan(sizes.reduce((a, b) => a + b, 0) / 10);
+  });
+
+  it('makes room for a tree as it grows, not for the 2m - 1 nodes m rows could need', () => {
+    // invented for this check: 6,000 rows, the class is x0 > 0 with 3% of labels flipped, so a
+    // tree is far smaller than its bound (the bound reserved 27 MB a tree at 10^6 rows)
+    const rng = createRng(21);
+    const n = 6000;
+    const data = new Float64Array(n * 3);
+    const codes = new Int32Array(n);
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < 3; j++) data[i * 3 + j] = rng.next() * 2 - 1;
+      codes[i] = (data[i * 3] > 0 ? 1 : 0) ^ (rng.next() < 0.03 ? 1 : 0);
+    }
+    const train: Matrix = { rows: n, cols: 3, data };
+    const s = { trees: 4, depth: 32, minLeaf: 1, features: 'breiman', impurity: 'gini' as const, bins: 255, bootstrap: true, sample: '1' };
+    const out = fitCartOnFold('forest', train, { task: 'classification', codes, classes: ['a', 'b'] }, s, { rng: createRng(1), seed: 5 }, train);
+    // about 63% of the rows are drawn at least once, so the bound is about 7,600 nodes
+    expect(out.largestTree).toBeGreaterThan(100);
+    expect(out.largestTree).toBeLessThan(n / 4);
+    expect(out.nodeRoom).toBeLessThanOrEqual(Math.max(1024, 2 * out.largestTree));
   });
 
   it('refuses other rows and saving', () => {

@@ -171,6 +171,8 @@ export interface FoldOutputs {
   readonly outputs: Float64Array;
   /** nodes of the largest tree, the most the store held at once */
   readonly largestTree: number;
+  /** nodes the store had room for at the end (its arrays grow by doubling as a tree needs) */
+  readonly nodeRoom: number;
 }
 
 /**
@@ -185,11 +187,11 @@ export function fitCartOnFold(kind: CartKind, X: Matrix, y: Target, s: CartSetti
   const width = y.task === 'classification' ? y.classes.length : 1;
   const outputs = new Float64Array(test.rows * width);
   let largestTree = 0;
-  const { classCount } = growTrees(kind, X, y, s, ctx, true, (store) => {
+  const { classCount, store } = growTrees(kind, X, y, s, ctx, true, (store) => {
     largestTree = Math.max(largestTree, store.count);
     addTreeLeaves(store, store.roots[0], test, width, outputs);
     store.clear();
   });
   for (let i = 0; i < outputs.length; i++) outputs[i] /= s.trees;
-  return { task: y.task, classCount, outputs, largestTree };
+  return { task: y.task, classCount, outputs, largestTree, nodeRoom: store.feature.length };
 }
