@@ -21,17 +21,24 @@ export interface Matrix {
   readonly rows: number;
   readonly cols: number;
   readonly data: Float64Array;
-  /** column j (0 <= j < cols) as a new array of `rows` values, equal to data[i * cols + j] */
-  column?(j: number): Float64Array;
+  /**
+   * column j (0 <= j < cols) as `rows` values equal to data[i * cols + j]: written into `out`
+   * (of length `rows`) and returned when it is given, else in a new array
+   */
+  column?(j: number, out?: Float64Array): Float64Array;
   /** rows start..end-1 row-major as a new array of (end - start) * cols values */
   block?(start: number, end: number): Float64Array;
 }
 
-/** Column j of X: X.column(j) when the matrix has it, else read from X.data. */
-export function matrixColumn(X: Matrix, j: number): Float64Array {
-  if (X.column) return X.column(j);
+/**
+ * Column j of X: X.column(j) when the matrix has it, else read from X.data; into `into` (of
+ * length X.rows) when given, so a caller reading every column in turn reuses one buffer.
+ */
+export function matrixColumn(X: Matrix, j: number, into?: Float64Array): Float64Array {
+  if (into !== undefined && into.length !== X.rows) throw new RangeError(`a column buffer of ${into.length} values for a matrix of ${X.rows} rows`);
+  if (X.column) return X.column(j, into);
   const { rows: n, cols: p, data } = X;
-  const out = new Float64Array(n);
+  const out = into ?? new Float64Array(n);
   for (let i = 0; i < n; i++) out[i] = data[i * p + j];
   return out;
 }
@@ -108,6 +115,12 @@ export interface FitContext {
   readonly seed: number;
   /** the fold of this fit, when the caller runs folds (the runner and tune always give it) */
   readonly fold?: FoldView;
+  /**
+   * True when the caller will use the model only to predict `fold.test` (predict, probabilities,
+   * notes): no other rows, no saving, no importance. A learner may then predict those rows while
+   * it fits and keep no model (forest does, so its trees are never all in memory at once).
+   */
+  readonly predictOnly?: boolean;
 }
 
 export interface Model {

@@ -74,7 +74,8 @@ async function runGrowth(data: string, flags: GrowthFlags, io: Io): Promise<numb
   if (shard && (!flags.json || flags.json === '-' || flags.markdown || flags.html)) throw new UsageError('--shard: write the part with --json FILE (parts have no Markdown or HTML); then foldwise merge the parts');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
-  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
+  // the tasks run on worker threads (with --jobs > 1, and with --jobs 1 when signals are caught): numeric columns loaded into shared memory are not copied there
+  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}), ...(jobs > 1 || io.armStops ? { shared: true } : {}) });
   const missing = flags.missing !== undefined ? parseMissing(flags.missing) : DEFAULT_MISSING;
   let resumedNote = '';
   let disarm: (() => void) | undefined;

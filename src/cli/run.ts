@@ -124,10 +124,12 @@ async function runEval(data: string, flags: EvalFlags, io: Io): Promise<number> 
   if (shard && flags.predictions) throw new UsageError('--predictions with --shard: the part carries its predictions; give --predictions to foldwise merge');
   const commands = commandSetupOf(flags, io);
   const progress = progressFor(io, Boolean(flags.quiet));
-  const loaded = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}) });
-  // tasks in worker threads read the columns in shared memory: move them there once, so the
+  // tasks in worker threads read the columns in shared memory: the loader puts the numeric
+  // columns there as it reads, and shareTableInPlace moves the rest (coded columns) once, so the
   // table is not held twice (as loaded, and shared for the workers)
-  const table = jobs > 1 || io.armStops ? shareTableInPlace(loaded) : loaded;
+  const toWorkers = jobs > 1 || Boolean(io.armStops);
+  const loaded = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(progress ? { onProgress: progress.loading } : {}), ...(toWorkers ? { shared: true } : {}) });
+  const table = toWorkers ? shareTableInPlace(loaded) : loaded;
   if (flags.audit) progress?.phase('checking the data (quick audit; --no-audit skips it)');
   let resumedNote = '';
   let disarm: (() => void) | undefined;

@@ -108,7 +108,8 @@ async function runTune(data: string, flags: TuneFlags, io: Io): Promise<number> 
   const grid = counted.gridSize === null ? 'an unbounded space' : `a grid of ${counted.gridSize}`;
   const note = `foldwise: tune: ${counted.tried} candidate${counted.tried === 1 ? '' : 's'} ${counted.sampled ? 'sampled from' : 'in'} ${grid}; outer ${flags.plan}, inner ${flags.inner}\n`;
 
-  const table = await loadTable(sourceOf(data, io), loadOptionsOf(flags));
+  // with --jobs > 1 the search runs on worker threads: load the numeric columns into shared memory, so they are not copied there
+  const table = await loadTable(sourceOf(data, io), { ...loadOptionsOf(flags), ...(jobs > 1 ? { shared: true } : {}) });
   // the note comes once the data, target, plans and metrics are known to be usable, so that a
   // refused run prints its one error line only
   const problem = defineProblem(table, problemOptionsOf(flags));

@@ -9,6 +9,7 @@
 import { InputError } from '../errors.js';
 import { ByteDict, hashBytes } from './byte-dict.js';
 import { quoted } from './quote.js';
+import { type Alloc, PLAIN, trimmedF64 } from './alloc.js';
 
 /** A decimal number as text: optional sign, digits with an optional point, optional exponent. */
 export const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
@@ -110,9 +111,11 @@ export class ColumnBuilder {
     private readonly missingBytes: ByteDict,
     /** rows expected (from the file size), to size the buffers once */
     capacity = INITIAL,
+    /** where the numbers go (shared memory for a table bound for worker threads) */
+    private readonly alloc: Alloc = PLAIN,
   ) {
     this.numeric = !forced;
-    this.values = new Float64Array(forced ? 0 : Math.max(16, capacity));
+    this.values = forced ? new Float64Array(0) : alloc.f64(Math.max(16, capacity));
     if (forced) this.toDictionary(capacity);
   }
 
@@ -166,7 +169,7 @@ export class ColumnBuilder {
 
   private pushValue(v: number): void {
     if (this.length === this.values.length) {
-      const next = new Float64Array(Math.ceil(this.values.length * 1.5) + 16);
+      const next = this.alloc.f64(Math.ceil(this.values.length * 1.5) + 16);
       next.set(this.values);
       this.values = next;
     }
@@ -186,8 +189,7 @@ export class ColumnBuilder {
    * most 1/16 longer (no copy of the whole column at the end), a copy otherwise.
    */
   numericValues(): Float64Array {
-    if (this.values.length === this.length) return this.values;
-    return this.values.length - this.length <= this.length / 16 ? this.values.subarray(0, this.length) : this.values.slice(0, this.length);
+    return trimmedF64(this.alloc, this.values, this.length);
   }
 
   /** Frees the number buffer once a column ends categorical. */

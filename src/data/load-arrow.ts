@@ -9,6 +9,7 @@ import { makeVector, tableFromIPC, Type, type Data, type DataType, type Table as
 import { InputError } from '../errors.js';
 import { quoted } from './quote.js';
 import { TextCoder, type ColumnIn } from './typed-columns.js';
+import { type Alloc, PLAIN } from './alloc.js';
 
 const DAY_MS = 86_400_000;
 
@@ -46,8 +47,8 @@ const READING: Partial<Record<Kind, string>> = {
   timestamp: 'Arrow timestamp (days since 1970-01-01 UTC, the time as a fraction of a day)',
 };
 
-function numbersOf(name: string, column: string, chunks: readonly Data[], rows: number, kind: Kind): { values: Float64Array; big: boolean } {
-  const out = new Float64Array(rows).fill(NaN);
+function numbersOf(name: string, column: string, chunks: readonly Data[], rows: number, kind: Kind, alloc: Alloc): { values: Float64Array; big: boolean } {
+  const out = alloc.f64(rows).fill(NaN);
   let big = false;
   let at = 0;
   for (const d of chunks) {
@@ -129,7 +130,7 @@ function textsOf(name: string, column: string, chunks: readonly Data[], rows: nu
 }
 
 /** Parses a whole Arrow IPC file or stream held in memory. */
-export function readArrow(bytes: Uint8Array, name: string, missing: ReadonlySet<string>): { rows: number; columns: ColumnIn[] } {
+export function readArrow(bytes: Uint8Array, name: string, missing: ReadonlySet<string>, alloc: Alloc = PLAIN): { rows: number; columns: ColumnIn[] } {
   let table: ArrowTable;
   try {
     table = tableFromIPC(bytes);
@@ -142,7 +143,7 @@ export function readArrow(bytes: Uint8Array, name: string, missing: ReadonlySet<
       const chunks = table.getChildAt(j)?.data ?? [];
       const kind = kindOf(name, f.name, f.type);
       if (kind === 'text') return textsOf(name, f.name, chunks, rows, missing).column(f.name);
-      const { values, big } = numbersOf(name, f.name, chunks, rows, kind);
+      const { values, big } = numbersOf(name, f.name, chunks, rows, kind, alloc);
       return { kind: 'numeric', name: f.name, values, ...(READING[kind] ? { dateReading: READING[kind] } : {}), ...(big ? { bigIntegers: true } : {}) };
     });
     return { rows, columns };

@@ -24,6 +24,7 @@ import { CsvScanner, type ScanSink } from './csv-scan.js';
 import { readDates, type DateOrder } from './dates.js';
 import { quoted } from './quote.js';
 import type { CategoricalColumn, Column, NumericColumn, Table, TypeBreak } from './types.js';
+import { type Alloc, PLAIN, allocFor, trimmedI32 } from './alloc.js';
 
 export { isoDays } from './dates.js';
 export { quoted } from './quote.js';
@@ -41,6 +42,11 @@ export interface LoadOptions {
   readonly dateFormat?: DateOrder;
   /** called as bytes are read: bytes so far and the total (undefined when unknown, as for stdin) */
   readonly onProgress?: (bytes: number, total: number | undefined) => void;
+  /**
+   * put the numeric columns and the line numbers in SharedArrayBuffers (for a table bound for
+   * worker threads: src/data/alloc.ts); the values are the same
+   */
+  readonly shared?: boolean;
 }
 
 /** Where the CSV comes from: a file path, an already open byte stream (stdin), or text. */
@@ -197,11 +203,14 @@ function asBuffer(piece: Buffer | Uint8Array | string): Buffer {
 
 /** Row line numbers, growing as rows arrive. */
 class Lines {
-  data = new Int32Array(1024);
+  data: Int32Array;
   length = 0;
+  constructor(private readonly alloc: Alloc) {
+    this.data = alloc.i32(1024);
+  }
   push(v: number): void {
     if (this.length === this.data.length) {
-      const next = new Int32Array(Math.ceil(this.data.length * 1.5));
+      const next = this.alloc.i32(Math.ceil(this.data.length * 1.5));
       next.set(this.data);
       this.data = next;
     }
@@ -209,20 +218,20 @@ class Lines {
   }
   reserve(n: number): void {
     if (n > this.data.length) {
-      const next = new Int32Array(n);
+      const next = this.alloc.i32(n);
       next.set(this.data.subarray(0, this.length));
       this.data = next;
     }
   }
   view(): Int32Array {
-    return this.data.length - this.length <= this.length / 16 ? this.data.subarray(0, this.length) : this.data.slice(0, this.length);
+    return trimmedI32(this.alloc, this.data, this.length);
   }
 }
 
 /** The first pass: columns on the numeric path or in dictionary coding, and row lines. */
 class TableSink implements ScanSink {
   cols: ColumnBuilder[] = [];
-  readonly lines = new Lines();
+  readonly lines: Lines;
   /** rows expected, estimated from the first chunk and the file size */
   capacity = 1024;
   private readonly missingBytes = new ByteDict();
@@ -230,7 +239,9 @@ class TableSink implements ScanSink {
     private readonly name: string,
     private readonly forced: ReadonlySet<string>,
     private readonly missing: ReadonlySet<string>,
+    private readonly alloc: Alloc = PLAIN,
   ) {
+    this.lines = new Lines(alloc);
     for (const t of missing) {
       const b = Buffer.from(t, 'utf8');
       const h = hashBytes(b, 0, b.length);
@@ -242,7 +253,7 @@ class TableSink implements ScanSink {
     for (const f of this.forced) {
       if (!names.includes(f)) throw new InputError(`--categorical ${quoted(f)}: no such column in ${this.name}`);
     }
-    this.cols = names.map((n) => new ColumnBuilder(n, this.forced.has(n), this.missing, this.missingBytes, this.capacity));
+    this.cols = names.map((n) => new ColumnBuilder(n, this.forced.has(n), this.missing, this.missingBytes, this.capacity, this.alloc));
     this.lines.reserve(this.capacity);
   }
   cell(j: number, buf: Uint8Array, start: number, end: number): void {
@@ -257,7 +268,7 @@ class TableSink implements ScanSink {
 export async function loadCsv(source: CsvSource, options: LoadOptions = {}): Promise<Table> {
   const { delimiter, missing } = checkOptions(options);
   const { stream, name, size } = await openSource(source);
-  const sink = new TableSink(name, new Set(options.categorical ?? []), missing);
+  const sink = new TableSink(name, new Set(options.categorical ?? []), missing, allocFor(options.shared));
   const scanner = new CsvScanner(delimiter.charCodeAt(0), sink, name);
   const hash = createHash('sha256');
   const check = new ByteCheck(name);

@@ -9,6 +9,7 @@ import { compressors } from 'hyparquet-compressors';
 import { InputError } from '../errors.js';
 import { quoted } from './quote.js';
 import { TextCoder, type ColumnIn } from './typed-columns.js';
+import { type Alloc, PLAIN } from './alloc.js';
 
 const DAY_MS = 86_400_000;
 
@@ -36,7 +37,7 @@ const READING: Partial<Record<Kind, string>> = {
 };
 
 /** Parses a whole Parquet file held in memory. */
-export async function readParquet(bytes: Uint8Array, name: string, missing: ReadonlySet<string>): Promise<{ rows: number; columns: ColumnIn[] }> {
+export async function readParquet(bytes: Uint8Array, name: string, missing: ReadonlySet<string>, alloc: Alloc = PLAIN): Promise<{ rows: number; columns: ColumnIn[] }> {
   const buffer = bytes.byteOffset === 0 && bytes.byteLength === bytes.buffer.byteLength ? (bytes.buffer as ArrayBuffer) : (bytes.slice().buffer as ArrayBuffer);
   let metadata: FileMetaData;
   try {
@@ -55,7 +56,7 @@ export async function readParquet(bytes: Uint8Array, name: string, missing: Read
   }
   if (top.length !== (schema[0].num_children ?? 0) && !top.some((e) => e.num_children)) throw new InputError(`${name}: the Parquet schema is damaged (it lists more columns than it holds)`);
   const kinds = top.map((e) => kindOf(name, e));
-  const numbers = kinds.map((k) => (k === 'text' || k === 'boolean' ? undefined : new Float64Array(rows).fill(NaN)));
+  const numbers = kinds.map((k) => (k === 'text' || k === 'boolean' ? undefined : alloc.f64(rows).fill(NaN)));
   const texts = kinds.map((k) => (k === 'text' || k === 'boolean' ? new TextCoder(rows, missing) : undefined));
   const big = kinds.map(() => false);
   const index = new Map(top.map((e, j) => [e.name, j]));

@@ -14,6 +14,7 @@ import { readArrow } from './load-arrow.js';
 import { readParquet } from './load-parquet.js';
 import { typedTable } from './typed-columns.js';
 import type { Table } from './types.js';
+import { allocFor } from './alloc.js';
 
 export type DataFormat = 'csv' | 'parquet' | 'arrow';
 export const DATA_FORMATS: readonly DataFormat[] = ['csv', 'parquet', 'arrow'];
@@ -87,6 +88,7 @@ async function loadTyped(path: string, format: 'parquet' | 'arrow', options: Loa
   options.onProgress?.(bytes.length, bytes.length);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const missing = new Set((options.missing ?? DEFAULT_MISSING).map((t) => t.trim()));
-  const read = format === 'parquet' ? await readParquet(bytes, path, missing) : readArrow(bytes, path, missing);
-  return typedTable(path, sha256, read.rows, read.columns, { categorical: options.categorical, missing });
+  const alloc = allocFor(options.shared);
+  const read = format === 'parquet' ? await readParquet(bytes, path, missing, alloc) : readArrow(bytes, path, missing, alloc);
+  return typedTable(path, sha256, read.rows, read.columns, { categorical: options.categorical, missing, alloc });
 }

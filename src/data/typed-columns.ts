@@ -11,6 +11,7 @@ import { InputError } from '../errors.js';
 import { trimmed } from './column-build.js';
 import { quoted } from './quote.js';
 import type { CategoricalColumn, Column, NumericColumn, Table } from './types.js';
+import { type Alloc, PLAIN } from './alloc.js';
 
 /** A numeric column as read: values with NaN for missing. */
 export interface NumericIn {
@@ -77,7 +78,7 @@ export function typedTable(
   sha256: string,
   rows: number,
   read: readonly ColumnIn[],
-  options: { readonly categorical?: readonly string[]; readonly missing: ReadonlySet<string> },
+  options: { readonly categorical?: readonly string[]; readonly missing: ReadonlySet<string>; readonly alloc?: Alloc },
 ): Table {
   if (read.length === 0) throw new InputError(`${name}: has no columns`);
   if (rows === 0) throw new InputError(`${name}: has columns but no data rows`);
@@ -119,7 +120,7 @@ export function typedTable(
   const byName = new Map<string, Column>();
   for (const c of columns) byName.set(c.name, c);
   // a row's "line" is its 1-based row number: messages say "line N" for row N of the file
-  const lines = new Int32Array(rows);
+  const lines = (options.alloc ?? PLAIN).i32(rows);
   for (let r = 0; r < rows; r++) lines[r] = r + 1;
   return {
     source: name,

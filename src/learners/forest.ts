@@ -18,11 +18,15 @@
  * sends NaN to the left child (x <= threshold is taken as "not x > threshold").
  * Model extras: importance() (mean decrease in impurity, summing to 1), predictPrefix(X, k),
  * probabilitiesPrefix(X, k), treeSizes(); see cart/model.ts.
+ * When the runner says it will only predict the fold's test rows (ctx.predictOnly), the fit adds
+ * each tree's outputs for those rows as it grows and then forgets the tree (fitCartOnFold): the
+ * same predictions bit for bit, with one tree in memory instead of the forest (cart/fold-model.ts).
  */
-import type { FitContext, Learner, Matrix, ParamSpec, Params, Target } from '../learning.js';
+import type { FitContext, Learner, Matrix, Model, ParamSpec, Params, Target } from '../learning.js';
 import { MAX_BINS } from './cart/bins.js';
 import { parseFeatureCount } from './cart/feature-count.js';
-import { fitCart } from './cart/fit-trees.js';
+import { type CartSettings, fitCart, fitCartOnFold } from './cart/fit-trees.js';
+import { foldModel } from './cart/fold-model.js';
 import { partsFromJSON } from './cart/flat-forest.js';
 import { type CartModel, isCartModel, makeModel } from './cart/model.js';
 import { numberOption, readOptions, stringOption } from './cart/options.js';
@@ -100,28 +104,23 @@ export const forest: Learner = {
   params: FOREST_PARAMS,
   needsScaling: false,
   doc: 'random forest (Breiman 2001): bootstrap samples, random features at every split',
-  fit(X: Matrix, y: Target, params: Params, ctx: FitContext): CartModel {
+  fit(X: Matrix, y: Target, params: Params, ctx: FitContext): Model {
     const o = readOptions('forest', FOREST_PARAMS, params);
     const crit = stringOption(o, 'impurity');
-    return makeModel(
-      fitCart(
-        'forest',
-        X,
-        y,
-        {
-          trees: numberOption(o, 'trees'),
-          depth: numberOption(o, 'depth'),
-          minLeaf: numberOption(o, 'min-leaf'),
-          features: stringOption(o, 'features'),
-          impurity: crit === 'entropy' ? 'entropy' : 'gini',
-          bins: numberOption(o, 'bins'),
-          bootstrap: true,
-          sample: stringOption(o, 'sample'),
-          rebalance: stringOption(o, 'rebalance'),
-        },
-        ctx,
-      ),
-    );
+    const settings: CartSettings = {
+      trees: numberOption(o, 'trees'),
+      depth: numberOption(o, 'depth'),
+      minLeaf: numberOption(o, 'min-leaf'),
+      features: stringOption(o, 'features'),
+      impurity: crit === 'entropy' ? 'entropy' : 'gini',
+      bins: numberOption(o, 'bins'),
+      bootstrap: true,
+      sample: stringOption(o, 'sample'),
+      rebalance: stringOption(o, 'rebalance'),
+    };
+    // the runner only predicts the fold's test rows: predict them tree by tree, keep no trees
+    if (ctx.predictOnly && ctx.fold) return foldModel('forest', fitCartOnFold('forest', X, y, settings, ctx, ctx.fold.test), ctx.fold);
+    return makeModel(fitCart('forest', X, y, settings, ctx));
   },
   load(json: unknown): CartModel {
     return makeModel(partsFromJSON(json, 'forest'));

@@ -244,19 +244,20 @@ export function lazyPrep(problem: Problem, prep: FittedPrep, idx: Int32Array, sc
       if (!data) data = prepBlock(problem, prep, idx, 0, idx.length, scale);
       return data;
     },
-    column(j: number): Float64Array {
+    column(j: number, into?: Float64Array): Float64Array {
       if (!Number.isInteger(j) || j < 0 || j >= prep.width) throw new RangeError(`column ${j} of a matrix of ${prep.width} columns`);
       const f = owner[j];
       const pc = prep.columns[f];
       const n = idx.length;
+      if (into !== undefined && into.length !== n) throw new RangeError(`a column buffer of ${into.length} values for a matrix of ${n} rows`);
       if (pc.kind !== 'categorical') {
-        const out = new Float64Array(n);
+        const out = into ?? new Float64Array(n);
         writeColumn(problem, prep, f, idx, 0, n, scale, out, 1, 0);
         return out;
       }
       // one level's indicator: write the column's slots into a narrow block, keep slot j
       const w = pc.levels.length;
-      const out = new Float64Array(n);
+      const out = into ?? new Float64Array(n);
       const chunk = 4096;
       const tmp = new Float64Array(Math.min(n, chunk) * w);
       for (let s = 0; s < n; s += chunk) {

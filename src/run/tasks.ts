@@ -183,7 +183,9 @@ function runTask(ctx: TaskContext, t: TaskSpec, split: SplitData): TaskResult {
   const fold = split.view(f ? foldLabel(f) : 'final', c.learner.needsScaling);
   const t0 = performance.now();
   try {
-    const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed, fold });
+    // without --importance the model only predicts this split's test rows: a learner may do that as it fits (forest)
+    const predictOnly = !(ctx.importance && f);
+    const model = c.learner.fit(Xtrain, subsetTarget(ctx.problem.target, split.train), c.params, { rng: createRng(seed), seed, fold, predictOnly });
     const t1 = performance.now();
     const predicted = model.predict(Xtest);
     const probs = model.probabilities?.(Xtest);

@@ -124,6 +124,20 @@ describe.each([
       ['x', 'numeric'], ['count', 'numeric'], ['big', 'numeric'], ['grade', 'categorical'], ['ok', 'categorical'], ['when', 'numeric'], ['stamp', 'numeric'],
     ]);
   });
+  it('with shared: true puts the numeric columns and lines in shared memory, with the same values (for worker threads)', async () => {
+    const plain = await loadTable({ path });
+    const shared = await loadTable({ path }, { shared: true });
+    const numeric = shared.columns.filter((c): c is NumericColumn => c.kind === 'numeric');
+    expect(numeric.map((c) => c.name)).toEqual(['x', 'count', 'big', 'when', 'stamp']);
+    for (const c of numeric) {
+      expect(c.values.buffer).toBeInstanceOf(SharedArrayBuffer);
+      expect(Array.from(c.values)).toEqual(Array.from(num(plain, c.name).values));
+    }
+    expect(shared.lines.buffer).toBeInstanceOf(SharedArrayBuffer);
+    expect(Array.from(shared.lines)).toEqual(Array.from(plain.lines));
+    expect(num(plain, 'x').values.buffer).not.toBeInstanceOf(SharedArrayBuffer);
+  });
+
   it('applies --categorical and --missing as for a CSV', async () => {
     const t = await loadTable({ path }, { categorical: ['count', 'when'], missing: ['', 'b'] });
     expect(textsOf(cat(t, 'count'))).toEqual(['3', '7', null, '-12', '0', '2147483647']);

@@ -137,6 +137,35 @@ describe('numeric fast path and the switch to dictionary coding', () => {
   });
 });
 
+describe('loading into shared memory (shared: true, for worker threads)', () => {
+  // 30,000 rows from a stream of small chunks (no file size, so the buffers grow as rows come),
+  // a column that switches to coded levels, one of missing cells only, and a date column
+  const N = 30_000;
+  const rows = Array.from({ length: N }, (_, i) => `${(i * 0.37) % 13},${i === 20_000 ? 'word' : i},,2024-01-${String((i % 28) + 1).padStart(2, '0')},${i % 3}`);
+  const csv = `a,b,gone,when,y\n${rows.join('\n')}\n`;
+  it('gives the same table, with its numeric columns and lines in SharedArrayBuffers', async () => {
+    const plain = await loadCsv({ stream: chunked(Buffer.from(csv), 4096), name: 'stdin' });
+    const shared = await loadCsv({ stream: chunked(Buffer.from(csv), 4096), name: 'stdin' }, { shared: true });
+    expect(shared.columns.map((c) => c.kind)).toEqual(plain.columns.map((c) => c.kind));
+    expect(shared.columns.map((c) => c.kind)).toEqual(['numeric', 'categorical', 'categorical', 'numeric', 'numeric']);
+    for (const c of shared.columns) {
+      const p = plain.byName.get(c.name)!;
+      if (c.kind === 'numeric' && p.kind === 'numeric') {
+        expect(c.values.length).toBe(N);
+        expect(Array.from(c.values)).toEqual(Array.from(p.values));
+        // a date column is rebuilt from its levels in ordinary memory (moved to shared memory later, by shareTableInPlace)
+        if (!c.dates) expect(c.values.buffer).toBeInstanceOf(SharedArrayBuffer);
+      } else if (c.kind === 'categorical' && p.kind === 'categorical') {
+        expect(c.levels).toEqual(p.levels);
+        expect(Array.from(c.codes)).toEqual(Array.from(p.codes));
+      }
+    }
+    expect(shared.lines.buffer).toBeInstanceOf(SharedArrayBuffer);
+    expect(Array.from(shared.lines)).toEqual(Array.from(plain.lines));
+    expect(plain.lines.buffer).not.toBeInstanceOf(SharedArrayBuffer);
+  });
+});
+
 describe('the byte scanner', () => {
   it('gives the same table whatever the chunk boundaries (quotes, CRLF, multi-byte characters)', async () => {
     const csv = 'a,b,c\r\n"x, ""y""\r\nz",1,é\r\n"",2,"ü,"\r\nplain,3,"a""b"\r\n"end""",4,x\r\n';

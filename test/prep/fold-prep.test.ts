@@ -100,7 +100,14 @@ describe('matrices made on demand (lazyPrep) equal the eager ones (applyPrep)', 
       for (let j = 0; j < eager.cols; j++) {
         const want = Array.from({ length: eager.rows }, (_, i) => eager.data[i * eager.cols + j]);
         expect(Array.from(matrixColumn(lazy, j))).toEqual(want);
+        // into a reused buffer holding the last column's values (and junk): every cell rewritten
+        const buffer = new Float64Array(eager.rows).fill(j === 0 ? 99 : NaN);
+        if (j > 0) matrixColumn(lazy, j - 1, buffer);
+        expect(matrixColumn(lazy, j, buffer)).toBe(buffer);
+        expect(Array.from(buffer)).toEqual(want);
+        expect(Array.from(matrixColumn(eager, j, new Float64Array(eager.rows).fill(7)))).toEqual(want);
       }
+      expect(() => matrixColumn(lazy, 0, new Float64Array(eager.rows + 1))).toThrow(RangeError);
       expect(Array.from(matrixBlock(lazy, 2, 5))).toEqual(Array.from(eager.data.subarray(2 * eager.cols, 5 * eager.cols)));
       expect(Array.from(lazy.data)).toEqual(Array.from(eager.data));
     }

@@ -23,7 +23,7 @@ import { binMatrix } from './bins.js';
 import { resolveFeatureCount } from './feature-count.js';
 import { resolveSampleSize } from './sample-size.js';
 import { classWeights } from '../class-balance.js';
-import { type CartKind, type FlatForestParts, finishForest } from './flat-forest.js';
+import { type CartKind, type FlatForestParts, addTreeLeaves, finishForest } from './flat-forest.js';
 import { type Impurity, type GrowTarget, TreeGrower } from './grow.js';
 import { NODE_BYTES, NodeStore } from './node-store.js';
 import { formatBytes, memoryBudget, modelTooLarge } from '../memory-budget.js';
@@ -73,7 +73,19 @@ function tooLarge(kind: CartKind, trees: number, need: string, budget: number): 
   return modelTooLarge(`${kind}: trees=${trees}`, `${need} for the trees alone`, budget, 'ask for fewer trees');
 }
 
-export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext): FlatForestParts {
+interface Grown {
+  readonly classCount: number;
+  readonly settings: Map<string, number | string>;
+  readonly store: NodeStore;
+}
+
+/**
+ * The per-tree loop shared by fitCart and fitCartOnFold: grows the trees in order into one
+ * NodeStore and calls `afterTree(store, t)` after tree t. With `oneAtATime` the caller clears the
+ * store after reading each tree, so only the "at least one leaf per tree" check of the whole
+ * forest's memory applies to the model kept, and none to this loop.
+ */
+function growTrees(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext, oneAtATime: boolean, afterTree?: (store: NodeStore, t: number) => void): Grown {
   const classCount = checkTrainingData(kind, X, y);
   const n = X.rows;
   const p = X.cols;
@@ -102,7 +114,7 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
   const budget = memoryBudget();
   const leafBytes = classCount * 8;
   const atLeast = s.trees * (NODE_BYTES + leafBytes);
-  if (atLeast > budget) throw tooLarge(kind, s.trees, `at least ${formatBytes(atLeast)} (one leaf per tree)`, budget);
+  if (!oneAtATime && atLeast > budget) throw tooLarge(kind, s.trees, `at least ${formatBytes(atLeast)} (one leaf per tree)`, budget);
   const store = new NodeStore(p);
   const weights = new Float64Array(n);
   const rows = new Int32Array(n);
@@ -121,11 +133,12 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     }
     if (cw && y.task === 'classification') for (let k = 0; k < m; k++) weights[rows[k]] *= cw[y.codes[rows[k]]];
     grower.grow(rows.subarray(0, m), weights, rng, store);
-    if (t === 0 && s.trees > 1) {
+    if (!oneAtATime && t === 0 && s.trees > 1) {
       const estimate = s.trees * store.bytes();
       if (estimate > budget) throw tooLarge(kind, s.trees, `about ${formatBytes(estimate)} (${s.trees} trees the size of the first, ${store.count} nodes)`, budget);
       store.expect(s.trees - 1);
     }
+    afterTree?.(store, t);
   }
 
   const settings = new Map<string, number | string>([
@@ -142,5 +155,43 @@ export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, c
     settings.set('sample', s.sample ?? '1');
     settings.set('drawsPerTree', draws);
   }
+  return { classCount, settings, store };
+}
+
+export function fitCart(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext): FlatForestParts {
+  const { classCount, settings, store } = growTrees(kind, X, y, s, ctx, false);
   return finishForest(kind, y.task, classCount, settings, store);
+}
+
+/** What fitCartOnFold leaves: the test rows' mean leaf outputs and the size of the largest tree. */
+export interface FoldOutputs {
+  readonly task: Target['task'];
+  readonly classCount: number;
+  /** classification: row-major rows x classes probabilities; regression: one value per row */
+  readonly outputs: Float64Array;
+  /** nodes of the largest tree, the most the store held at once */
+  readonly largestTree: number;
+  /** nodes the store had room for at the end (its arrays grow by doubling as a tree needs) */
+  readonly nodeRoom: number;
+}
+
+/**
+ * Grows the same trees as fitCart and adds each tree's leaf outputs for the rows of `test` as soon
+ * as it is grown, then forgets the tree: memory holds one tree, not the forest. The outputs are
+ * divided by the tree count at the end, as probaPrefix and predictPrefixOf divide the sums, and
+ * each sum adds the trees in the same order, so the result is bit for bit what the fitted
+ * forest predicts for `test`.
+ */
+export function fitCartOnFold(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext, test: Matrix): FoldOutputs {
+  if (test.cols !== X.cols) throw new InputError(`${kind}: the test rows have ${test.cols} features, the training rows ${X.cols}`);
+  const width = y.task === 'classification' ? y.classes.length : 1;
+  const outputs = new Float64Array(test.rows * width);
+  let largestTree = 0;
+  const { classCount, store } = growTrees(kind, X, y, s, ctx, true, (store) => {
+    largestTree = Math.max(largestTree, store.count);
+    addTreeLeaves(store, store.roots[0], test, width, outputs);
+    store.clear();
+  });
+  for (let i = 0; i < outputs.length; i++) outputs[i] /= s.trees;
+  return { task: y.task, classCount, outputs, largestTree, nodeRoom: store.feature.length };
 }

@@ -122,6 +122,54 @@ function sumLeaves(parts: FlatForestParts, X: Matrix, trees: number, width: numb
   return out;
 }
 
+/** The arrays of stored trees that a prediction reads: a finished forest's parts or a NodeStore. */
+export type TreeArrays = Pick<FlatForestParts, 'feature' | 'threshold' | 'left' | 'right' | 'offset' | 'values'>;
+
+/**
+ * Adds one tree's leaf outputs for every row of X to `out` (row-major rows x width), in blocks
+ * of rows as sumLeaves reads them. Called for trees 0, 1, ... in turn, each output adds the trees
+ * in the same order as sumLeaves, so the sums are bit for bit the same.
+ */
+export function addTreeLeaves(nodes: TreeArrays, root: number, X: Matrix, width: number, out: Float64Array): void {
+  const { feature, threshold, left, right, offset, values } = nodes;
+  const n = X.rows;
+  const p = X.cols;
+  for (let start = 0; start < n; start += PREDICT_BLOCK) {
+    const end = Math.min(n, start + PREDICT_BLOCK);
+    const x = matrixBlock(X, start, end);
+    for (let i = start; i < end; i++) {
+      const base = (i - start) * p;
+      let node = root;
+      let f = feature[node];
+      while (f >= 0) {
+        node = x[base + f] > threshold[node] ? right[node] : left[node];
+        f = feature[node];
+      }
+      const o = offset[node];
+      if (width === 1) out[i] += values[o];
+      else for (let k = 0; k < width; k++) out[i * width + k] += values[o + k];
+    }
+  }
+}
+
+/** The most probable class of each row of row-major rows x C probabilities (lowest code on a tie). */
+export function mostProbable(probs: Float64Array, rows: number, C: number): Int32Array {
+  const codes = new Int32Array(rows);
+  for (let i = 0; i < rows; i++) {
+    let bestK = 0;
+    let bestP = -1;
+    for (let k = 0; k < C; k++) {
+      const v = probs[i * C + k];
+      if (v > bestP) {
+        bestP = v;
+        bestK = k;
+      }
+    }
+    codes[i] = bestK;
+  }
+  return codes;
+}
+
 /** Class probabilities from the first `trees` trees (classification). */
 export function probaPrefix(parts: FlatForestParts, X: Matrix, trees: number): Float64Array {
   checkMatrix(parts, X);
@@ -140,22 +188,7 @@ export function predictPrefixOf(parts: FlatForestParts, X: Matrix, trees: number
     for (let i = 0; i < out.length; i++) out[i] /= trees;
     return out;
   }
-  const C = parts.classCount;
-  const probs = probaPrefix(parts, X, trees);
-  const codes = new Int32Array(X.rows);
-  for (let i = 0; i < X.rows; i++) {
-    let bestK = 0;
-    let bestP = -1;
-    for (let k = 0; k < C; k++) {
-      const v = probs[i * C + k];
-      if (v > bestP) {
-        bestP = v;
-        bestK = k;
-      }
-    }
-    codes[i] = bestK;
-  }
-  return codes;
+  return mostProbable(probaPrefix(parts, X, trees), X.rows, parts.classCount);
 }
 
 export function partsToJSON(parts: FlatForestParts): Record<string, unknown> {

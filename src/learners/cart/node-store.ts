@@ -67,6 +67,16 @@ export class NodeStore {
     this.reserve(margin(this.count), margin(this.valueCount));
   }
 
+  /**
+   * Forgets every stored tree and keeps the arrays' room, for a forest that predicts each tree's
+   * rows as it grows and keeps no model (fitCartOnFold). The importance sums are kept.
+   */
+  clear(): void {
+    this.count = 0;
+    this.valueCount = 0;
+    this.roots.length = 0;
+  }
+
   /** Bytes of the nodes and leaf values stored so far. */
   bytes(): number {
     return this.count * NODE_BYTES + this.valueCount * 8;
