@@ -65,6 +65,34 @@ describe('forest with predictOnly (penguins, vega-datasets)', () => {
     }
   }
 
+  it('predicts test rows coded under the training cuts exactly as the raw thresholds do: NaN, infinities, cut points, values beyond the range', () => {
+    const { train, test, y } = cases[0];
+    const full = forest.fit(train, y, { trees: 30 }, { rng: createRng(4), seed: 9 });
+    if (!isCartModel(full)) throw new Error('a full forest fit is a CartModel');
+    // rows at the edges of the codes: every stored threshold itself (x = t goes left, x just above
+    // goes right), NaN (left, as x > t is false), both infinities, and values beyond the data
+    const t = full.toJSON() as { threshold: number[]; feature: number[] };
+    const odd: number[][] = [];
+    for (let k = 0; k < t.feature.length && odd.length < 400; k++) {
+      const f = t.feature[k];
+      if (f < 0) continue;
+      const row = Array.from(test.data.subarray(0, 4));
+      row[f] = t.threshold[k];
+      odd.push(row);
+      const up = Array.from(row);
+      up[f] = t.threshold[k] + Math.abs(t.threshold[k]) * 1e-15 + 1e-300; // a few ulps above
+      odd.push(up);
+    }
+    expect(odd.length).toBeGreaterThan(100);
+    for (const v of [NaN, Infinity, -Infinity, 1e300, -1e300]) for (let j = 0; j < 4; j++) odd.push(COLS.map((_, c) => (c === j ? v : test.data[c])));
+    const edge = matrix(odd);
+    const fold = forest.fit(train, y, { trees: 30 }, { rng: createRng(4), seed: 9, fold: foldOf(edge), predictOnly: true });
+    const pa = full.probabilities!(edge);
+    const pb = fold.probabilities!(edge);
+    expect(pb.length).toBe(edge.rows * (y.task === 'classification' ? y.classes.length : 0));
+    expect(Buffer.from(pb.buffer).equals(Buffer.from(pa.buffer))).toBe(true);
+  });
+
   it('holds one tree at a time: its largest store is the largest tree, not the forest', () => {
     const { train, test, y } = cases[0];
     const s = { trees: 30, depth: 32, minLeaf: 1, features: 'breiman', impurity: 'gini' as const, bins: 255, bootstrap: true, sample: '1' };

@@ -113,3 +113,23 @@ export function binMatrix(X: Matrix, maxBins: number, learner: string): BinnedMa
   }
   return { rows: n, cols: p, codes, cuts };
 }
+
+/**
+ * Row-major codes of every row of X under cuts found on other rows (a fold's test rows under
+ * its training cuts): the code of row i, feature j is at i * cols + j. A tree's split
+ * `x > cuts[j][k]` is then `code > k` exactly, because the cuts ascend strictly (code(x) > k
+ * means at least k + 1 cuts lie below x, that is cuts[k] < x). NaN gets code 0, so it goes to the
+ * left child as it does against the raw threshold (NaN > t is false); +Infinity gets the top code.
+ */
+export function codeRows(X: Matrix, cuts: readonly Float64Array[]): Uint8Array {
+  const { rows: n, cols: p } = X;
+  if (cuts.length !== p) throw new RangeError(`${cuts.length} features of cut points for a matrix of ${p} columns`);
+  const out = new Uint8Array(n * p);
+  const buffer = new Float64Array(n);
+  for (let j = 0; j < p; j++) {
+    const column = matrixColumn(X, j, buffer);
+    const c = cuts[j];
+    for (let i = 0; i < n; i++) out[i * p + j] = codeOf(c, column[i]);
+  }
+  return out;
+}

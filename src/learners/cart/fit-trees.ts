@@ -19,11 +19,11 @@
 import { InputError } from '../../errors.js';
 import { type Rng, createRng, deriveSeed } from '../../rng.js';
 import type { FitContext, Matrix, Target } from '../../learning.js';
-import { binMatrix } from './bins.js';
+import { type BinnedMatrix, binMatrix, codeOf, codeRows } from './bins.js';
 import { resolveFeatureCount } from './feature-count.js';
 import { resolveSampleSize } from './sample-size.js';
 import { classWeights } from '../class-balance.js';
-import { type CartKind, type FlatForestParts, addTreeLeaves, finishForest } from './flat-forest.js';
+import { type CartKind, type FlatForestParts, addTreeLeavesOnCodes, finishForest } from './flat-forest.js';
 import { type Impurity, type GrowTarget, TreeGrower } from './grow.js';
 import { NODE_BYTES, NodeStore } from './node-store.js';
 import { formatBytes, memoryBudget, modelTooLarge } from '../memory-budget.js';
@@ -85,7 +85,15 @@ interface Grown {
  * store after reading each tree, so only the "at least one leaf per tree" check of the whole
  * forest's memory applies to the model kept, and none to this loop.
  */
-function growTrees(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: FitContext, oneAtATime: boolean, afterTree?: (store: NodeStore, t: number) => void): Grown {
+function growTrees(
+  kind: CartKind,
+  X: Matrix,
+  y: Target,
+  s: CartSettings,
+  ctx: FitContext,
+  oneAtATime: boolean,
+  afterTree?: (store: NodeStore, t: number, binned: BinnedMatrix) => void,
+): Grown {
   const classCount = checkTrainingData(kind, X, y);
   const n = X.rows;
   const p = X.cols;
@@ -138,7 +146,7 @@ function growTrees(kind: CartKind, X: Matrix, y: Target, s: CartSettings, ctx: F
       if (estimate > budget) throw tooLarge(kind, s.trees, `about ${formatBytes(estimate)} (${s.trees} trees the size of the first, ${store.count} nodes)`, budget);
       store.expect(s.trees - 1);
     }
-    afterTree?.(store, t);
+    afterTree?.(store, t, binned);
   }
 
   const settings = new Map<string, number | string>([
@@ -187,9 +195,19 @@ export function fitCartOnFold(kind: CartKind, X: Matrix, y: Target, s: CartSetti
   const width = y.task === 'classification' ? y.classes.length : 1;
   const outputs = new Float64Array(test.rows * width);
   let largestTree = 0;
-  const { classCount, store } = growTrees(kind, X, y, s, ctx, true, (store) => {
+  // the test rows are coded once under the training cuts (not rebuilt as raw rows per tree)
+  let testCodes: Uint8Array | undefined;
+  let bins = new Int32Array(0);
+  const { classCount, store } = growTrees(kind, X, y, s, ctx, true, (store, _t, binned) => {
     largestTree = Math.max(largestTree, store.count);
-    addTreeLeaves(store, store.roots[0], test, width, outputs);
+    testCodes ??= codeRows(test, binned.cuts);
+    if (bins.length < store.count) bins = new Int32Array(Math.max(store.count, 2 * bins.length));
+    // a split's bin: its threshold is cuts[f][k], and codeOf counts the k cuts strictly below it
+    for (let k = 0; k < store.count; k++) {
+      const f = store.feature[k];
+      if (f >= 0) bins[k] = codeOf(binned.cuts[f], store.threshold[k]);
+    }
+    addTreeLeavesOnCodes(store, store.roots[0], bins, testCodes, test.rows, test.cols, width, outputs);
     store.clear();
   });
   for (let i = 0; i < outputs.length; i++) outputs[i] /= s.trees;

@@ -126,29 +126,26 @@ function sumLeaves(parts: FlatForestParts, X: Matrix, trees: number, width: numb
 export type TreeArrays = Pick<FlatForestParts, 'feature' | 'threshold' | 'left' | 'right' | 'offset' | 'values'>;
 
 /**
- * Adds one tree's leaf outputs for every row of X to `out` (row-major rows x width), in blocks
- * of rows as sumLeaves reads them. Called for trees 0, 1, ... in turn, each output adds the trees
- * in the same order as sumLeaves, so the sums are bit for bit the same.
+ * Adds one tree's leaf outputs for every row to `out` (row-major rows x width), reading the rows
+ * as codes under the training cuts (bins.ts codeRows, row-major rows x cols) and each split as its
+ * bin: node k sends a row right when its code exceeds `bins[k]`, where the stored threshold is
+ * cuts[feature][bins[k]]. That is the comparison x > threshold exactly (codeRows), so for trees
+ * 0, 1, ... in turn each output adds the same leaf values in the same order as sumLeaves: the
+ * sums are bit for bit the same, without rebuilding the raw rows for every tree.
  */
-export function addTreeLeaves(nodes: TreeArrays, root: number, X: Matrix, width: number, out: Float64Array): void {
-  const { feature, threshold, left, right, offset, values } = nodes;
-  const n = X.rows;
-  const p = X.cols;
-  for (let start = 0; start < n; start += PREDICT_BLOCK) {
-    const end = Math.min(n, start + PREDICT_BLOCK);
-    const x = matrixBlock(X, start, end);
-    for (let i = start; i < end; i++) {
-      const base = (i - start) * p;
-      let node = root;
-      let f = feature[node];
-      while (f >= 0) {
-        node = x[base + f] > threshold[node] ? right[node] : left[node];
-        f = feature[node];
-      }
-      const o = offset[node];
-      if (width === 1) out[i] += values[o];
-      else for (let k = 0; k < width; k++) out[i * width + k] += values[o + k];
+export function addTreeLeavesOnCodes(nodes: TreeArrays, root: number, bins: Int32Array, codes: Uint8Array, rows: number, cols: number, width: number, out: Float64Array): void {
+  const { feature, left, right, offset, values } = nodes;
+  for (let i = 0; i < rows; i++) {
+    const base = i * cols;
+    let node = root;
+    let f = feature[node];
+    while (f >= 0) {
+      node = codes[base + f] > bins[node] ? right[node] : left[node];
+      f = feature[node];
     }
+    const o = offset[node];
+    if (width === 1) out[i] += values[o];
+    else for (let k = 0; k < width; k++) out[i * width + k] += values[o + k];
   }
 }
 
