@@ -18,6 +18,7 @@ import { runPool } from './pool.js';
 import { prepareRun, withAudit, type EvaluateOptions } from './prepare.js';
 import { shardTasks, type ShardSpec } from './shard.js';
 import { runTasks, taskList, type TaskResult, type TaskSpec } from './tasks.js';
+import { shareRunInPlace, type SharedRun } from './share-run.js';
 
 /**
  * A run stopped on request: exit code 128 + the signal's number, as shells report a process
@@ -77,6 +78,7 @@ export async function execute(table: Table, options: EvaluateOptions, exec: Exec
     identity,
     classification: prepared.problem.target.task === 'classification',
     runHere: (tasks, done, stop) => runTasks(prepared, tasks, done, stop),
+    share: () => shareRunInPlace(prepared.problem, { plan: prepared.plan, stratified: prepared.stratified }),
   }, exec);
   const frame = withReadSettings(frameOf(prepared), exec.read);
   const withKeep = (records: TaskRecord[]): TaskRecord[] => (keep.length ? records.map((r) => ({ ...r, keep: keptText(table, keep, r.rows!) })) : records);
@@ -101,6 +103,8 @@ export interface TaskSet<R extends { readonly id: string; readonly failed?: stri
   readonly codec?: ResultCodec<R>;
   /** the worker module for --jobs (default: the runner's, which runs eval's tasks) */
   readonly worker?: URL;
+  /** moves the run's problem and plan into shared memory for the workers (eval's; absent: each worker builds its own) */
+  share?(): SharedRun;
 }
 
 /**
@@ -143,7 +147,7 @@ export async function runTaskSet<R extends { readonly id: string; readonly faile
       `${journal ? `; ${results.size} of ${mine.length} tasks are in the journal ${journal.path}: rerun the same command to resume` : ''}${reason ? ` (${String(reason)})` : ''}`;
     if ((jobs > 1 || exec.isolate) && todo.length > 0) {
       const stopped = (reason: unknown): Error => new InterruptedError(`interrupted${where(reason)}`, reason);
-      await runPool<R>(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands, exec.stop, stopped, set.worker);
+      await runPool<R>(table, options, todo, jobs, done, exec.stopRequested, exec.baseDir ?? '/', exec.commands, exec.stop, stopped, set.worker, set.share?.());
     } else {
       // one split at a time, yielding to the event loop in between so that a SIGINT handler
       // (which only runs when the loop gets control) can ask the run to stop

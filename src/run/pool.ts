@@ -15,6 +15,7 @@ import { FoldwiseError } from '../errors.js';
 import type { CommandSetup } from '../learners/index.js';
 import type { EvaluateOptions } from './prepare.js';
 import { shareTable } from './share.js';
+import type { SharedRun } from './share-run.js';
 import type { TaskResult, TaskSpec } from './tasks.js';
 
 /**
@@ -57,6 +58,8 @@ export async function runPool<R = TaskResult>(
   stopError: StopError = (reason) => new FoldwiseError(`stopped (${String(reason)})`, 130),
   /** the worker module (default: the runner's worker.js, which runs eval's tasks) */
   script?: URL,
+  /** the problem and plan already built here, in shared memory, for the workers to reuse */
+  run?: SharedRun,
 ): Promise<R[]> {
   const queue = batches(tasks);
   const results: R[] = [];
@@ -90,7 +93,7 @@ export async function runPool<R = TaskResult>(
         w.postMessage(batch);
       };
       for (let i = 0; i < count; i++) {
-        const w = new Worker(workerUrl(script), { workerData: { table: shared, options, baseDir, commands } });
+        const w = new Worker(workerUrl(script), { workerData: { table: shared, options, baseDir, commands, ...(run ? { run } : {}) } });
         workers.push(w);
         running++;
         w.on('message', (msg: WorkerMessage<R>) => {

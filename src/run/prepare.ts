@@ -17,6 +17,7 @@ import type { Impute } from '../prep/fold-prep.js';
 import { quickSuspects } from '../audit/quick-audit.js';
 import type { ReportAudit } from '../model/report.js';
 import { planFor } from '../plans/plan-for.js';
+import { problemFromShared, type SharedRun } from './share-run.js';
 import { checkSliceBins, checkSliceNames, DEFAULT_SLICE_BINS } from '../slices/slice-columns.js';
 import { checkImportanceRepeats, DEFAULT_IMPORTANCE_REPEATS, importanceInputs, type ImportancePlan } from './importance.js';
 import type { Candidate, OnFoldError, TaskContext } from './tasks.js';
@@ -151,17 +152,21 @@ export function withAudit(prepared: Prepared, options: EvaluateOptions): Prepare
   return { ...prepared, audit: { ran: true, suspects } };
 }
 
-/** Validates the options against the table and builds the plan; fits nothing. */
-export function prepareRun(table: Table, options: EvaluateOptions): Prepared {
+/**
+ * Validates the options against the table and builds the plan; fits nothing. A worker thread
+ * passes the problem and plan the main thread built and shared (share-run.ts) instead of
+ * deriving its own copies; everything else is checked and resolved the same way.
+ */
+export function prepareRun(table: Table, options: EvaluateOptions, shared?: SharedRun): Prepared {
   const seed = checkSeed(options.seed ?? DEFAULT_SEED);
-  const problem = defineProblem(table, options);
+  const problem = shared ? problemFromShared(table, shared.problem) : defineProblem(table, options);
   const planSpec = typeof options.plan === 'object' ? options.plan : parsePlan(options.plan ?? DEFAULT_PLAN);
   const costs = readRunCosts(problem, options.costs, options.metrics);
   const metrics = resolveMetrics(problem, options.metrics, costs);
   const candidates = resolveCandidates(problem, options, metrics[0].name);
   const impute = options.impute ?? 'median';
   if (options.final && planSpec.kind !== 'holdout') throw new UsageError(`--final: only a holdout plan has a final part (the plan is ${formatPlan(planSpec)})`);
-  const { plan, stratified } = planFor(problem, planSpec, options.stratify, seed);
+  const { plan, stratified } = shared ? shared.planned : planFor(problem, planSpec, options.stratify, seed);
   if (!options.importance && (options.importanceRepeats !== undefined || options.importanceClusters)) {
     throw new UsageError(`${options.importanceClusters ? '--importance-clusters' : '--importance-repeats'}: give --importance too`);
   }
