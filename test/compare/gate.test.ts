@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { gateReports, DEFAULT_ALPHA, DEFAULT_MAX_DROP, GATE_SCHEMA } from '../../src/compare/gate.js';
 import { NotComparableError } from '../../src/compare/match-reports.js';
 import { InputError, UsageError } from '../../src/errors.js';
-import { foldsOf, learnerOf, loaded, reportOf, type FoldOptions } from './report-fixture.js';
+import { foldsOf, learnerOf, loaded, reportOf, sliceFoldsOf, sliceLearnerOf, sliceOf, type FoldOptions } from './report-fixture.js';
 
 // Hand derivation (as in gate-rule.test.ts): previous b and current c = b - d on 5 folds of
 // 20 test / 80 training rows, d = 0.03 0.01 0.02 0.04 0.00: mean drop 0.02, s_d^2 = 0.00025,
@@ -111,6 +111,24 @@ describe('gateReports: the paired rule on the same folds', () => {
     // --max-drop 0 guards no size: no warning; a max-drop above the mdd: none either
     expect(gateReports(prev(), cur()).warnings).toEqual([]);
     expect(gateReports(prev(), cur(), { maxDrop: mdd + 0.01 }).warnings).toEqual([]);
+    // the mdd does not depend on --max-drop: at max-drop = mdd exactly the gate sees its size
+    const same = gateReports(prev(), cur(), { maxDrop: mdd });
+    expect(same.detectable!.mdd).toBe(mdd);
+    expect(same.warnings).toEqual([]);
+  });
+
+  it('writes a figure of exactly 1 with 3 decimals', () => {
+    // scores in units 25 times larger: the mdd is 25 times the one above, between 0.5 and 1
+    const big = (xs: readonly number[]) => xs.map((x) => 25 * x);
+    const reg = (scores: readonly number[]) => reportOf([learnerOf('linear', foldsOf({ rmse: scores, mae: scores }))], { task: 'regression' });
+    const p = loaded('prev.json', reg(big(B)));
+    const c = loaded('cur.json', reg(big(B.map((x, i) => x + D[i]))));
+    const mdd = gateReports(p, c).detectable!.mdd;
+    expect(mdd).toBeGreaterThan(0.5);
+    expect(mdd).toBeLessThan(1);
+    const maxDrop = 1 - mdd;
+    expect(maxDrop + mdd).toBe(1);
+    expect(gateReports(p, c, { maxDrop }).warnings[0]).toContain(`only from 1.000 on (--max-drop ${maxDrop} plus ${mdd.toPrecision(3)})`);
   });
 
   it('formats figures of 1 and more with 3 decimals (rmse in large units, lower is better)', () => {
@@ -241,6 +259,8 @@ describe('gateReports: refusals of incomparable reports and options', () => {
     };
     const four = err(() => gateReports(prev(), failed([0, 1, 2, 4])));
     expect(four).toBeInstanceOf(NotComparableError);
+    // the reports themselves match: no differences listed
+    expect(four.differences).toEqual([]);
     expect(four.message).toBe(
       'gate: cur.json: knn failed in 4 of 5 folds (repeat 1 fold 1, repeat 1 fold 2, repeat 1 fold 3, …); fix the learner and rerun before gating; they are not comparable',
     );
@@ -371,6 +391,21 @@ describe('gateReports: several metrics are a Holm family', () => {
     const u = gateReports(prev(), cur(C, { seed: 2 }), { metrics: ['macro-f1', 'accuracy'] });
     expect(u.family!.tests.map((t) => t.rule)).toEqual(['unpaired', 'unpaired']);
     expect(u.family!.notGated).toEqual([]);
+  });
+
+  it('--slices: the slices get the paired rule when the reports pair, the unpaired one when not', () => {
+    const withSlices = (path: string, scores: readonly number[], seed: number) =>
+      loaded(path, reportOf(learners(scores), { seed, slices: [sliceOf('island', [{ level: 'A', learners: [sliceLearnerOf('knn', sliceFoldsOf({ 'macro-f1': scores, accuracy: scores }))] }])] }));
+    const paired = gateReports(withSlices('prev.json', B, 1), withSlices('cur.json', C, 1), { slices: true });
+    expect(paired.family!.tests.map((t) => [t.column ?? '', t.rule])).toEqual([
+      ['', 'paired'],
+      ['island', 'paired'],
+    ]);
+    const unpaired = gateReports(withSlices('prev.json', B, 1), withSlices('cur.json', C, 2), { slices: true });
+    expect(unpaired.family!.tests.map((t) => [t.column ?? '', t.rule])).toEqual([
+      ['', 'unpaired'],
+      ['island', 'unpaired'],
+    ]);
   });
 
   it('--slices asks the family for the slices (refused here: the reports have none)', () => {
