@@ -45,6 +45,10 @@ describe('ruleOn: the rule on two learners folds, whole-report or one slice', ()
     expect(two.df).toBe(1);
     expect(Math.abs(two.t! - 0.015 / Math.sqrt(0.75 * 0.00005))).toBeLessThan(1e-9);
     expect(ruleOn({ folds: foldsOf({ m: [0.8] }) }, { folds: foldsOf({ m: [0.78] }) }, 'm', true, O)).toBeNull();
+    // unpaired, 2 scored folds on each side are enough: Welch on s_b^2 = 0.0002, s_c^2 = 0.00045
+    const unpaired = ruleOn({ folds: foldsOf({ m: [0.8, 0.82] }) }, { folds: foldsOf({ m: [0.78, 0.81] }) }, 'm', false, O)!;
+    expect(unpaired.rule).toBe('unpaired');
+    expect(Math.abs(unpaired.t! - 0.015 / Math.sqrt(0.75 * (0.0002 + 0.00045)))).toBeLessThan(1e-9);
   });
 
   it('unpaired when asked, when the folds do not match, or when their sizes differ', () => {
