@@ -179,6 +179,11 @@ describe('planPower: refusals', () => {
     const holes = reportOf(learners({}, [0.8, null, ...S.slice(2)]), plan);
     expect(() => planPower(holes, 'prev.json', { drop: 0.1, learner: 'knn', ...SETTING })).toThrow(InputError);
     expect(() => planPower(holes, 'prev.json', { drop: 0.1, learner: 'knn', ...SETTING })).toThrow('power: prev.json: knn has folds without a macro-f1 score');
+    // a score that is not a finite number (a hand-edited report) and a fold without the metric's key
+    const inf = reportOf(learners({}, [0.8, Infinity, ...S.slice(2)]), plan);
+    expect(() => planPower(inf, 'prev.json', { drop: 0.1, learner: 'knn', ...SETTING })).toThrow('power: prev.json: knn has folds without a macro-f1 score');
+    const keyless = reportOf([learnerOf('knn', [...foldsOf({ 'macro-f1': [0.8, 0.82], accuracy: [0.8, 0.8] }), { repeat: 0, fold: 2, trainRows: 80, testRows: 20, scores: { accuracy: 0.8 } }])]);
+    expect(() => planPower(keyless, 'prev.json', { drop: 0.1, learner: 'knn', ...SETTING })).toThrow('power: prev.json: knn has folds without a macro-f1 score');
     const one = reportOf([learnerOf('knn', foldsOf({ 'macro-f1': [0.8], accuracy: [0.8] }))]);
     expect(() => planPower(one, 'prev.json', { drop: 0.1, ...SETTING })).toThrow('power: prev.json: knn has 1 fold; the advice needs at least 2');
   });
