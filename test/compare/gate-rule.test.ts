@@ -254,3 +254,26 @@ describe('gate rule: the refusals word for word, equal scores and the floor of a
     expect(Math.abs(r.df - (vb + vc) ** 2 / (vb ** 2 + vc ** 2))).toBeLessThan(1e-9);
   });
 });
+
+describe('gate rule: the decision at its edge and the unpaired direction (mutation survivors, issue 24)', () => {
+  it('fails only when the bound lies strictly above max-drop: at max-drop = bound it passes', () => {
+    // the bound does not depend on max-drop (first describe): take it from a run at max-drop 0
+    const b = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const c = b.map((x, i) => x - [0.03, 0.01, 0.02, 0.04, 0][i]);
+    const bound = pairedGateTest(b, c, FIVE_FOLD, higher(0.1)).dropBound;
+    expect(bound).toBeGreaterThan(0);
+    const at = pairedGateTest(b, c, FIVE_FOLD, higher(0.1, bound));
+    expect(at.dropBound).toBe(bound);
+    expect(at.regression).toBe(false);
+  });
+
+  it('unpaired, lower is better: a rise of the error is the drop', () => {
+    // the equal-variance Welch case of the second describe with the sides read as an error metric
+    const b = [0.78, 0.8, 0.76, 0.82, 0.79];
+    const c = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const r = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, { higherIsBetter: false, alpha: 0.05, maxDrop: 0 });
+    expect(Math.abs(r.drop - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.change - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.t! - 0.942809)).toBeLessThan(1e-5);
+  });
+});
