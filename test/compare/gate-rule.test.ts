@@ -183,3 +183,97 @@ describe('unpairedGateTest: Welch test with a Nadeau-Bengio corrected variance o
     expect(Math.abs(floored.t! - 0.25 / se)).toBeLessThan(1e-9);
   });
 });
+
+describe('gate rule: the refusals word for word, equal scores and the floor of a gain (mutation survivors, issue 24)', () => {
+  it('names the run and the count of its fold scores, and a score that is not finite', () => {
+    const b = [0.8, 0.82, 0.78];
+    expect(() => pairedGateTest([0.8], [0.7], FIVE_FOLD, higher(0.05))).toThrow('gate: the baseline run has 1 fold score; the gate needs at least 2 folds per run');
+    expect(() => pairedGateTest(b, [0.7], FIVE_FOLD, higher(0.05))).toThrow('gate: the current run has 1 fold score; the gate needs at least 2 folds per run');
+    expect(() => unpairedGateTest([], FIVE_FOLD, b, FIVE_FOLD, higher(0.05))).toThrow('gate: the baseline run has 0 fold scores; the gate needs at least 2 folds per run');
+    expect(() => unpairedGateTest(b, FIVE_FOLD, [0.7], FIVE_FOLD, higher(0.05))).toThrow('gate: the current run has 1 fold score;');
+    expect(() => pairedGateTest([0.8, NaN], [0.7, 0.7], FIVE_FOLD, higher(0.05))).toThrow('gate: the baseline run has a score that is not a finite number');
+    expect(() => unpairedGateTest(b, FIVE_FOLD, [0.7, Infinity], FIVE_FOLD, higher(0.05))).toThrow('gate: the current run has a score that is not a finite number');
+    expect(() => pairedGateTest(b, [0.7, 0.7], FIVE_FOLD, higher(0.05))).toThrow(InputError);
+    expect(() => pairedGateTest(b, [0.7, 0.7], FIVE_FOLD, higher(0.05))).toThrow('gate: paired scores must pair up, got 3 and 2');
+  });
+
+  it('the option refusals in full; alpha must be a number, not a numeric string', () => {
+    const b = [0.8, 0.82, 0.78];
+    const c = [0.79, 0.8, 0.77];
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, higher(0.05, -0.01))).toThrow("--max-drop -0.01: expected a number >= 0, in the metric's units");
+    expect(() => unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, NaN))).toThrow('--max-drop NaN');
+    expect(() => unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, higher(0.05, Infinity))).toThrow('--max-drop Infinity');
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, higher(0))).toThrow('--alpha 0: expected a number above 0 and below 0.5 (such as 0.05)');
+    // "0.05" > 0 and "0.05" < 0.5 are true in JavaScript: only the typeof check refuses it
+    expect(() => pairedGateTest(b, c, FIVE_FOLD, { higherIsBetter: true, maxDrop: 0, alpha: '0.05' as unknown as number })).toThrow(UsageError);
+    expect(() => unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, { higherIsBetter: true, maxDrop: 0, alpha: '0.05' as unknown as number })).toThrow('--alpha 0.05');
+  });
+
+  it('equal scores are no spread even when their computed mean has a rounding residue', () => {
+    // 0.1 + 0.1 + 0.1 = 0.30000000000000004 in doubles: the mean of three 0.1 is not 0.1 and a
+    // sample variance would be a tiny positive number, not 0
+    const tenth = [0.1, 0.1, 0.1];
+    const fifth = [0.2, 0.2, 0.2];
+    const u = unpairedGateTest(tenth, FIVE_FOLD, fifth, FIVE_FOLD, higher(0.05));
+    expect(u).toMatchObject({ t: null, p: 1, ci95: null, improvement: false, regression: false });
+    // the paired drops 0.1 - 0.2 are all the same double: the drop is that double, not a mean with residue
+    const p = pairedGateTest(tenth, fifth, FIVE_FOLD, higher(0.05));
+    expect(p.drop).toBe(0.1 - 0.2);
+    expect(p).toMatchObject({ t: null, p: 1, ci95: null, improvement: false });
+    expect(p.dropBound).toBe(0.1 - 0.2);
+  });
+
+  it('zero spread on both sides: df is J_b + J_c - 2', () => {
+    const r = unpairedGateTest([0.75, 0.75, 0.75], FIVE_FOLD, [0.5, 0.5], FIVE_FOLD, higher(0.05, 0.25));
+    expect(r.df).toBe(3);
+    expect(r.baselineFolds).toBe(3);
+    expect(r.currentFolds).toBe(2);
+  });
+
+  it('the binomial floor of a gain uses the size of the change: q~ = (0.02 N + 2) / (N + 4)', () => {
+    // the 2-fold case of the test above, the other way round: one error fewer in each fold
+    const two = { testRows: 50, trainRows: 50 };
+    const r = pairedGateTest([0.88, 0.84], [0.9, 0.86], two, { ...higher(0.05), proportion: true, range: [0, 1] });
+    const q = 4 / 104;
+    const se = Math.sqrt((q * (1 - q)) / 100);
+    expect(Math.abs(r.drop + 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.t! - r.drop / se)).toBeLessThan(1e-9);
+    // 95% interval of the change: +0.02 -/+ t_{1,0.975} SE, t_{1,0.975} = 12.706 (NIST table), clipped to [-1, 1]
+    expect(Math.abs(r.ci95![0] - Math.max(-1, 0.02 - jStat.studentt.inv(0.975, 1) * se))).toBeLessThan(1e-9);
+    expect(Math.abs(r.ci95![1] - Math.min(1, 0.02 + 12.706 * se))).toBeLessThan(1e-4);
+  });
+
+  it('the unpaired floor uses each run its own mean: p~ = (p N + 2) / (N + 4) per side', () => {
+    // baseline 0.75 (N = 100), current 0.5 (N = 50 rows: 10 test + 40 train): different floors
+    const r = unpairedGateTest([0.75, 0.75], FIVE_FOLD, [0.5, 0.5], { testRows: 10, trainRows: 40 }, { ...higher(0.05), proportion: true });
+    const pb = (0.75 * 100 + 2) / 104;
+    const pc = (0.5 * 50 + 2) / 54;
+    const vb = (pb * (1 - pb)) / 100;
+    const vc = (pc * (1 - pc)) / 50;
+    expect(Math.abs(r.t! - 0.25 / Math.sqrt(vb + vc))).toBeLessThan(1e-9);
+    expect(Math.abs(r.df - (vb + vc) ** 2 / (vb ** 2 + vc ** 2))).toBeLessThan(1e-9);
+  });
+});
+
+describe('gate rule: the decision at its edge and the unpaired direction (mutation survivors, issue 24)', () => {
+  it('fails only when the bound lies strictly above max-drop: at max-drop = bound it passes', () => {
+    // the bound does not depend on max-drop (first describe): take it from a run at max-drop 0
+    const b = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const c = b.map((x, i) => x - [0.03, 0.01, 0.02, 0.04, 0][i]);
+    const bound = pairedGateTest(b, c, FIVE_FOLD, higher(0.1)).dropBound;
+    expect(bound).toBeGreaterThan(0);
+    const at = pairedGateTest(b, c, FIVE_FOLD, higher(0.1, bound));
+    expect(at.dropBound).toBe(bound);
+    expect(at.regression).toBe(false);
+  });
+
+  it('unpaired, lower is better: a rise of the error is the drop', () => {
+    // the equal-variance Welch case of the second describe with the sides read as an error metric
+    const b = [0.78, 0.8, 0.76, 0.82, 0.79];
+    const c = [0.8, 0.82, 0.78, 0.84, 0.81];
+    const r = unpairedGateTest(b, FIVE_FOLD, c, FIVE_FOLD, { higherIsBetter: false, alpha: 0.05, maxDrop: 0 });
+    expect(Math.abs(r.drop - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.change - 0.02)).toBeLessThan(1e-12);
+    expect(Math.abs(r.t! - 0.942809)).toBeLessThan(1e-5);
+  });
+});
