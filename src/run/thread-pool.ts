@@ -11,7 +11,7 @@
  */
 import { Worker } from 'node:worker_threads';
 import { FoldwiseError } from '../errors.js';
-import type { StopError } from './pool.js';
+import { type StopError, WORKER_LIMITS } from './pool.js';
 
 type Reply<R> = { result?: R; error?: string; exitCode?: number };
 
@@ -48,7 +48,7 @@ export async function runThreads<T, R>(o: ThreadPoolOptions<T, R>): Promise<void
       onAbort = () => fail(stopError(o.stop!.reason));
       o.stop?.addEventListener('abort', onAbort, { once: true });
       for (let i = 0; i < count; i++) {
-        const w = new Worker(o.url, { workerData: o.workerData });
+        const w = new Worker(o.url, { resourceLimits: WORKER_LIMITS, workerData: o.workerData });
         workers.push(w);
         running++;
         let current: T | undefined;
