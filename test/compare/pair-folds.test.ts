@@ -50,9 +50,9 @@ describe('pairFolds', () => {
     expect(p.correction).toEqual({ testRows: (10 + 9 + 8) / 3, trainRows: (90 + 91 + 92) / 3 });
   });
 
-  it('does not confuse repeat 1 fold 0 with repeat 0 fold 1 or 10 (the key keeps both numbers apart)', () => {
-    const a = learner('a', [fold(1, { accuracy: 0.8 }), fold(1, { accuracy: 0.7 }, { repeat: 1 })]);
-    const b = learner('b', [fold(11, { accuracy: 0.1 }), fold(1, { accuracy: 0.2 }, { repeat: 1 })]);
+  it('does not confuse repeat 1 fold 11 with repeat 11 fold 1 (the key keeps both numbers apart)', () => {
+    const a = learner('a', [fold(11, { accuracy: 0.8 }, { repeat: 1 }), fold(1, { accuracy: 0.7 }, { repeat: 2 })]);
+    const b = learner('b', [fold(1, { accuracy: 0.1 }, { repeat: 11 }), fold(1, { accuracy: 0.2 }, { repeat: 2 })]);
     const p = pairFolds(a, b, 'accuracy');
     expect(p.a).toEqual([0.7]);
     expect(p.b).toEqual([0.2]);
@@ -107,8 +107,9 @@ describe('pairFolds', () => {
     ]);
     const p = pairFolds(a, b, 'accuracy');
     expect(p.sizeMismatch).toEqual({ key: { repeat: 0, fold: 1 }, a: '80/20', b: '80/21' });
-    // still paired: the caller decides what a mismatch means
+    // still paired: the caller decides what a mismatch means; the sizes are A's
     expect(p.a.length).toBe(3);
+    expect(p.correction).toEqual({ testRows: 20, trainRows: 80 });
     const trainOnly = pairFolds(a, learner('b', [fold(0, { accuracy: 0.6 }, { trainRows: 81, testRows: 20 })]), 'accuracy');
     expect(trainOnly.sizeMismatch).toEqual({ key: { repeat: 0, fold: 0 }, a: '80/20', b: '81/20' });
     // a mismatched pair with a null score is still reported

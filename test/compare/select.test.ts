@@ -75,6 +75,19 @@ describe('findLearner', () => {
     expect(findLearner(r, '  knn  ', '--learner', 'the report').spec).toBe('knn');
   });
 
+  it('finds a spec as the report spells it even when the registry would spell it otherwise', () => {
+    // "knn:k=5" names the default k: the registry's spelling is "knn", which this report does not have
+    const odd = makeReport([withMean('knn:k=5', 0.8, 'knn'), withMean('my-own', 0.7, 'my-own')]);
+    expect(findLearner(odd, 'knn:k=5', '--learner', 'the report').spec).toBe('knn:k=5');
+    expect(findLearner(odd, 'my-own', '--learner', 'the report').spec).toBe('my-own');
+  });
+
+  it('names the trimmed spec in its refusal', () => {
+    expect(() => findLearner(r, '  tree:depth=3 ', '--learner', 'the report')).toThrow(
+      '--learner tree:depth=3: the report has no such learner (it has "baseline", "knn:k=7", "knn")',
+    );
+  });
+
   it('finds another spelling of the same options through the registry (defaults dropped, order canonical)', () => {
     expect(findLearner(r, 'knn:vote=equal,k=7', '--learner', 'the report').spec).toBe('knn:k=7');
     expect(findLearner(r, 'knn:k=5', '--learner', 'the report').spec).toBe('knn');
