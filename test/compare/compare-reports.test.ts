@@ -87,9 +87,9 @@ describe('compareReports: the same learners across two reports, fold by fold', (
   });
 
   it('refuses reports with no learner in common, naming both lists', () => {
-    const [a, b] = two([scores('knn', REF), scores('tree', REF)], [scores('forest', UP)]);
+    const [a, b] = two([scores('knn', REF), scores('tree', REF)], [scores('forest', UP), scores('bayes', UP)]);
     expect(() => compareReports(a, b)).toThrow(UsageError);
-    expect(() => compareReports(a, b)).toThrow('compare: the reports have no learner in common (first: knn, tree; second: forest); name one with --learner');
+    expect(() => compareReports(a, b)).toThrow('compare: the reports have no learner in common (first: knn, tree; second: forest, bayes); name one with --learner');
   });
 
   it('refuses runs that differ in data or plan, naming every field', () => {
@@ -105,6 +105,14 @@ describe('compareReports: the same learners across two reports, fold by fold', (
   it('refuses fold lists that differ, or folds of other sizes, although the plans match', () => {
     const [a, b] = two([scores('knn', REF)], [scores('knn', UP.slice(0, 3))]);
     expect(() => compareReports(a, b)).toThrow(NotComparableError);
+    // not a field difference: the error lists none
+    let caught: unknown;
+    try {
+      compareReports(a, b);
+    } catch (e) {
+      caught = e;
+    }
+    expect((caught as NotComparableError).differences).toEqual([]);
     expect(() => compareReports(a, b)).toThrow('compare: the fold lists differ (2 folds on one side only) although the plans match; they are not comparable');
     const [c, d] = two([scores('knn', REF.slice(0, 3))], [scores('knn', UP)]);
     expect(() => compareReports(c, d)).toThrow('(2 folds on one side only)');

@@ -23,6 +23,7 @@ describe('reportDifferences, eval reports', () => {
       x.metrics = ['kappa', 'accuracy'];
     });
     expect(reportDifferences(r, other)).toEqual([]);
+    expect(reportDifferences(other, r)).toEqual([]);
   });
 
   it('names each differing field once, in a fixed order, with its kind and both values', () => {
@@ -93,9 +94,18 @@ describe('reportDifferences, a report scored from a predictions file', () => {
       x.metrics = ['kappa', 'accuracy'];
     });
     expect(reportDifferences(a, b)).toEqual([]);
-    // either side scored is enough to use this rule
-    expect(reportDifferences(a, tweak(base(), (x) => (x.plan.assignment = SHA_A)))).toEqual([]);
-    expect(reportDifferences(tweak(base(), (x) => (x.plan.assignment = SHA_A)), a)).toEqual([]);
+    // either side scored is enough to use this rule: an eval report of other data but the same assignment matches
+    const evalSameRows = tweak(base(), (x) => {
+      x.plan.assignment = SHA_A;
+      x.data.sha256 = SHA_B;
+      x.plan.seed = 3;
+    });
+    expect(reportDifferences(a, evalSameRows)).toEqual([]);
+    expect(reportDifferences(evalSameRows, a)).toEqual([]);
+    // the metric sets compare as sets, on either side
+    const unsorted = tweak(a, (x) => (x.metrics = ['kappa', 'accuracy']));
+    expect(reportDifferences(unsorted, a)).toEqual([]);
+    expect(reportDifferences(a, unsorted)).toEqual([]);
   });
 
   it('an unknown or different assignment never matches; the task and metrics are compared too', () => {

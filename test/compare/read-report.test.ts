@@ -36,6 +36,12 @@ describe('readReport', () => {
     expect(loaded.report).toEqual(r);
   });
 
+  it('strips only a leading byte-order mark: one inside a string value stays', () => {
+    const r = tweak(good(), (x) => (x.data.path = 'a\uFEFFb.csv'));
+    const loaded = readReport(tmp.file('inner-bom.json', JSON.stringify(r)), '--previous');
+    expect(loaded.report.data.path).toBe('a\uFEFFb.csv');
+  });
+
   it('refuses a missing file and a folder, naming the label, the path and the error code', () => {
     const missing = join(tmp.dir, 'missing.json');
     expect(() => readReport(missing, '--previous')).toThrow(InputError);
@@ -78,7 +84,11 @@ describe('readReport', () => {
     expect(read('none.json', JSON.stringify(noSchema))).toThrow('(its "schema" field is missing, expected "foldwise-report/2")');
     const long = 'x'.repeat(100);
     expect(read('long-schema.json', JSON.stringify({ ...r, schema: long }))).toThrow(`(its "schema" field is "${'x'.repeat(59)}…, expected`);
-    expect(read('old.json', JSON.stringify({ ...r, schema: 'foldwise-report/1' }))).toThrow('format foldwise-report/1 is from foldwise 0.1');
+    // 58 letters and two quotes: 60 characters, the most that is shown whole
+    expect(read('sixty.json', JSON.stringify({ ...r, schema: 'y'.repeat(58) }))).toThrow(`(its "schema" field is "${'y'.repeat(58)}", expected`);
+    expect(read('old.json', JSON.stringify({ ...r, schema: 'foldwise-report/1' }))).toThrow(
+      `--previous ${join(tmp.dir, 'old.json')}: format foldwise-report/1 is from foldwise 0.1, before metrics, learner options and plan kinds were renamed; this foldwise reads foldwise-report/2: rerun foldwise eval with --json to write one`,
+    );
   });
 
   it('refuses a report that breaks the schema, naming where and what, "/" at the top level', () => {
