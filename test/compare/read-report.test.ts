@@ -98,6 +98,9 @@ describe('readReport', () => {
     );
     const badFold = tweak(good(), (x) => (x.learners[1].folds[0].testRows = 0));
     expect(read('bad-fold.json', JSON.stringify(badFold))).toThrow('not a valid foldwise-report/2 report (at /learners/1/folds/0/testRows: must be >= 1)');
+    // a score named "x " (trailing blank): the place is shown trimmed
+    const blank = tweak(good(), (x) => (x.learners[0].folds[0].scores['x '] = 'high'));
+    expect(read('blank.json', JSON.stringify(blank))).toThrow('not a valid foldwise-report/2 report (at /learners/0/folds/0/scores/x: must be number,null)');
   });
 
   it('refuses scores outside their metric\'s range after the schema check', () => {
