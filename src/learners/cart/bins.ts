@@ -15,6 +15,7 @@
  */
 import { InputError } from '../../errors.js';
 import { type Matrix, matrixColumn } from '../../learning.js';
+import { sortFinite } from './radix-sort.js';
 
 export const MAX_BINS = 255;
 
@@ -33,9 +34,12 @@ export function midpoint(a: number, b: number): number {
   return m < b && Number.isFinite(m) ? m : a;
 }
 
-/** Cut points for one feature's values (which must be finite); `sorted` is overwritten. */
-export function quantileCuts(sorted: Float64Array, maxBins: number): Float64Array {
-  sorted.sort();
+/**
+ * Cut points for one feature's values (which must be finite); `sorted` is overwritten (sorted in
+ * place, as Float64Array.prototype.sort would, by radix-sort.ts; `scratch` as sortFinite takes it).
+ */
+export function quantileCuts(sorted: Float64Array, maxBins: number, scratch?: Uint32Array): Float64Array {
+  sortFinite(sorted, scratch);
   const n = sorted.length;
   // distinct values and, for each, the count of values <= it
   const distinct: number[] = [];
@@ -95,6 +99,7 @@ export function binMatrix(X: Matrix, maxBins: number, learner: string): BinnedMa
   // one column at a time, into one buffer (a matrix made on demand never builds its row-major
   // copy, and 20 columns of 667,000 rows are not 107 MB left to the garbage collector)
   const buffer = new Float64Array(n);
+  const scratch = new Uint32Array(2 * n);
   for (let j = 0; j < p; j++) {
     const column = matrixColumn(X, j, buffer);
     for (let i = 0; i < n; i++) {
@@ -106,7 +111,7 @@ export function binMatrix(X: Matrix, maxBins: number, learner: string): BinnedMa
       }
     }
     sorted.set(column);
-    const c = quantileCuts(sorted, maxBins);
+    const c = quantileCuts(sorted, maxBins, scratch);
     cuts.push(c);
     const base = j * n;
     for (let i = 0; i < n; i++) codes[base + i] = codeOf(c, column[i]);
@@ -126,6 +131,7 @@ export function codeRows(X: Matrix, cuts: readonly Float64Array[]): Uint8Array {
   if (cuts.length !== p) throw new RangeError(`${cuts.length} features of cut points for a matrix of ${p} columns`);
   const out = new Uint8Array(n * p);
   const buffer = new Float64Array(n);
+  const scratch = new Uint32Array(2 * n);
   for (let j = 0; j < p; j++) {
     const column = matrixColumn(X, j, buffer);
     const c = cuts[j];
