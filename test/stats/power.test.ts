@@ -1,3 +1,4 @@
+import jStat from 'jstat';
 import { describe, expect, it } from 'vitest';
 import { createRng } from '../../src/rng.js';
 import { correctedSe, mddInSe, mddLimit, minimalDetectable, powerAt, repeatsFor } from '../../src/stats/power.js';
@@ -171,5 +172,41 @@ describe('repeatsFor at the edges', () => {
   it('refuses a target that is not above 0', () => {
     expect(() => repeatsFor(0, x, S)).toThrow('the drop to detect must be > 0, got 0');
     expect(() => repeatsFor(Number.NaN, x, S)).toThrow(/must be > 0/);
+  });
+});
+
+describe('mddInSe: the bisection bracket and its stop rule (issue 24, mutation testing)', () => {
+  // The root is checked against jstat's noncentral t directly (not through powerAt): the
+  // power 1 - F_nct(t_{df, 1-alpha}; df, m) must reach the asked power at m and fall short of it
+  // 1e-9 below m (relative), the bisection stopping once hi - lo <= 1e-10 hi.
+  const power = (m: number, df: number, alpha: number): number => 1 - jStat.noncentralt.cdf(jStat.studentt.inv(1 - alpha, df), df, m);
+
+  it('finds the root to 1e-9 relative where the approximation bracket starts below zero and where the MDD is far below one standard error', () => {
+    const cases: [number, number, number][] = [
+      // df 1, power 0.99: t_{1,0.95} = 6.314 and t_{1,0.99} = 31.82 (NIST/SEMATECH e-Handbook
+      // sec. 1.3.6.7.2), so t_{1,0.95} - t_{1,0.99} is far below zero: a bracket built from the
+      // difference of the two quantiles would start at a negative noncentrality
+      [1, 0.05, 0.99],
+      // alpha near 0.5: t_{9,0.5001} + t_{9,0.5} is about 2.5e-4, so the MDD is about 2.5e-4 SE
+      // (the normal quantile z_{0.5001} = 2.5066e-4, from the normal density 1/sqrt(2 pi) at 0)
+      [9, 0.4999, 0.5],
+      [9, 0.05, 0.8],
+      [2, 0.01, 0.9],
+    ];
+    let checked = 0;
+    for (const [df, alpha, p] of cases) {
+      const m = mddInSe(df, { alpha, power: p });
+      expect(m).toBeGreaterThan(0);
+      expect(power(m, df, alpha)).toBeGreaterThanOrEqual(p);
+      expect(power(m * (1 - 1e-9), df, alpha)).toBeLessThan(p);
+      checked++;
+    }
+    expect(checked).toBe(4);
+    expect(Math.abs(mddInSe(9, { alpha: 0.4999, power: 0.5 }) - 2.5066e-4)).toBeLessThan(1e-7);
+    // above the critical value t_{1,0.95} = 6.314 (NIST table) and below the approximation
+    // 6.314 + 31.82, which overshoots at one degree of freedom (jstat gives 16.466)
+    const one = mddInSe(1, { alpha: 0.05, power: 0.99 });
+    expect(one).toBeGreaterThan(6.314);
+    expect(one).toBeLessThan(6.314 + 31.82);
   });
 });
