@@ -1,5 +1,5 @@
 import jStat from 'jstat';
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { createRng } from '../../src/rng.js';
 import { correctedSe, mddInSe, mddLimit, minimalDetectable, powerAt, repeatsFor } from '../../src/stats/power.js';
 
@@ -208,5 +208,29 @@ describe('mddInSe: the bisection bracket and its stop rule (issue 24, mutation t
     const one = mddInSe(1, { alpha: 0.05, power: 0.99 });
     expect(one).toBeGreaterThan(6.314);
     expect(one).toBeLessThan(6.314 + 31.82);
+  });
+
+  it('stops once the bracket is within 1e-10 of its top (34 halvings), and asks jstat nothing for a setting it has seen', () => {
+    // By hand: the bracket starts at [0, t_{10,0.9499} + t_{10,0.80} + 1], about [0, 3.69]
+    // (NIST/SEMATECH table: t_{10,0.95} = 1.812; t_{10,0.80} = 0.879 from memory), around a root
+    // near 2.67 (the t approximation 1.812 + 0.879 = 2.69). Halving a width of 3.69 until it is at
+    // most 1e-10 x 2.67 takes ceil(log2(3.69 / 2.67e-10)) = ceil(33.7) = 34 steps, one noncentral
+    // t CDF each, plus one to check that the top of the bracket already has the power.
+    const cdf = vi.spyOn(jStat.noncentralt, 'cdf');
+    try {
+      const s = { alpha: 0.0501, power: 0.8 }; // a setting no other test asks for: not cached yet
+      const m = mddInSe(10, s);
+      expect(cdf).toHaveBeenCalledTimes(35);
+      cdf.mockClear();
+      expect(mddInSe(10, s)).toBe(m);
+      expect(cdf).toHaveBeenCalledTimes(0);
+      // another setting asked for in between keeps the first one cached
+      expect(mddInSe(10, { alpha: 0.0502, power: 0.8 })).toBeLessThan(m);
+      cdf.mockClear();
+      expect(mddInSe(10, s)).toBe(m);
+      expect(cdf).toHaveBeenCalledTimes(0);
+    } finally {
+      cdf.mockRestore();
+    }
   });
 });
