@@ -233,4 +233,51 @@ describe('mddInSe: the bisection bracket and its stop rule (issue 24, mutation t
       cdf.mockRestore();
     }
   });
+
+  it('keeps at most 10,001 settings: the cache starts again with the next one (a bound on memory)', () => {
+    // Wiring only: jstat's noncentral t and t quantile are swapped for the normal distribution
+    // (cheap, and increasing in the noncentrality as the real ones) so that 20,000 settings can
+    // be asked for; the values are not checked. A setting is cached when asking for it again makes
+    // no CDF call. The cache's size at the start depends on the tests before, so it is measured:
+    // ask for new settings until a first one (the sentinel) is dropped, which leaves the cache
+    // holding the setting that emptied it and the sentinel asked for again: 2 entries. From there
+    // 9,999 new settings fill it to 10,001, and the 10,000th empties it.
+    const nct = jStat.noncentralt as { cdf: (x: number, df: number, ncp: number) => number };
+    const st = jStat.studentt as { inv: (p: number, df: number) => number };
+    const { cdf, inv } = { cdf: nct.cdf, inv: st.inv };
+    let calls = 0;
+    nct.cdf = (x, _df, ncp) => {
+      calls++;
+      return jStat.normal.cdf(x - ncp, 0, 1);
+    };
+    st.inv = (p) => jStat.normal.inv(p, 0, 1);
+    try {
+      const s = { alpha: 0.05, power: 0.8 };
+      let df = 1e6; // degrees of freedom no other test asks for
+      const sentinel = (): boolean => {
+        calls = 0;
+        mddInSe(0.5, s);
+        return calls === 0;
+      };
+      sentinel();
+      expect(sentinel()).toBe(true);
+      let first = 0;
+      while (first < 10_002 && sentinel()) {
+        mddInSe(df++, s);
+        first++;
+      }
+      expect(first).toBeGreaterThan(0);
+      expect(first).toBeLessThanOrEqual(10_001);
+      expect(sentinel()).toBe(true); // asked for again above, now cached
+      let added = 0;
+      while (added < 10_002 && sentinel()) {
+        mddInSe(df++, s);
+        added++;
+      }
+      expect(added).toBe(10_000);
+    } finally {
+      nct.cdf = cdf;
+      st.inv = inv;
+    }
+  });
 });
