@@ -10,16 +10,18 @@ import { InputError } from '../errors.js';
  * finite number. Throws InputError "<fn>: <name>[i] is NaN; ..." or "... is not finite ...".
  */
 export function finiteValues(fn: string, name: string, values: ArrayLike<number>): number[] {
-  if (values == null || typeof values.length !== 'number') {
+  // an array-like's length is a whole number >= 0 (Number.isInteger does not coerce a string)
+  if (values == null || !Number.isInteger(values.length) || values.length < 0) {
     throw new InputError(`${fn}: ${name} must be an array of numbers`);
   }
-  const out = new Array<number>(values.length);
+  // grown by push: new Array(length) would throw a RangeError for a length of 2^32 or more
+  const out: number[] = [];
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
     if (typeof v !== 'number') throw new InputError(`${fn}: ${name}[${i}] is not a number`);
     if (Number.isNaN(v)) throw new InputError(`${fn}: ${name}[${i}] is NaN; filter missing scores before calling`);
     if (!Number.isFinite(v)) throw new InputError(`${fn}: ${name}[${i}] is not finite (${v})`);
-    out[i] = v;
+    out.push(v);
   }
   return out;
 }

@@ -20,6 +20,17 @@ describe('finiteValues: the shared input check of the fold statistics', () => {
     expect(() => finiteValues('f', 'v', 3 as never)).toThrow('f: v must be an array of numbers');
   });
 
+  it('refuses an array-like whose length is not a whole number >= 0 with its InputError, not a RangeError (issue 24, mutation testing)', () => {
+    // an array-like has a length that is an integer >= 0 (ECMAScript, LengthOfArrayLike);
+    // new Array(-1), new Array(2.5) and new Array(NaN) throw RangeError "Invalid array length"
+    for (const length of [-1, 2.5, Number.NaN, Infinity]) {
+      expect(() => finiteValues('f', 'v', { length } as never)).toThrow(new InputError('f: v must be an array of numbers'));
+    }
+    // one entry short of a length beyond any array: the first missing entry is named
+    expect(() => finiteValues('f', 'v', { length: 2 ** 32, 0: 1 } as never)).toThrow(new InputError('f: v[1] is not a number'));
+    expect(finiteValues('f', 'v', { length: 2, 0: 1, 1: 2 } as never)).toEqual([1, 2]);
+  });
+
   it('names the first bad entry: not a number, NaN, infinite', () => {
     expect(() => finiteValues('f', 'v', [1, '2'] as never)).toThrow('f: v[1] is not a number');
     expect(() => finiteValues('f', 'v', [1, null] as never)).toThrow('f: v[1] is not a number');

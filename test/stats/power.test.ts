@@ -1,4 +1,5 @@
-import { describe, expect, it } from 'vitest';
+import jStat from 'jstat';
+import { describe, expect, it, vi } from 'vitest';
 import { createRng } from '../../src/rng.js';
 import { correctedSe, mddInSe, mddLimit, minimalDetectable, powerAt, repeatsFor } from '../../src/stats/power.js';
 
@@ -171,5 +172,112 @@ describe('repeatsFor at the edges', () => {
   it('refuses a target that is not above 0', () => {
     expect(() => repeatsFor(0, x, S)).toThrow('the drop to detect must be > 0, got 0');
     expect(() => repeatsFor(Number.NaN, x, S)).toThrow(/must be > 0/);
+  });
+});
+
+describe('mddInSe: the bisection bracket and its stop rule (issue 24, mutation testing)', () => {
+  // The root is checked against jstat's noncentral t directly (not through powerAt): the
+  // power 1 - F_nct(t_{df, 1-alpha}; df, m) must reach the asked power at m and fall short of it
+  // 1e-9 below m (relative), the bisection stopping once hi - lo <= 1e-10 hi.
+  const power = (m: number, df: number, alpha: number): number => 1 - jStat.noncentralt.cdf(jStat.studentt.inv(1 - alpha, df), df, m);
+
+  it('finds the root to 1e-9 relative where the approximation bracket starts below zero and where the MDD is far below one standard error', () => {
+    const cases: [number, number, number][] = [
+      // df 1, power 0.99: t_{1,0.95} = 6.314 and t_{1,0.99} = 31.82 (NIST/SEMATECH e-Handbook
+      // sec. 1.3.6.7.2), so t_{1,0.95} - t_{1,0.99} is far below zero: a bracket built from the
+      // difference of the two quantiles would start at a negative noncentrality
+      [1, 0.05, 0.99],
+      // alpha near 0.5: t_{9,0.5001} + t_{9,0.5} is about 2.5e-4, so the MDD is about 2.5e-4 SE
+      // (the normal quantile z_{0.5001} = 2.5066e-4, from the normal density 1/sqrt(2 pi) at 0)
+      [9, 0.4999, 0.5],
+      [9, 0.05, 0.8],
+      [2, 0.01, 0.9],
+    ];
+    let checked = 0;
+    for (const [df, alpha, p] of cases) {
+      const m = mddInSe(df, { alpha, power: p });
+      expect(m).toBeGreaterThan(0);
+      expect(power(m, df, alpha)).toBeGreaterThanOrEqual(p);
+      expect(power(m * (1 - 1e-9), df, alpha)).toBeLessThan(p);
+      checked++;
+    }
+    expect(checked).toBe(4);
+    expect(Math.abs(mddInSe(9, { alpha: 0.4999, power: 0.5 }) - 2.5066e-4)).toBeLessThan(1e-7);
+    // above the critical value t_{1,0.95} = 6.314 (NIST table) and below the approximation
+    // 6.314 + 31.82, which overshoots at one degree of freedom (jstat gives 16.466)
+    const one = mddInSe(1, { alpha: 0.05, power: 0.99 });
+    expect(one).toBeGreaterThan(6.314);
+    expect(one).toBeLessThan(6.314 + 31.82);
+  });
+
+  it('stops once the bracket is within 1e-10 of its top (34 halvings), and asks jstat nothing for a setting it has seen', () => {
+    // By hand: the bracket starts at [0, t_{10,0.9499} + t_{10,0.80} + 1], about [0, 3.69]
+    // (NIST/SEMATECH table: t_{10,0.95} = 1.812; t_{10,0.80} = 0.879 from memory), around a root
+    // near 2.67 (the t approximation 1.812 + 0.879 = 2.69). Halving a width of 3.69 until it is at
+    // most 1e-10 x 2.67 takes ceil(log2(3.69 / 2.67e-10)) = ceil(33.7) = 34 steps, one noncentral
+    // t CDF each, plus one to check that the top of the bracket already has the power.
+    const cdf = vi.spyOn(jStat.noncentralt, 'cdf');
+    try {
+      const s = { alpha: 0.0501, power: 0.8 }; // a setting no other test asks for: not cached yet
+      const m = mddInSe(10, s);
+      expect(cdf).toHaveBeenCalledTimes(35);
+      cdf.mockClear();
+      expect(mddInSe(10, s)).toBe(m);
+      expect(cdf).toHaveBeenCalledTimes(0);
+      // another setting asked for in between keeps the first one cached
+      expect(mddInSe(10, { alpha: 0.0502, power: 0.8 })).toBeLessThan(m);
+      cdf.mockClear();
+      expect(mddInSe(10, s)).toBe(m);
+      expect(cdf).toHaveBeenCalledTimes(0);
+    } finally {
+      cdf.mockRestore();
+    }
+  });
+
+  it('keeps at most 10,001 settings: the cache starts again with the next one (a bound on memory)', () => {
+    // Wiring only: jstat's noncentral t and t quantile are swapped for the normal distribution
+    // (cheap, and increasing in the noncentrality as the real ones) so that 20,000 settings can
+    // be asked for; the values are not checked. A setting is cached when asking for it again makes
+    // no CDF call. The cache's size at the start depends on the tests before, so it is measured:
+    // ask for new settings until a first one (the sentinel) is dropped, which leaves the cache
+    // holding the setting that emptied it and the sentinel asked for again: 2 entries. From there
+    // 9,999 new settings fill it to 10,001, and the 10,000th empties it.
+    const nct = jStat.noncentralt as { cdf: (x: number, df: number, ncp: number) => number };
+    const st = jStat.studentt as { inv: (p: number, df: number) => number };
+    const { cdf, inv } = { cdf: nct.cdf, inv: st.inv };
+    let calls = 0;
+    nct.cdf = (x, _df, ncp) => {
+      calls++;
+      return jStat.normal.cdf(x - ncp, 0, 1);
+    };
+    st.inv = (p) => jStat.normal.inv(p, 0, 1);
+    try {
+      const s = { alpha: 0.05, power: 0.8 };
+      let df = 1e6; // degrees of freedom no other test asks for
+      const sentinel = (): boolean => {
+        calls = 0;
+        mddInSe(0.5, s);
+        return calls === 0;
+      };
+      sentinel();
+      expect(sentinel()).toBe(true);
+      let first = 0;
+      while (first < 10_002 && sentinel()) {
+        mddInSe(df++, s);
+        first++;
+      }
+      expect(first).toBeGreaterThan(0);
+      expect(first).toBeLessThanOrEqual(10_001);
+      expect(sentinel()).toBe(true); // asked for again above, now cached
+      let added = 0;
+      while (added < 10_002 && sentinel()) {
+        mddInSe(df++, s);
+        added++;
+      }
+      expect(added).toBe(10_000);
+    } finally {
+      nct.cdf = cdf;
+      st.inv = inv;
+    }
   });
 });

@@ -202,6 +202,14 @@ describe('wilcoxon: ties within a tolerance tied to the test fold size (issue 24
     expect([r.n, r.tPlus, r.tMinus]).toEqual([3, 3, 3]);
     expect(() => wilcoxon([1, 2], [2, 1], { tolerance: -1 })).toThrow('wilcoxon: tolerance must be a finite number >= 0, got -1');
   });
+
+  it('is 4 testRows EPSILON |scale|, at least one row: written out by hand (issue 24, mutation testing)', () => {
+    // the header's formula with powers of two, so every product is exact
+    expect(roundingTolerance(10, 0.5)).toBe(20 * Number.EPSILON);
+    expect(roundingTolerance(10, -2)).toBe(80 * Number.EPSILON);
+    expect(roundingTolerance(0, 1)).toBe(4 * Number.EPSILON);
+    expect(roundingTolerance(0.25, 4)).toBe(16 * Number.EPSILON);
+  });
 });
 
 describe('wilcoxon: small cases by hand and the edges of the options (issue 24, mutation testing)', () => {
