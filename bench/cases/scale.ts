@@ -144,7 +144,8 @@ const HANDOFF_GOAL_S = 2;
  */
 export const typedLoadRows: ScaleRowProducer = async ({ files, log }) => {
   const { loadTable } = await import('../../src/data/load-table.js');
-  const { formatBytes, outColumn } = await import('../../src/io/write-columnar.js');
+  const { formatBytes, loadColumnarWriters, outColumn } = await import('../../src/io/write-columnar.js');
+  await loadColumnarWriters();
   const rows: ScaleRow[] = [];
   for (const file of files.filter((f) => f.kind === 'numeric')) {
     const t = await loadTable({ path: file.path });

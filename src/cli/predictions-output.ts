@@ -1,7 +1,7 @@
 /** `--predictions FILE|-` and `--predictions-keep COL` for eval, merge and tune. */
 import { UsageError } from '../errors.js';
 import { formatOfName } from '../data/load-table.js';
-import { arrowChunks, parquetChunks } from '../io/write-columnar.js';
+import { arrowChunks, loadColumnarWriters, parquetChunks } from '../io/write-columnar.js';
 import { stageChunks, writeChunks, type ChunkSink, type Staged } from '../report/atomic-stream.js';
 import type { ReportFrame } from '../run/evaluate.js';
 import type { TaskRecord } from '../model/record.js';
@@ -29,6 +29,7 @@ export function predictionsFormat(path: string): 'csv' | 'parquet' | 'arrow' {
 export async function stagePredictions(io: Io, path: string, frame: ReportFrame, records: readonly TaskRecord[], keep: readonly string[], batchRows = PREDICTION_BATCH_ROWS): Promise<Staged> {
   const format = predictionsFormat(path);
   if (format !== 'csv') {
+    await loadColumnarWriters();
     const typed = predictionsBatches(frame, records, keep, batchRows);
     return stageChunks(path, format === 'parquet' ? parquetChunks(typed.batches) : arrowChunks(typed.batches), '--predictions');
   }

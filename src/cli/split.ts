@@ -8,6 +8,7 @@ import { EXIT_OK, InputError, UsageError } from '../errors.js';
 import { writeFilesAtomic, type FileWrite } from '../report/atomic.js';
 import { guardPaths } from './guard.js';
 import { leftoverParts, splitTable } from '../run/split.js';
+import { loadColumnarWriters } from '../io/write-columnar.js';
 import { checkOutputs, loadOptionsOf, parseDelimiter, parseSeed, type DataFlags, problemOptionsOf } from './data-options.js';
 import type { Io } from './io.js';
 
@@ -49,6 +50,8 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     table = await loadTable({ path: data }, loadOptionsOf(flags));
     if (input === 'csv') text = readFileSync(data, 'utf8');
   }
+  const format = (flags.format as DataFormat | undefined) ?? input;
+  if (format !== 'csv') await loadColumnarWriters();
   const result = splitTable(table, text, {
     ...problemOptionsOf(flags),
     plan: flags.plan,
@@ -57,7 +60,7 @@ export async function runSplit(data: string, flags: SplitFlags, io: Io): Promise
     delimiter: parseDelimiter(flags.delimiter ?? ','),
     parts: Boolean(flags.out),
     // parts in the input's format unless --format says otherwise
-    format: (flags.format as DataFormat | undefined) ?? input,
+    format,
   });
   const writes: FileWrite[] = [];
   if (flags.out) for (const [file, csv] of result.files) writes.push({ path: join(flags.out, file), text: csv, option: '--out' });

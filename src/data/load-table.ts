@@ -10,8 +10,6 @@ import { createHash } from 'node:crypto';
 import { readFile, stat } from 'node:fs/promises';
 import { InputError } from '../errors.js';
 import { DEFAULT_MISSING, loadCsv, type CsvSource, type LoadOptions } from './load-csv.js';
-import { readArrow } from './load-arrow.js';
-import { readParquet } from './load-parquet.js';
 import { typedTable } from './typed-columns.js';
 import type { Table } from './types.js';
 import { allocFor } from './alloc.js';
@@ -89,6 +87,10 @@ async function loadTyped(path: string, format: 'parquet' | 'arrow', options: Loa
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const missing = new Set((options.missing ?? DEFAULT_MISSING).map((t) => t.trim()));
   const alloc = allocFor(options.shared);
-  const read = format === 'parquet' ? await readParquet(bytes, path, missing, alloc) : readArrow(bytes, path, missing, alloc);
+  // the readers (hyparquet, apache-arrow) load only when such a file is read: a CSV run never holds them
+  const read =
+    format === 'parquet'
+      ? await (await import('./load-parquet.js')).readParquet(bytes, path, missing, alloc)
+      : (await import('./load-arrow.js')).readArrow(bytes, path, missing, alloc);
   return typedTable(path, sha256, read.rows, read.columns, { categorical: options.categorical, missing, alloc });
 }

@@ -2,6 +2,7 @@
  * The learner registry: every built-in learner by name, and the default list per task.
  */
 import { closeNames, UsageError } from '../errors.js';
+import { loadColumnarWriters } from '../io/write-columnar.js';
 import { baseline } from './baseline.js';
 import { bayes } from './bayes.js';
 import { boost } from './boost/learner.js';
@@ -57,6 +58,8 @@ export async function loadExternalLearners(specs: readonly string[], baseDir: st
           `--learner ${text}: no program is given for "${spec.name.slice('command:'.length)}"; add --command ${spec.name.slice('command:'.length)}=PROGRAM${known.length ? ` (given: ${known.join(', ')})` : ''}`,
         );
       }
+      // its format= may ask for Parquet or Arrow files, whose writers load on demand
+      await loadColumnarWriters();
       // registered anew on every load: the program and the settings may differ between runs
       EXTERNAL.set(spec.name, commandLearner(program, commands!));
     }

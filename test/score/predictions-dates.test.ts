@@ -17,10 +17,13 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { tableFromIPC } from 'apache-arrow';
 import { parquetMetadata, parquetReadObjects } from 'hyparquet';
-import { describe, expect, it } from 'vitest';
-import { arrowChunks, hasTimeOfDay, parquetChunks, type ColumnBatch } from '../../src/io/write-columnar.js';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { arrowChunks, hasTimeOfDay, parquetChunks, type ColumnBatch, loadColumnarWriters } from '../../src/io/write-columnar.js';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
+
+// the Parquet and Arrow writers load on demand (src/io/write-columnar.ts)
+beforeAll(loadColumnarWriters);
 
 const tmp = tempFolder();
 const BATCH = 65_536;

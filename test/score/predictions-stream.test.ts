@@ -10,7 +10,7 @@
  *   hold the same schema and values as the whole-file writer's, doubles bit for bit;
  * - foldwise's loader and `foldwise score` read them as the CSV file of the same records.
  */
-import { describe, expect, it } from 'vitest';
+import { beforeAll, describe, expect, it } from 'vitest';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { Dictionary, tableFromIPC } from 'apache-arrow';
@@ -18,13 +18,16 @@ import { parquetMetadata, parquetReadObjects } from 'hyparquet';
 import { stagePredictions } from '../../src/cli/predictions-output.js';
 import type { Io } from '../../src/cli/io.js';
 import { loadTable } from '../../src/data/load-table.js';
-import { arrowBytes, arrowChunks, parquetBytes, parquetChunks, type ColumnBatch } from '../../src/io/write-columnar.js';
+import { arrowBytes, arrowChunks, parquetBytes, parquetChunks, type ColumnBatch, loadColumnarWriters } from '../../src/io/write-columnar.js';
 import type { Report } from '../../src/model/report.js';
 import { createRng } from '../../src/rng.js';
 import type { ReportFrame, TaskRecord } from '../../src/run/evaluate.js';
 import { predictionsBatches } from '../../src/run/predictions-out.js';
 import { cli } from '../helpers/cli.js';
 import { tempFolder } from '../helpers/tmp.js';
+
+// the Parquet and Arrow writers load on demand (src/io/write-columnar.ts)
+beforeAll(loadColumnarWriters);
 
 const tmp = tempFolder();
 const BATCH = 7;
