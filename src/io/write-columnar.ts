@@ -16,8 +16,8 @@ type Encoders = typeof import('./columnar-encoders.js');
 let encoders: Encoders | undefined;
 
 /**
- * Loads the Parquet and Arrow encoders (apache-arrow and hyparquet-writer, about 16 MB of the
- * main thread's memory and 7 MB of each worker's when loaded; measured by importing them alone).
+ * Loads the Parquet and Arrow encoders (apache-arrow and hyparquet-writer; apache-arrow alone
+ * took about 16 MB of a bare process's memory and 7 MB of a bare worker thread's when imported).
  * Every path that may write such a file awaits it first: the CLI before `split --format` and
  * `--predictions`, and loadExternalLearners for a `command:` learner (its `format=`).
  */
@@ -29,7 +29,6 @@ function loaded(): Encoders {
   if (!encoders) throw new Error('internal: the Parquet and Arrow writers are not loaded (await loadColumnarWriters() first)');
   return encoders;
 }
-
 
 export type OutColumn =
   | { readonly kind: 'float'; readonly name: string; readonly values: Float64Array }
