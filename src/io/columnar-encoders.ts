@@ -6,7 +6,7 @@
  */
 import * as A from 'apache-arrow';
 import { ByteWriter, ParquetWriter, parquetWriteBuffer } from 'hyparquet-writer';
-import type { ColumnBatch, OutColumn } from './write-columnar.js';
+import type { ColumnBatch, OutColumn } from './columnar-types.js';
 
 const DAY_MS = 86_400_000;
 

@@ -11,6 +11,7 @@
 import type { Matrix, Target } from '../learning.js';
 import type { Problem } from '../data/problem.js';
 import type { Column } from '../data/types.js';
+import type { ColumnBatch, OutColumn } from './columnar-types.js';
 
 type Encoders = typeof import('./columnar-encoders.js');
 let encoders: Encoders | undefined;
@@ -30,21 +31,7 @@ function loaded(): Encoders {
   return encoders;
 }
 
-export type OutColumn =
-  | { readonly kind: 'float'; readonly name: string; readonly values: Float64Array }
-  | { readonly kind: 'int'; readonly name: string; readonly values: Int32Array; readonly nulls?: Uint8Array }
-  | { readonly kind: 'text'; readonly name: string; readonly codes: Int32Array; readonly levels: readonly string[] }
-  | {
-      readonly kind: 'days';
-      readonly name: string;
-      readonly values: Float64Array;
-      /**
-       * the column's type decided by the caller over all its rows: true a millisecond timestamp,
-       * false a date of whole days; absent, it follows the values given (a batch's only, so a file
-       * written batch by batch must set it, or a later batch with a time of day is refused)
-       */
-      readonly times?: boolean;
-    };
+export type { ColumnBatch, OutColumn } from './columnar-types.js';
 
 /** A table column (all rows or the listed rows) as an output column. */
 export function outColumn(c: Column, rows?: ArrayLike<number>): OutColumn {
@@ -64,14 +51,6 @@ export function hasTimeOfDay(values: ArrayLike<number>): boolean {
   return false;
 }
 
-/**
- * One batch of a file written batch by batch: every batch of a file has the same column names
- * and kinds, and a text column the same `levels` array in every batch.
- */
-export interface ColumnBatch {
-  readonly columns: readonly OutColumn[];
-  readonly length: number;
-}
 
 /** The columns as an Arrow IPC file (Feather version 2). */
 export function arrowBytes(columns: readonly OutColumn[], length: number): Uint8Array {
