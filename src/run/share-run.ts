@@ -11,6 +11,7 @@ import type { Table } from '../data/types.js';
 import type { Target } from '../learning.js';
 import type { PlannedProblem } from '../plans/plan-for.js';
 import type { BuiltPlan, Fold } from '../plans/types.js';
+import { shared as toShared } from './share.js';
 
 /** The problem without the table and its columns: those the worker has already. */
 export interface SharedProblem extends Omit<Problem, 'table' | 'features'> {
@@ -20,14 +21,6 @@ export interface SharedProblem extends Omit<Problem, 'table' | 'features'> {
 export interface SharedRun {
   readonly problem: SharedProblem;
   readonly planned: PlannedProblem;
-}
-
-function toShared<T extends Float64Array | Int32Array>(a: T): T {
-  if (a.buffer instanceof SharedArrayBuffer) return a;
-  const Ctor = a.constructor as { new (buf: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number };
-  const out = new Ctor(new SharedArrayBuffer(a.length * Ctor.BYTES_PER_ELEMENT));
-  out.set(a as never);
-  return out;
 }
 
 type Mutable<T> = { -readonly [K in keyof T]: T[K] };

@@ -5,7 +5,8 @@
  */
 import type { Column, Table } from '../data/types.js';
 
-function shared<T extends Float64Array | Int32Array>(a: T): T {
+/** The array itself when it already lives in shared memory, else a copy that does. */
+export function shared<T extends Float64Array | Int32Array>(a: T): T {
   const Ctor = a.constructor as { new (buf: SharedArrayBuffer): T; BYTES_PER_ELEMENT: number };
   if (a.buffer instanceof SharedArrayBuffer) return a;
   const out = new Ctor(new SharedArrayBuffer(a.length * Ctor.BYTES_PER_ELEMENT));
