@@ -137,7 +137,9 @@ describe('tune --jobs and stop signals', () => {
   it('ends on SIGINT with exit 130 and writes no report', async () => {
     const bin = join(process.cwd(), 'dist', 'src', 'cli', 'bin.js');
     const out = join(tmp.dir, 'stopped.json');
-    const args = ['tune', penguins, '--target', 'Species', '--drop', 'Island', '--learner', 'forest:trees=100|200,min-leaf=1|2|3|4', '--plan', 'kfold:10', '--inner', 'kfold:5', '--jobs', '2', '--no-timing', '--json', out];
+    // a search of several seconds (6.7 s wall here on an idle machine with kfold:10x5): with kfold:10
+    // the whole search took 2.1 to 2.3 s, so a signal 1.5 s after its start could come after the end
+    const args = ['tune', penguins, '--target', 'Species', '--drop', 'Island', '--learner', 'forest:trees=100|200,min-leaf=1|2|3|4', '--plan', 'kfold:10x5', '--inner', 'kfold:5', '--jobs', '2', '--no-timing', '--json', out];
     const child = spawn(process.execPath, [bin, ...args], { stdio: ['ignore', 'ignore', 'pipe'] });
     let stderr = '';
     let sent = false;
