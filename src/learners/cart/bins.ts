@@ -72,6 +72,39 @@ export function quantileCuts(sorted: Float64Array, maxBins: number, scratch?: Ui
   return Float64Array.from(cuts);
 }
 
+/**
+ * The cuts in a 256-slot array, the slots past the last cut holding +Infinity, for codeOfPadded.
+ * Only for cuts of at most MAX_BINS - 1 = 254 points.
+ */
+export function paddedCuts(cuts: Float64Array): Float64Array {
+  if (cuts.length > MAX_BINS - 1) throw new RangeError(`${cuts.length} cut points; at most ${MAX_BINS - 1} can be padded`);
+  const out = new Float64Array(256).fill(Infinity);
+  out.set(cuts);
+  return out;
+}
+
+/**
+ * Number of cuts strictly below x, on cuts padded by paddedCuts: the same as codeOf on the cuts
+ * themselves (a padded +Infinity is never below x; NaN is below nothing, so it gets 0). Eight
+ * fixed halving steps, each adding its step when the slot before it is below x; the step is
+ * masked by the comparison, not chosen by a branch. A binary search's branch goes either way
+ * half the time on the values of a column, and at 20 million values the missed predictions
+ * cost more than the comparisons (measured 2026-12-05: 1,000,000 codes in 13 to 20 ms here
+ * against 66 to 81 ms for codeOf's loop, in one process).
+ */
+export function codeOfPadded(padded: Float64Array, x: number): number {
+  let i = 0;
+  i += 128 & -(padded[i + 127] < x);
+  i += 64 & -(padded[i + 63] < x);
+  i += 32 & -(padded[i + 31] < x);
+  i += 16 & -(padded[i + 15] < x);
+  i += 8 & -(padded[i + 7] < x);
+  i += 4 & -(padded[i + 3] < x);
+  i += 2 & -(padded[i + 1] < x);
+  i += 1 & -(padded[i] < x);
+  return i;
+}
+
 /** Number of cuts strictly below x (binary search). */
 export function codeOf(cuts: Float64Array, x: number): number {
   let lo = 0;
@@ -114,7 +147,8 @@ export function binMatrix(X: Matrix, maxBins: number, learner: string): BinnedMa
     const c = quantileCuts(sorted, maxBins, scratch);
     cuts.push(c);
     const base = j * n;
-    for (let i = 0; i < n; i++) codes[base + i] = codeOf(c, column[i]);
+    const padded = paddedCuts(c);
+    for (let i = 0; i < n; i++) codes[base + i] = codeOfPadded(padded, column[i]);
   }
   return { rows: n, cols: p, codes, cuts };
 }
@@ -131,11 +165,10 @@ export function codeRows(X: Matrix, cuts: readonly Float64Array[]): Uint8Array {
   if (cuts.length !== p) throw new RangeError(`${cuts.length} features of cut points for a matrix of ${p} columns`);
   const out = new Uint8Array(n * p);
   const buffer = new Float64Array(n);
-  const scratch = new Uint32Array(2 * n);
   for (let j = 0; j < p; j++) {
     const column = matrixColumn(X, j, buffer);
-    const c = cuts[j];
-    for (let i = 0; i < n; i++) out[i * p + j] = codeOf(c, column[i]);
+    const padded = paddedCuts(cuts[j]);
+    for (let i = 0; i < n; i++) out[i * p + j] = codeOfPadded(padded, column[i]);
   }
   return out;
 }

@@ -241,6 +241,14 @@ export class TreeGrower {
    * Moves positions with code <= bin to the front of [start, end), keeping the order of each
    * side (rows start ascending, so every node's rows stay ascending and the code lookups of a
    * scan walk memory forwards); returns the boundary.
+   *
+   * Without a branch: each position is written both to the front (at l) and to the scratch (at
+   * r), and the side it belongs to advances by one. A write at l <= i lands on a position
+   * already read, and is overwritten by the next left position or the copy back from the
+   * scratch. (A branch on the code goes either way about half the time on a good split, and
+   * the missed predictions dominated: measured 2026-12-05 on 1,000,000 positions, 7.0 to 7.5 ms
+   * a pass against 12.2 to 12.4 ms with the branch, in one process.) right = 1 exactly when
+   * bin - code < 0, as both are 0..255.
    */
   private partition(rows: Int32Array, start: number, end: number, f: number, bin: number): number {
     const codes = this.codes;
@@ -255,17 +263,17 @@ export class TreeGrower {
       const tmpC = this.tmpC;
       for (let i = start; i < end; i++) {
         const row = rows[i];
-        if (codes[base + row] <= bin) {
-          rows[l] = row;
-          posW[l] = posW[i];
-          posC[l] = posC[i];
-          l++;
-        } else {
-          tmpRows[r] = row;
-          tmpW[r] = posW[i];
-          tmpC[r] = posC[i];
-          r++;
-        }
+        const w = posW[i];
+        const c = posC[i];
+        const right = (bin - codes[base + row]) >>> 31;
+        rows[l] = row;
+        posW[l] = w;
+        posC[l] = c;
+        tmpRows[r] = row;
+        tmpW[r] = w;
+        tmpC[r] = c;
+        l += 1 - right;
+        r += right;
       }
       for (let k = 0; k < r; k++) posC[l + k] = tmpC[k];
     } else {
@@ -273,17 +281,17 @@ export class TreeGrower {
       const tmpY = this.tmpY;
       for (let i = start; i < end; i++) {
         const row = rows[i];
-        if (codes[base + row] <= bin) {
-          rows[l] = row;
-          posW[l] = posW[i];
-          posY[l] = posY[i];
-          l++;
-        } else {
-          tmpRows[r] = row;
-          tmpW[r] = posW[i];
-          tmpY[r] = posY[i];
-          r++;
-        }
+        const w = posW[i];
+        const y = posY[i];
+        const right = (bin - codes[base + row]) >>> 31;
+        rows[l] = row;
+        posW[l] = w;
+        posY[l] = y;
+        tmpRows[r] = row;
+        tmpW[r] = w;
+        tmpY[r] = y;
+        l += 1 - right;
+        r += right;
       }
       for (let k = 0; k < r; k++) posY[l + k] = tmpY[k];
     }
