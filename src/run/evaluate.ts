@@ -82,7 +82,7 @@ export function frameOf(prepared: Prepared): ReportFrame {
       ...(problem.orderName !== undefined ? { order: problem.orderName } : {}),
       seed: prepared.seed,
       ...(plan.holdout ? { holdoutRows: plan.holdout.length, finalScored: prepared.final } : {}),
-      assignment: assignmentOf(plan.folds.map((f) => ({ repeat: f.repeat, fold: f.fold, rows: Array.from(f.test, (u) => problem.rows[u]) }))),
+      assignment: assignmentOf(plan.folds.map((f) => ({ repeat: f.repeat, fold: f.fold, rows: Float64Array.from(f.test, (u) => problem.rows[u]) }))),
     },
     settings: { impute: prepared.impute, ...(prepared.costs ? { costs: { sha256: prepared.costs.sha256, classes: [...prepared.costs.classes], matrix: costRows(prepared.costs) } } : {}) },
     metrics: metrics.map((m) => m.name),
